@@ -1,0 +1,4 @@
+export * from './auth/role';
+export * from './auth/user';
+export * from './auth/audit-entry';
+export * from './problem/problem';
