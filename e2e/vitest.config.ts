@@ -1,0 +1,13 @@
+import { defineConfig } from 'vitest/config';
+
+// Browser tests: one real server per file, one Chromium at a time (these machines have two cores).
+export default defineConfig({
+  test: {
+    include: ['e2e/**/*.e2e.ts'],
+    environment: 'node',
+    testTimeout: 90_000,
+    hookTimeout: 120_000,
+    fileParallelism: false,
+    pool: 'forks',
+  },
+});
