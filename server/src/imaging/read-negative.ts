@@ -1,0 +1,160 @@
+import { open, stat } from 'node:fs/promises';
+import sharp from 'sharp';
+import type { Metadata, OutputInfo } from 'sharp';
+import { ImageInputError } from './image-input-error';
+import { sniffFormat, type SniffedFormat } from './sniff-format';
+
+// A 6x7 cm frame scanned at 4000 ppi is about 9500 x 11000 = 105 MP; common practice of the trade, from memory.
+export const DEFAULT_MAX_PIXELS = 120_000_000;
+
+export interface ReadNegativeOptions {
+  /** Largest width × height accepted, checked from the header before any pixel is decoded. Default 120 000 000. */
+  maxPixels?: number;
+  /** Put the pixels in a SharedArrayBuffer so worker threads can read them without a copy. Default false. */
+  shared?: boolean;
+}
+
+export interface NegativeImage {
+  width: number;
+  height: number;
+  /** Interleaved R,G,B scanner counts at 16-bit full scale (an 8-bit file is scaled by 257). */
+  data: Uint16Array;
+  /** Bits per sample of the file as stored. */
+  bitDepth: 8 | 16;
+  format: Exclude<SniffedFormat, 'unknown'>;
+  /** Things the operator should know that did not stop the read (8-bit source, dropped alpha...). */
+  warnings: string[];
+}
+
+const FORMAT_NAMES: Record<Exclude<SniffedFormat, 'unknown'>, string> = { tiff: 'TIFF', png: 'PNG', jpeg: 'JPEG' };
+
+/**
+ * Reads a raw negative scan as 16-bit interleaved RGB.
+ *
+ * Accepts TIFF and PNG at 16 bits per sample; 8-bit TIFF, PNG and JPEG are read with a warning,
+ * since 8 bits leave too few levels in the dense parts of a negative. Alpha is dropped with a
+ * warning. An embedded ICC profile is ignored (with a warning): the scanner profile, not the file,
+ * says how counts are encoded. Greyscale files are refused (`not-colour`): a colour negative needs
+ * all three channels to sample the base and invert, and a grey copy would be silently wrong.
+ *
+ * Throws `ImageInputError` with code `missing`, `empty`, `not-an-image`, `truncated`,
+ * `unsupported-format`, `too-many-pixels` (checked from the header, before decoding),
+ * `unsupported-depth` or `not-colour`.
+ *
+ * @example
+ *   const { width, height, data, warnings } = await readNegative('roll-12/frame-03.tif', { maxPixels: 60e6 });
+ */
+export async function readNegative(path: string, options: ReadNegativeOptions = {}): Promise<NegativeImage> {
+  const maxPixels = options.maxPixels ?? DEFAULT_MAX_PIXELS;
+  if (!Number.isInteger(maxPixels) || maxPixels < 1) {
+    throw new TypeError(`Expected positive integer for maxPixels but received ${maxPixels} of type ${typeof maxPixels}`);
+  }
+
+  const head = await readHead(path);
+  const sniffed = sniffFormat(head);
+  if (sniffed === 'unknown') {
+    throw new ImageInputError('not-an-image', 'The file is not an image: it does not start like a TIFF, PNG or JPEG file.');
+  }
+  const formatName = FORMAT_NAMES[sniffed];
+  const damaged = (cause: unknown) =>
+    new ImageInputError(
+      'truncated',
+      `The file starts like a ${formatName} image but its data is incomplete or damaged; it may have been cut off during copying or upload.`,
+      { cause },
+    );
+
+  let meta: Metadata;
+  try {
+    meta = await sharp(path, { limitInputPixels: false }).metadata();
+  } catch (cause) {
+    throw damaged(cause);
+  }
+  const { width, height } = meta;
+  if (!width || !height) throw damaged(new Error('header has no size'));
+  if (width * height > maxPixels) {
+    throw new ImageInputError(
+      'too-many-pixels',
+      `The image is ${width} × ${height} pixels (${formatMegapixels(width * height)}), more than the ${formatMegapixels(maxPixels)} allowed.`,
+    );
+  }
+
+  const warnings: string[] = [];
+  let bitDepth: 8 | 16;
+  if (meta.depth === 'ushort') {
+    bitDepth = 16;
+  } else if (meta.depth === 'uchar') {
+    bitDepth = 8;
+    warnings.push('The scan has 8 bits per channel; 16-bit scans keep more detail in the dense parts of the negative.');
+  } else {
+    throw new ImageInputError(
+      'unsupported-depth',
+      `The image stores samples as ${meta.depth ?? 'an unknown type'}; only 8- and 16-bit integer samples are supported.`,
+    );
+  }
+  if (meta.space === 'cmyk') {
+    throw new ImageInputError('not-colour', 'The image is CMYK; a negative scan must be RGB.');
+  }
+  const colourChannels = meta.hasAlpha ? meta.channels - 1 : meta.channels;
+  if (colourChannels < 3) {
+    throw new ImageInputError(
+      'not-colour',
+      'The scan is greyscale; a colour negative must be scanned in RGB so the film base and each dye layer can be measured.',
+    );
+  }
+  if (meta.hasAlpha) warnings.push('The alpha channel was dropped.');
+  if (meta.icc) warnings.push('The embedded ICC profile was ignored; the scanner profile describes how counts are encoded.');
+
+  let raw: { data: Buffer; info: OutputInfo };
+  try {
+    raw = await sharp(path, { limitInputPixels: maxPixels, failOn: 'error', ignoreIcc: true, sequentialRead: true })
+      .removeAlpha()
+      .toColourspace(bitDepth === 16 ? 'rgb16' : 'srgb')
+      .raw({ depth: bitDepth === 16 ? 'ushort' : 'uchar' })
+      .toBuffer({ resolveWithObject: true });
+  } catch (cause) {
+    throw damaged(cause);
+  }
+  if (raw.info.channels !== 3 || raw.info.width !== width || raw.info.height !== height) {
+    throw damaged(new Error(`decoded ${raw.info.width}x${raw.info.height}x${raw.info.channels}`));
+  }
+  const shared = options.shared ?? false;
+  const data = bitDepth === 16 ? toUint16(raw.data, shared) : expand8(raw.data, shared);
+  return { width, height, data, bitDepth, format: sniffed, warnings };
+}
+
+async function readHead(path: string): Promise<Uint8Array> {
+  let size: number;
+  try {
+    size = (await stat(path)).size;
+  } catch (cause) {
+    throw new ImageInputError('missing', `No file was found at ${path}.`, { cause });
+  }
+  if (size === 0) throw new ImageInputError('empty', 'The file is empty (0 bytes).');
+  const handle = await open(path, 'r');
+  try {
+    const head = new Uint8Array(16);
+    const { bytesRead } = await handle.read(head, 0, head.length, 0);
+    return head.subarray(0, bytesRead);
+  } finally {
+    await handle.close();
+  }
+}
+
+function toUint16(bytes: Buffer, shared: boolean): Uint16Array {
+  const count = bytes.byteLength / 2;
+  if (!shared && bytes.byteOffset % 2 === 0) return new Uint16Array(bytes.buffer, bytes.byteOffset, count);
+  const out = new Uint16Array(shared ? new SharedArrayBuffer(bytes.byteLength) : new ArrayBuffer(bytes.byteLength));
+  new Uint8Array(out.buffer).set(bytes);
+  return out;
+}
+
+/** 8 → 16 bits by ×257, so 255 maps to 65535 (sharp's own cast shifts by 8 and stops at 65280). */
+function expand8(bytes: Buffer, shared: boolean): Uint16Array {
+  const out = new Uint16Array(shared ? new SharedArrayBuffer(bytes.length * 2) : new ArrayBuffer(bytes.length * 2));
+  for (let i = 0; i < bytes.length; i++) out[i] = bytes[i]! * 257;
+  return out;
+}
+
+function formatMegapixels(pixels: number): string {
+  return `${(pixels / 1e6).toFixed(1)} MP`;
+}
