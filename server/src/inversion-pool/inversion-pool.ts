@@ -1,0 +1,108 @@
+import { availableParallelism } from 'node:os';
+import { createRequire } from 'node:module';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { Piscina } from 'piscina';
+import type { InvertChunkTask } from './invert-chunk';
+
+export interface InversionPoolOptions {
+  /** Worker threads. Default `os.availableParallelism()`. */
+  threads?: number;
+  /** Slices per frame per thread; more slices even out uneven threads at a small cost per task. Default 2. */
+  slicesPerThread?: number;
+}
+
+export interface InversionPool {
+  readonly threads: number;
+  /**
+   * Inverts a whole frame across the workers. `input` and `output` must be backed by a
+   * SharedArrayBuffer (see `sharedLike`) so the workers write the result in place, without copies.
+   * Resolves when every pixel is written.
+   */
+  invertFrame(
+    plan: InvertChunkTask['plan'],
+    input: Uint16Array,
+    output: InvertChunkTask['output'],
+    width: number,
+    height: number,
+  ): Promise<void>;
+  /** Stops the workers once running slices finish. */
+  close(): Promise<void>;
+}
+
+const WORKER_URL = new URL('./invert-chunk.ts', import.meta.url);
+const ROOT_TSCONFIG = fileURLToPath(new URL('../../../tsconfig.json', import.meta.url));
+
+/**
+ * The node flags a worker needs to load `file`: TypeScript sources are loaded through tsx, so the
+ * same worker file runs under vitest, tsx and the command line alike.
+ */
+export function workerExecArgv(file: URL): string[] {
+  if (!file.pathname.endsWith('.ts')) return [];
+  const tsx = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
+  return ['--import', tsx];
+}
+
+/**
+ * Starts a pool of worker threads that invert frames slice by slice.
+ *
+ * The main thread compiles the plan once (`compileInversion`); each slice task carries the plan
+ * (structured-cloned) and views of the shared input and output buffers.
+ *
+ * @example
+ *   const pool = createInversionPool({ threads: 2 });
+ *   await pool.invertFrame(plan, negative.data, output, negative.width, negative.height);
+ *   await pool.close();
+ */
+export function createInversionPool(options: InversionPoolOptions = {}): InversionPool {
+  const threads = options.threads ?? availableParallelism();
+  const slicesPerThread = options.slicesPerThread ?? 2;
+  if (!Number.isInteger(threads) || threads < 1 || threads > 256) {
+    throw new TypeError(`Expected integer between 1 and 256 for threads but received ${threads} of type ${typeof threads}`);
+  }
+  if (!Number.isInteger(slicesPerThread) || slicesPerThread < 1 || slicesPerThread > 64) {
+    throw new TypeError(
+      `Expected integer between 1 and 64 for slicesPerThread but received ${slicesPerThread} of type ${typeof slicesPerThread}`,
+    );
+  }
+  const piscina = new Piscina<InvertChunkTask, number>({
+    filename: WORKER_URL.href,
+    minThreads: threads,
+    maxThreads: threads,
+    // Frames of a roll arrive back to back; keep the workers warm between them.
+    idleTimeout: 60_000,
+    execArgv: workerExecArgv(WORKER_URL),
+    env: { ...process.env, TSX_TSCONFIG_PATH: ROOT_TSCONFIG },
+  });
+
+  return {
+    threads,
+    async invertFrame(plan, input, output, width, height) {
+      const pixels = width * height;
+      if (input.length < pixels * 3 || output.length < pixels * 3) {
+        throw new TypeError(`Expected at least ${pixels * 3} samples for input and output but received ${input.length} and ${output.length}`);
+      }
+      if (!(input.buffer instanceof SharedArrayBuffer) || !(output.buffer instanceof SharedArrayBuffer)) {
+        throw new TypeError('Expected input and output backed by a SharedArrayBuffer');
+      }
+      const slices = Math.min(height, threads * slicesPerThread);
+      const rowsPerSlice = Math.ceil(height / slices);
+      const tasks: Promise<number>[] = [];
+      for (let row = 0; row < height; row += rowsPerSlice) {
+        const rows = Math.min(rowsPerSlice, height - row);
+        tasks.push(piscina.run({ plan, input, output, firstPixel: row * width, pixelCount: rows * width }));
+      }
+      await Promise.all(tasks);
+    },
+    async close() {
+      await piscina.close();
+    },
+  };
+}
+
+/** A zeroed typed array of the same kind and length as `like`, on a SharedArrayBuffer. */
+export function sharedLike<T extends Uint8Array | Uint16Array | Float32Array>(
+  kind: { new (buffer: SharedArrayBuffer): T; BYTES_PER_ELEMENT: number },
+  length: number,
+): T {
+  return new kind(new SharedArrayBuffer(length * kind.BYTES_PER_ELEMENT));
+}
