@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createInversionPool, sharedLike, type InversionPool } from './inversion-pool';
+import { createInversionPool, sharedArray, type InversionPool } from './inversion-pool';
 import {
   applyInversion,
   compileInversion,
@@ -22,7 +22,7 @@ afterAll(async () => {
 
 function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: number[]) {
   const neg = synthesizeNegative({ width, height, stock: SYNTH_STOCKS['tidewater-400']!, seed: 7 });
-  const input = sharedLike(Uint16Array, neg.data.length);
+  const input = sharedArray(Uint16Array, neg.data.length);
   input.set(neg.data);
   const base = detectFilmBase(neg);
   const stock = { ...NEUTRAL_STOCK, ...(crosstalk ? { crosstalk } : {}) };
@@ -38,7 +38,7 @@ describe('inversion pool', () => {
       const kind = output === 'u8' ? Uint8Array : Uint16Array;
       const single = new kind(neg.data.length);
       applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
-      const pooled = sharedLike(kind, neg.data.length);
+      const pooled = sharedArray(kind, neg.data.length);
       await pool.invertFrame(plan, input, pooled, neg.width, neg.height);
       expect(Buffer.from(pooled.buffer).equals(Buffer.from(single.buffer))).toBe(true);
     });
@@ -48,7 +48,7 @@ describe('inversion pool', () => {
     const { neg, input, plan } = frame(50, 3, 'u8');
     const single = new Uint8Array(neg.data.length);
     applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
-    const pooled = sharedLike(Uint8Array, neg.data.length);
+    const pooled = sharedArray(Uint8Array, neg.data.length);
     await pool.invertFrame(plan, input, pooled, neg.width, neg.height);
     expect(Array.from(pooled)).toEqual(Array.from(single));
   });

@@ -15,7 +15,7 @@ export interface InversionPool {
   readonly threads: number;
   /**
    * Inverts a whole frame across the workers. `input` and `output` must be backed by a
-   * SharedArrayBuffer (see `sharedLike`) so the workers write the result in place, without copies.
+   * SharedArrayBuffer (see `sharedArray`) so the workers write the result in place, without copies.
    * Resolves when every pixel is written.
    */
   invertFrame(
@@ -99,10 +99,7 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
   };
 }
 
-/** A zeroed typed array of the same kind and length as `like`, on a SharedArrayBuffer. */
-export function sharedLike<T extends Uint8Array | Uint16Array | Float32Array>(
-  kind: { new (buffer: SharedArrayBuffer): T; BYTES_PER_ELEMENT: number },
-  length: number,
-): T {
-  return new kind(new SharedArrayBuffer(length * kind.BYTES_PER_ELEMENT));
+/** A zeroed typed array of `length` elements on a SharedArrayBuffer, for `invertFrame`. */
+export function sharedArray<K extends Uint8ArrayConstructor | Uint16ArrayConstructor>(kind: K, length: number): InstanceType<K> {
+  return new kind(new SharedArrayBuffer(length * kind.BYTES_PER_ELEMENT)) as InstanceType<K>;
 }
