@@ -100,6 +100,10 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
 }
 
 /** A zeroed typed array of `length` elements on a SharedArrayBuffer, for `invertFrame`. */
-export function sharedArray<K extends Uint8ArrayConstructor | Uint16ArrayConstructor>(kind: K, length: number): InstanceType<K> {
-  return new kind(new SharedArrayBuffer(length * kind.BYTES_PER_ELEMENT)) as InstanceType<K>;
+export function sharedArray(kind: Uint8ArrayConstructor, length: number): Uint8Array;
+export function sharedArray(kind: Uint16ArrayConstructor, length: number): Uint16Array;
+export function sharedArray(kind: Uint8ArrayConstructor | Uint16ArrayConstructor, length: number): Uint8Array | Uint16Array;
+export function sharedArray(kind: Uint8ArrayConstructor | Uint16ArrayConstructor, length: number): Uint8Array | Uint16Array {
+  const buffer = new SharedArrayBuffer(length * kind.BYTES_PER_ELEMENT);
+  return kind === Uint8Array ? new Uint8Array(buffer) : new Uint16Array(buffer);
 }
