@@ -1,0 +1,132 @@
+import { spawn } from 'node:child_process';
+import { mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readPositiveMetadata } from '../imaging/index';
+
+const BIN = fileURLToPath(new URL('../../../bin/clearbase.mjs', import.meta.url));
+
+interface CliRun {
+  code: number | null;
+  stdout: string;
+  stderr: string;
+}
+
+/** Spawns the real command line, as a user would, from `cwd`. */
+function runCli(args: string[], cwd = process.cwd()): Promise<CliRun> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, [BIN, ...args], { cwd, stdio: ['ignore', 'pipe', 'pipe'] });
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
+    child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
+    child.on('error', reject);
+    child.on('close', (code) => resolve({ code, stdout, stderr }));
+  });
+}
+
+describe('clearbase command line', () => {
+  it('prints the usage text and exits 2 when run without a command', async () => {
+    const run = await runCli([]);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toMatch(/Usage:/);
+  });
+
+  it('exits 2 with the usage text for an unknown command', async () => {
+    const run = await runCli(['develop']);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toMatch(/Unknown command "develop"/);
+    expect(run.stderr).toMatch(/clearbase invert/);
+  });
+
+  it('prints help on stdout and exits 0', async () => {
+    const run = await runCli(['--help']);
+    expect(run.code).toBe(0);
+    expect(run.stdout).toMatch(/clearbase synth/);
+  });
+});
+
+describe('clearbase synth, invert and profile validate', () => {
+  let dir: string;
+  let negatives: string[];
+  beforeAll(async () => {
+    dir = await mkdtemp(join(tmpdir(), 'clearbase-cli-'));
+    const run = await runCli(['synth', '--out', 'neg', '--frames', '3', '--stock', 'tidewater-400', '--width', '240', '--height', '160'], dir);
+    expect(run.code).toBe(0);
+    negatives = run.stdout.trim().split('\n');
+  }, 60_000);
+  afterAll(async () => {
+    await rm(dir, { recursive: true, force: true });
+  });
+
+  it('synth writes 16-bit TIFF negatives', async () => {
+    expect(negatives).toEqual(['neg/tidewater-400-frame-01.tif', 'neg/tidewater-400-frame-02.tif', 'neg/tidewater-400-frame-03.tif']);
+    const meta = await sharp(join(dir, negatives[0]!)).metadata();
+    expect(meta).toMatchObject({ format: 'tiff', width: 240, height: 160, depth: 'ushort' });
+  });
+
+  it('inverts every frame, printing one JSON line each, and exits 0', async () => {
+    const run = await runCli(['invert', ...negatives, '--out', 'pos', '--json'], dir);
+    expect(run.code).toBe(0);
+    const lines = run.stdout.trim().split('\n').map((l) => JSON.parse(l) as Record<string, unknown>);
+    expect(lines.map((l) => l['file']).sort()).toEqual(negatives);
+    for (const line of lines) {
+      expect(line).toMatchObject({ output: expect.stringMatching(/^pos\/tidewater-400-frame-0\d\.jpg$/), warnings: [] });
+      const base = line['base'] as { rgb: number[]; region: number[]; confidence: number };
+      expect(base.rgb).toHaveLength(3);
+      for (const v of base.rgb) {
+        expect(v).toBeGreaterThan(0);
+        expect(v).toBeLessThanOrEqual(1);
+      }
+      expect(base.region).toHaveLength(4);
+      expect(base.confidence).toBeGreaterThan(0.5);
+      expect(typeof line['ms']).toBe('number');
+    }
+    expect((await readdir(join(dir, 'pos'))).sort()).toEqual(['tidewater-400-frame-01.jpg', 'tidewater-400-frame-02.jpg', 'tidewater-400-frame-03.jpg']);
+  });
+
+  it('writes 16-bit TIFF positives for a roll with one shared base and the profile in the metadata', async () => {
+    await writeFile(join(dir, 'stock.json'), JSON.stringify({ stock: 'Tidewater 400', version: 2, gamma: [0.58, 0.6, 0.61] }));
+    const run = await runCli(['invert', ...negatives, '--out', 'roll', '--roll', '--format', 'tiff16', '--profile', 'stock.json', '--json'], dir);
+    expect(run.code).toBe(0);
+    const lines = run.stdout.trim().split('\n').map((l) => JSON.parse(l) as { base: { rgb: number[] }; output: string });
+    expect(new Set(lines.map((l) => JSON.stringify(l.base.rgb))).size).toBe(1);
+    const read = await readPositiveMetadata(join(dir, lines[0]!.output));
+    expect(read.bitDepth).toBe(16);
+    expect(read.metadata).toMatchObject({ stock: 'Tidewater 400', profileVersion: 'Tidewater 400@2' });
+  });
+
+  it('exits 1 when one negative is truncated, writing all the others', async () => {
+    const whole = await readFile(join(dir, negatives[1]!));
+    await writeFile(join(dir, 'neg', 'cut.tif'), whole.subarray(0, whole.length >> 1));
+    const run = await runCli(['invert', negatives[0]!, 'neg/cut.tif', negatives[2]!, '--out', 'mixed', '--json'], dir);
+    expect(run.code).toBe(1);
+    const lines = run.stdout.trim().split('\n').map((l) => JSON.parse(l) as { file: string; error?: { code: string } });
+    expect(lines.find((l) => l.file === 'neg/cut.tif')?.error?.code).toBe('truncated');
+    expect(run.stderr).toMatch(/cut\.tif: The file starts like a TIFF image/);
+    expect((await readdir(join(dir, 'mixed'))).sort()).toEqual(['tidewater-400-frame-01.jpg', 'tidewater-400-frame-03.jpg']);
+  });
+
+  it('exits 2 with the usage text for a bad option value', async () => {
+    const run = await runCli(['invert', negatives[0]!, '--out', 'x', '--format', 'gif'], dir);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toMatch(/Expected one of jpeg, tiff16, png16 for --format but received gif/);
+    expect(run.stderr).toMatch(/Usage:/);
+  });
+
+  it('validates a good profile with exit 0 and lists each error of a bad one with its path', async () => {
+    await writeFile(join(dir, 'good.json'), JSON.stringify({ stock: 'Larkspur 200', gamma: [0.62, 0.6, 0.58] }));
+    await writeFile(join(dir, 'bad.json'), JSON.stringify({ stock: '', gamma: [0.6, -1, 0.6], crosstalk: [1, 0] }));
+    const good = await runCli(['profile', 'validate', 'good.json'], dir);
+    expect(good.code).toBe(0);
+    expect(good.stdout).toMatch(/valid stock profile "Larkspur 200" version 1/);
+    const bad = await runCli(['profile', 'validate', 'bad.json'], dir);
+    expect(bad.code).toBe(1);
+    expect(bad.stderr).toMatch(/^bad\.json: stock: /m);
+    expect(bad.stderr).toMatch(/^bad\.json: gamma\.1: /m);
+    expect(bad.stderr).toMatch(/^bad\.json: crosstalk: /m);
+  });
+});
