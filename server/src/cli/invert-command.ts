@@ -4,6 +4,7 @@ import sharp from 'sharp';
 import type { z } from 'zod';
 import { ImageInputError, POSITIVE_EXTENSIONS, readNegative, type PositiveFormat } from '../imaging/index';
 import { createInversionPool } from '../inversion-pool/inversion-pool';
+import { runPipelined } from '../inversion-pool/run-pipelined';
 import { invertNegativeFile, measureFrame, type FrameResult, type FrameSettings } from '../inversion-pool/invert-negative-file';
 import {
   LINEAR_SCANNER,
@@ -92,18 +93,15 @@ export async function invertCommand(args: string[]): Promise<number> {
 
   const pool = createInversionPool(threads ? { threads } : {});
   try {
-    const next = async (): Promise<void> => {
-      for (let index = todo.shift(); index !== undefined; index = todo.shift()) {
-        try {
-          report.success(await invertNegativeFile(pool, files[index]!, outputs[index]!, settings));
-        } catch (error) {
-          if (!(error instanceof ImageInputError)) throw error;
-          failed++;
-          report.failure(files[index]!, error);
-        }
+    await runPipelined(todo, FRAMES_IN_FLIGHT, async (index) => {
+      try {
+        report.success(await invertNegativeFile(pool, files[index]!, outputs[index]!, settings));
+      } catch (error) {
+        if (!(error instanceof ImageInputError)) throw error;
+        failed++;
+        report.failure(files[index]!, error);
       }
-    };
-    await Promise.all(Array.from({ length: FRAMES_IN_FLIGHT }, next));
+    });
   } finally {
     await pool.close();
   }

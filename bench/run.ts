@@ -1,0 +1,75 @@
+// Benchmarks of the inversion path, measured side by side in one run. `npm run bench [-- --quick] [-- --reps N]`.
+import { execFile } from 'node:child_process';
+import { availableParallelism } from 'node:os';
+import { join } from 'node:path';
+import { promisify } from 'node:util';
+import { parseArgs } from 'node:util';
+import { createRequire } from 'node:module';
+import sharp from 'sharp';
+import { readNegative, writePositive } from '../server/src/imaging/index';
+import { createInversionPool } from '../server/src/inversion-pool/inversion-pool';
+import { invertNegativeFile } from '../server/src/inversion-pool/invert-negative-file';
+import { runPipelined } from '../server/src/inversion-pool/run-pipelined';
+import { BENCH_SETTINGS, OUT_DIR, benchNegative } from './bench-negative';
+import { timeInterleaved } from './interleave';
+
+const { values } = parseArgs({ options: { quick: { type: 'boolean', default: false }, reps: { type: 'string' } } });
+const quick = values.quick;
+// 6000 × 4000 = 24 MP, a 35 mm frame from a high-resolution scanner; common practice of the trade, from memory.
+const [width, height] = quick ? [1500, 1000] : [6000, 4000];
+const reps = Number(values.reps ?? (quick ? 7 : 5));
+const ROLL = 36; // frames on a 35 mm roll, common practice of the trade
+const IN_FLIGHT = 2;
+
+sharp.cache(false);
+const file = await benchNegative(width, height);
+const threads = availableParallelism();
+const pool = createInversionPool({ threads });
+process.stdout.write(`negative ${width} × ${height} 16-bit TIFF, ${threads} threads, sharp concurrency ${sharp.concurrency()}, median of ${reps}\n`);
+
+// An 8-bit positive of realistic content for the I/O floor's encode (JPEG cost depends on content).
+const firstOut = join(OUT_DIR, 'inverted.jpg');
+await invertNegativeFile(pool, file, firstOut, BENCH_SETTINGS);
+const positive8 = new Uint8Array(await sharp(firstOut).raw().toBuffer());
+
+const cases = {
+  ioFloor: async () => {
+    await sharp(file, { limitInputPixels: false }).toColourspace('rgb16').raw({ depth: 'ushort' }).toBuffer();
+    await writePositive(positive8, { path: join(OUT_DIR, 'floor.jpg'), width, height, format: 'jpeg' });
+  },
+  inversion: () => invertNegativeFile(pool, file, firstOut, BENCH_SETTINGS),
+  sharpNegate: () => sharp(file, { limitInputPixels: false }).negate().normalise().jpeg({ quality: 92 }).toFile(join(OUT_DIR, 'negate.jpg')),
+};
+const t = await timeInterleaved(cases, reps);
+
+const rollFrames = Array.from({ length: ROLL }, (_, i) => i);
+const roll = await timeInterleaved(
+  {
+    pipelined: () => runPipelined(rollFrames, IN_FLIGHT, async (i) => void (await invertNegativeFile(pool, file, join(OUT_DIR, `roll-${i % IN_FLIGHT}.jpg`), BENCH_SETTINGS))),
+    oneByOne: async () => {
+      for (const i of rollFrames) await invertNegativeFile(pool, file, join(OUT_DIR, `single.jpg`), BENCH_SETTINGS);
+    },
+  },
+  quick ? 3 : 1,
+);
+await pool.close();
+
+const tsx = createRequire(import.meta.url).resolve('tsx');
+const child = await promisify(execFile)(process.execPath, ['--import', tsx, new URL('./invert-once.ts', import.meta.url).pathname, file, join(OUT_DIR, 'rss.jpg')]);
+const { peakRssMB } = JSON.parse(child.stdout) as { peakRssMB: number };
+// Decode-only check that the file really is 16-bit, so the floor is honest.
+const { bitDepth } = await readNegative(file, { maxPixels: width * height });
+
+const ms = (v: number) => `${v.toFixed(0)} ms`;
+const rows: [string, string, string][] = [
+  ['(a) I/O floor: decode 16-bit + encode 8-bit JPEG', ms(t['ioFloor']!), ''],
+  ['(b) full inversion via the pool to JPEG', ms(t['inversion']!), `b/a = ${(t['inversion']! / t['ioFloor']!).toFixed(2)} (goal ≤ 1.2)`],
+  ['(c) sharp negate().normalise() to JPEG', ms(t['sharpNegate']!), `b/c = ${(t['inversion']! / t['sharpNegate']!).toFixed(2)}`],
+  ['peak RSS of (b), own process', `${peakRssMB} MB`, '(goal ≤ 700 MB)'],
+  [`${ROLL}-frame roll, ${IN_FLIGHT} frames in flight`, ms(roll['pipelined']!), `roll/singles = ${(roll['pipelined']! / roll['oneByOne']!).toFixed(2)} (goal ≤ 0.6)`],
+  [`${ROLL} single frames one after another`, ms(roll['oneByOne']!), ''],
+];
+for (const [name, value, note] of rows) process.stdout.write(`${name.padEnd(52)} ${value.padStart(10)}  ${note}\n`);
+process.stdout.write(
+  `${JSON.stringify({ width, height, bitDepth, threads, reps, ms: t, roll, ratios: { bOverA: t['inversion']! / t['ioFloor']!, bOverC: t['inversion']! / t['sharpNegate']!, rollOverSingles: roll['pipelined']! / roll['oneByOne']! }, peakRssMB })}\n`,
+);
