@@ -1,0 +1,38 @@
+import type { Routes } from '@angular/router';
+import { authGuard } from './auth/auth-guard';
+import { roleGuard } from './auth/role-guard';
+import { signedOutGuard } from './auth/signed-out-guard';
+
+export const appRoutes: Routes = [
+  {
+    path: 'sign-in',
+    title: 'Sign in · Clearbase',
+    canActivate: [signedOutGuard],
+    loadComponent: () => import('./auth/sign-in-page').then((m) => m.SignInPage),
+  },
+  {
+    path: '',
+    canActivate: [authGuard],
+    loadComponent: () => import('./shell/shell').then((m) => m.Shell),
+    children: [
+      {
+        path: '',
+        pathMatch: 'full',
+        title: 'Home · Clearbase',
+        loadComponent: () => import('./home/home-page').then((m) => m.HomePage),
+      },
+      {
+        path: 'account',
+        title: 'Account · Clearbase',
+        loadComponent: () => import('./account/account-page').then((m) => m.AccountPage),
+      },
+      {
+        path: 'admin',
+        canActivateChild: [roleGuard],
+        data: { roles: ['admin'] },
+        loadChildren: () => import('./admin/admin-routes').then((m) => m.adminRoutes),
+      },
+    ],
+  },
+  { path: '**', redirectTo: '' },
+];

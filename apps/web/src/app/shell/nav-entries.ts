@@ -1,0 +1,33 @@
+import type { Role } from '@clearbase/contracts';
+
+/** One line of the side navigation: shown only to the roles listed. */
+export interface NavEntry {
+  /** Stable name; the link carries `data-testid="nav-<name>"`. */
+  name: string;
+  label: string;
+  /** A symbol name from the bundled icon font. */
+  icon: string;
+  path: string;
+  roles: readonly Role[];
+  /** Groups are drawn in this order with a divider between them. */
+  group: 'work' | 'admin' | 'you';
+}
+
+const everyone: readonly Role[] = ['customer', 'operator', 'manager', 'admin'];
+
+/**
+ * Every page of the app that exists, with who may use it. A feature adds its line here when its page lands;
+ * the server checks the same roles on every route, this list only keeps the menu honest.
+ */
+export const navEntries: readonly NavEntry[] = [
+  { name: 'home', label: 'Home', icon: 'home', path: '/', roles: everyone, group: 'work' },
+  { name: 'users', label: 'Users', icon: 'group', path: '/admin/users', roles: ['admin'], group: 'admin' },
+  { name: 'audit', label: 'Audit log', icon: 'history', path: '/admin/audit', roles: ['admin'], group: 'admin' },
+  { name: 'account', label: 'Account', icon: 'manage_accounts', path: '/account', roles: everyone, group: 'you' },
+];
+
+/** The entries a role may see, in menu order. */
+export function navEntriesFor(role: Role | null, entries: readonly NavEntry[] = navEntries): NavEntry[] {
+  if (role === null) return [];
+  return entries.filter((e) => e.roles.includes(role));
+}
