@@ -1,0 +1,25 @@
+import { navEntriesFor } from './nav-entries';
+
+describe('navEntriesFor', () => {
+  it('shows nothing to a visitor who is not signed in', () => {
+    expect(navEntriesFor(null)).toEqual([]);
+  });
+
+  it('gives customers and lab staff home and account but no admin pages', () => {
+    for (const role of ['customer', 'operator', 'manager'] as const) {
+      expect(navEntriesFor(role).map((e) => e.name)).toEqual(['home', 'account']);
+    }
+  });
+
+  it('adds users and the audit log for admins', () => {
+    expect(navEntriesFor('admin').map((e) => e.name)).toEqual(['home', 'users', 'audit', 'account']);
+  });
+
+  it('reads the roles from the list it is given, so features add pages by adding lines', () => {
+    const entries = [
+      { name: 'rolls', label: 'Rolls', icon: 'film', path: '/rolls', roles: ['operator'] as const, group: 'work' as const },
+    ];
+    expect(navEntriesFor('operator', entries).map((e) => e.name)).toEqual(['rolls']);
+    expect(navEntriesFor('customer', entries)).toEqual([]);
+  });
+});
