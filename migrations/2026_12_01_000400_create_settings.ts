@@ -1,0 +1,13 @@
+import type { Kysely } from 'kysely';
+
+export async function up(db: Kysely<any>): Promise<void> {
+  await db.schema
+    .createTable('settings')
+    .addColumn('key', 'text', (c) => c.primaryKey())
+    .addColumn('value', 'text', (c) => c.notNull())
+    .execute();
+}
+
+export async function down(db: Kysely<any>): Promise<void> {
+  await db.schema.dropTable('settings').execute();
+}

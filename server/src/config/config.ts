@@ -1,0 +1,104 @@
+import { randomBytes } from 'node:crypto';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { z } from 'zod';
+
+const intFromEnv = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  // 4300: chosen for Clearbase so it does not collide with the Angular dev server's 4200
+  PORT: intFromEnv(1, 65535).default(4300),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  DATA_DIR: z.string().min(1).default('./data'),
+  SESSION_SECRET: z.string().min(32, 'Use at least 32 characters').optional(),
+  PUBLIC_URL: z.url().optional(),
+  // one working day: common practice for staff web applications, from memory
+  SESSION_MAX_AGE_HOURS: intFromEnv(1, 24 * 90).default(12),
+  // 1 MB is ample for JSON requests; files travel as multipart, not JSON (our choice)
+  JSON_BODY_LIMIT_BYTES: intFromEnv(1024, 50 * 1024 * 1024).default(1024 * 1024),
+  // 10 failed sign-ins per 15 minutes per address and e-mail: common practice against password guessing, from memory
+  LOGIN_RATE_LIMIT_MAX: intFromEnv(1, 10_000).default(10),
+  LOGIN_RATE_LIMIT_WINDOW_MINUTES: intFromEnv(1, 24 * 60).default(15),
+  SEED_DEMO: z.enum(['true', 'false']).default('true'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+});
+
+/** The server's settings, validated from the environment once at start-up. */
+export interface Config {
+  nodeEnv: 'development' | 'production' | 'test';
+  port: number;
+  host: string;
+  dataDir: string;
+  sessionSecret: string;
+  publicUrl: string;
+  /** True when PUBLIC_URL is https: cookies are Secure and the app trusts one proxy in front. */
+  secureCookies: boolean;
+  sessionMaxAgeMs: number;
+  jsonBodyLimitBytes: number;
+  loginRateLimit: { max: number; windowMs: number };
+  seedDemo: boolean;
+  logLevel: string;
+}
+
+/** Thrown when an environment variable has a bad value; the message names the variable. */
+export class ConfigError extends Error {
+  override readonly name = 'ConfigError';
+}
+
+/**
+ * Reads and validates the environment. In production SESSION_SECRET is required; elsewhere one is generated on first
+ * start and kept in DATA_DIR/session-secret so sessions survive restarts.
+ *
+ * @example
+ * const config = loadConfig(process.env); // throws ConfigError naming e.g. PORT
+ */
+export function loadConfig(env: Record<string, string | undefined>): Config {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => {
+      const name = issue.path.join('.');
+      return `${name}: ${issue.message} (received ${JSON.stringify(env[name] ?? null)})`;
+    });
+    throw new ConfigError(`Invalid environment:\n  ${lines.join('\n  ')}`);
+  }
+  const e = parsed.data;
+  const dataDir = resolve(e.DATA_DIR);
+  let sessionSecret = e.SESSION_SECRET;
+  if (!sessionSecret) {
+    if (e.NODE_ENV === 'production') {
+      throw new ConfigError('Invalid environment:\n  SESSION_SECRET: required in production (at least 32 characters)');
+    }
+    sessionSecret = readOrCreateSecret(dataDir);
+  }
+  const publicUrl = (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, '');
+  return {
+    nodeEnv: e.NODE_ENV,
+    port: e.PORT,
+    host: e.HOST,
+    dataDir,
+    sessionSecret,
+    publicUrl,
+    secureCookies: publicUrl.startsWith('https://'),
+    sessionMaxAgeMs: e.SESSION_MAX_AGE_HOURS * 3600_000,
+    jsonBodyLimitBytes: e.JSON_BODY_LIMIT_BYTES,
+    loginRateLimit: { max: e.LOGIN_RATE_LIMIT_MAX, windowMs: e.LOGIN_RATE_LIMIT_WINDOW_MINUTES * 60_000 },
+    seedDemo: e.SEED_DEMO === 'true',
+    logLevel: e.LOG_LEVEL,
+  };
+}
+
+function readOrCreateSecret(dataDir: string): string {
+  const file = join(dataDir, 'session-secret');
+  try {
+    const existing = readFileSync(file, 'utf8').trim();
+    if (existing.length >= 32) return existing;
+  } catch {
+    // first start: no secret yet
+  }
+  mkdirSync(dataDir, { recursive: true });
+  // 32 random bytes: the HMAC-SHA256 key length, RFC 2104 section 3
+  const secret = randomBytes(32).toString('base64url');
+  writeFileSync(file, secret + '\n', { mode: 0o600 });
+  return secret;
+}

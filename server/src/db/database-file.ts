@@ -1,0 +1,2 @@
+/** The SQLite file's name inside DATA_DIR. */
+export const databaseFileName = 'clearbase.sqlite';
