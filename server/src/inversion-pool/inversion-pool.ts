@@ -3,6 +3,7 @@ import { createRequire } from 'node:module';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Piscina } from 'piscina';
 import type { InvertChunkTask } from './invert-chunk';
+import { sharePlan } from './share-plan';
 
 export interface InversionPoolOptions {
   /** Worker threads. Default `os.availableParallelism()`. */
@@ -45,8 +46,9 @@ export function workerExecArgv(file: URL): string[] {
 /**
  * Starts a pool of worker threads that invert frames slice by slice.
  *
- * The main thread compiles the plan once (`compileInversion`); each slice task carries the plan
- * (structured-cloned) and views of the shared input and output buffers.
+ * The main thread compiles the plan once (`compileInversion`); its tables are moved onto shared
+ * memory once per frame, and each slice task carries views of them and of the shared input and
+ * output buffers, so nothing large is copied per slice.
  *
  * @example
  *   const pool = createInversionPool({ threads: 2 });
@@ -84,12 +86,13 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
       if (!(input.buffer instanceof SharedArrayBuffer) || !(output.buffer instanceof SharedArrayBuffer)) {
         throw new TypeError('Expected input and output backed by a SharedArrayBuffer');
       }
+      const shared = sharePlan(plan);
       const slices = Math.min(height, threads * slicesPerThread);
       const rowsPerSlice = Math.ceil(height / slices);
       const tasks: Promise<number>[] = [];
       for (let row = 0; row < height; row += rowsPerSlice) {
         const rows = Math.min(rowsPerSlice, height - row);
-        tasks.push(piscina.run({ plan, input, output, firstPixel: row * width, pixelCount: rows * width }));
+        tasks.push(piscina.run({ plan: shared, input, output, firstPixel: row * width, pixelCount: rows * width }));
       }
       await Promise.all(tasks);
     },

@@ -3,8 +3,10 @@ import { readNegative, writePositive, type PositiveFormat } from '../imaging/ind
 import { sharedArray, type InversionPool } from './inversion-pool';
 import {
   baseFromRegion,
+  compileDensity,
   compileInversion,
   densityLevels,
+  type DensityStage,
   detectFilmBase,
   type FilmBase,
   type InversionParams,
@@ -45,7 +47,7 @@ export interface FrameResult {
 export function measureFrame(
   negative: { width: number; height: number; data: Uint16Array },
   settings: Pick<FrameSettings, 'base' | 'stock' | 'scanner'>,
-): { base: FilmBase; levels: { shadow: Rgb; highlight: Rgb }; warnings: string[] } {
+): { base: FilmBase; levels: { shadow: Rgb; highlight: Rgb }; density: DensityStage; warnings: string[] } {
   const warnings: string[] = [];
   const base =
     settings.base === 'auto'
@@ -58,8 +60,8 @@ export function measureFrame(
       `No reliable film base found (confidence ${base.confidence}); check the frame, or draw the base region by hand.`,
     );
   }
-  const probe = compileInversion(paramsFor(settings, base, { shadow: [0, 0, 0], highlight: [1, 1, 1] }, 'u8', 'print'));
-  return { base, levels: densityLevels(probe, negative.data), warnings };
+  const density = compileDensity({ base: base.rgb, scanner: settings.scanner, stock: settings.stock });
+  return { base, levels: densityLevels(density, negative.data), density, warnings };
 }
 
 function paramsFor(
@@ -86,7 +88,10 @@ export async function invertNegativeFile(
   const negative = await readNegative(file, { shared: true, ...(settings.maxPixels ? { maxPixels: settings.maxPixels } : {}) });
   const measured = measureFrame(negative, settings);
   const outKind = settings.format === 'jpeg' ? 'u8' : 'u16';
-  const plan = compileInversion(paramsFor(settings, measured.base, settings.levels ?? measured.levels, outKind, settings.render));
+  const plan = compileInversion(
+    paramsFor(settings, measured.base, settings.levels ?? measured.levels, outKind, settings.render),
+    measured.density,
+  );
   const pixels = sharedArray(outKind === 'u8' ? Uint8Array : Uint16Array, negative.data.length);
   await pool.invertFrame(plan, negative.data, pixels, negative.width, negative.height);
   await writePositive(pixels, {

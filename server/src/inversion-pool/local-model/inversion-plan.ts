@@ -25,6 +25,8 @@ export interface InversionPlan {
   crosstalk: Float32Array | null;
   /** 3 × OUT_SIZE output code values, indexed by quantised density. */
   outputLut: Uint16Array;
+  /** Without crosstalk every stage is per channel: 3 × 65536 output values indexed by count. */
+  directLut: Uint16Array | null;
   densityMin: number;
   densityScale: number;
 }
@@ -64,12 +66,27 @@ export function densityTable(base: number, scanner: ScannerProfile): Float32Arra
   return lut;
 }
 
-/** Compiles the parameters of one frame into lookup tables. */
-export function compileInversion(params: InversionParams): InversionPlan {
+/** The density stage of a plan: counts → density above base, and the crosstalk matrix. */
+export interface DensityStage {
+  densityLut: Float32Array;
+  crosstalk: Float32Array | null;
+}
+
+/** Compiles the density stage alone; measuring levels needs it before the rest of the plan. */
+export function compileDensity(params: Pick<InversionParams, 'base' | 'scanner' | 'stock'>): DensityStage {
   const densityLut = new Float32Array(3 * 65536);
   for (let c = 0; c < 3; c++) densityLut.set(densityTable(params.base[c]!, params.scanner), c * 65536);
   const m = params.stock.crosstalk;
   const identity = !m || m.every((v, i) => v === (i % 4 === 0 ? 1 : 0));
+  return { densityLut, crosstalk: identity ? null : Float32Array.from(m) };
+}
+
+/**
+ * Compiles the parameters of one frame into lookup tables. Pass `density` when it was already
+ * compiled for the same base, scanner and stock.
+ */
+export function compileInversion(params: InversionParams, density: DensityStage = compileDensity(params)): InversionPlan {
+  const { densityLut, crosstalk } = density;
   const outputLut = new Uint16Array(3 * OUT_SIZE);
   const full = params.output === 'u8' ? 255 : 65535;
   const points = params.points ?? [0, 0, 0];
@@ -99,14 +116,22 @@ export function compileInversion(params: InversionParams): InversionPlan {
       outputLut[c * OUT_SIZE + i] = Math.round(Math.min(1, Math.max(0, v)) * full);
     }
   }
-  return {
-    output: params.output,
-    densityLut,
-    crosstalk: identity ? null : Float32Array.from(m),
-    outputLut,
-    densityMin: DENSITY_MIN,
-    densityScale: (OUT_SIZE - 1) / (DENSITY_MAX - DENSITY_MIN),
-  };
+  const densityScale = (OUT_SIZE - 1) / (DENSITY_MAX - DENSITY_MIN);
+  let directLut: Uint16Array | null = null;
+  if (!crosstalk) {
+    directLut = new Uint16Array(3 * 65536);
+    for (let c = 0; c < 3; c++) {
+      for (let code = 0; code < 65536; code++) {
+        directLut[c * 65536 + code] = outputLut[c * OUT_SIZE + quantiseDensity(densityLut[c * 65536 + code]!, DENSITY_MIN, densityScale)]!;
+      }
+    }
+  }
+  return { output: params.output, densityLut, crosstalk, outputLut, directLut, densityMin: DENSITY_MIN, densityScale };
+}
+
+function quantiseDensity(x: number, densityMin: number, densityScale: number): number {
+  const q = ((x - densityMin) * densityScale + 0.5) | 0;
+  return q < 0 ? 0 : q > OUT_SIZE - 1 ? OUT_SIZE - 1 : q;
 }
 
 /** Inverts pixels [firstPixel, firstPixel + pixelCount) of interleaved RGB `input` into `output`. */
@@ -117,13 +142,21 @@ export function applyInversion(
   firstPixel: number,
   pixelCount: number,
 ): void {
-  const { densityLut: d, outputLut: o, densityMin, densityScale, crosstalk: m } = plan;
+  const { densityLut: d, outputLut: o, densityMin, densityScale, crosstalk: m, directLut } = plan;
+  const end = (firstPixel + pixelCount) * 3;
+  if (directLut) {
+    for (let i = firstPixel * 3; i < end; i += 3) {
+      output[i] = directLut[input[i]!]!;
+      output[i + 1] = directLut[65536 + input[i + 1]!]!;
+      output[i + 2] = directLut[131072 + input[i + 2]!]!;
+    }
+    return;
+  }
   const top = OUT_SIZE - 1;
   const quantise = (x: number) => {
     const q = ((x - densityMin) * densityScale + 0.5) | 0;
     return q < 0 ? 0 : q > top ? top : q;
   };
-  const end = (firstPixel + pixelCount) * 3;
   for (let i = firstPixel * 3; i < end; i += 3) {
     let r = d[input[i]!]!;
     let gr = d[65536 + input[i + 1]!]!;

@@ -67,3 +67,16 @@ describe('inversion plan', () => {
     expect(structuredClone(plan)).toEqual(plan);
   });
 });
+
+describe('per-channel shortcut', () => {
+  it('gives the same pixels as the density path when there is no crosstalk', () => {
+    const neg = synthesizeNegative({ width: 120, height: 80, stock, seed: 9 });
+    const plan = compileInversion({ stock: NEUTRAL_STOCK, scanner: LINEAR_SCANNER, base: neg.base, levels: { shadow: [0.05, 0.05, 0.05], highlight: [1.2, 1.3, 1.4] }, render: 'print', output: 'u16' });
+    expect(plan.directLut).not.toBeNull();
+    const fast = new Uint16Array(neg.data.length);
+    const slow = new Uint16Array(neg.data.length);
+    applyInversion(plan, neg.data, fast, 0, 120 * 80);
+    applyInversion({ ...plan, directLut: null }, neg.data, slow, 0, 120 * 80);
+    expect(Array.from(fast)).toEqual(Array.from(slow));
+  });
+});
