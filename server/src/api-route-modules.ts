@@ -1,0 +1,10 @@
+import { auditRoutes } from './audit/audit-routes';
+import { healthRoutes } from './health/health-routes';
+import type { RouteModule } from './http/route-module';
+import { usersRoutes } from './users/users-routes';
+
+/**
+ * Every resource's routes, in the order they are registered. Add a resource by appending its module; sign-in routes
+ * are added by createApp because they need the app's passport instance.
+ */
+export const apiRouteModules: readonly RouteModule[] = [healthRoutes, usersRoutes, auditRoutes];

@@ -1,0 +1,118 @@
+import { changePasswordRequestSchema, loginRequestSchema, type User } from '@clearbase/contracts';
+import type { Request, Response } from 'express';
+import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
+import type { AppPassport } from './create-passport';
+import { recordAudit } from '../audit/audit-log';
+import { AppError } from '../errors/app-error';
+import { sendProblem } from '../errors/send-problem';
+import type { RouteModule } from '../http/route-module';
+import { findUserById, updateUser } from '../users/user-repository';
+import { dropUserSessions } from './kysely-session-store';
+import { hashPassword, verifyPassword } from './password-hash';
+
+const wrongCredentials = 'The e-mail or password is not right.';
+
+function authenticate(passport: AppPassport, req: Request, res: Response): Promise<User | false> {
+  return new Promise((resolve, reject) => {
+    passport.authenticate('local', { session: false }, (err: unknown, user: User | false) =>
+      err ? reject(err) : resolve(user),
+    )(req, res, reject);
+  });
+}
+
+function logIn(req: Request, user: User): Promise<void> {
+  // passport 0.7 regenerates the session id here, so a session fixed before sign-in is worthless afterwards
+  return new Promise((resolve, reject) => req.logIn(user, (err) => (err ? reject(err) : resolve())));
+}
+
+function logOut(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => req.logOut((err) => (err ? reject(err) : resolve())));
+}
+
+/** Sign-in, sign-out, the current user and password change. */
+export function authRoutes(passport: AppPassport): RouteModule {
+  return (api, { db, clock, config }) => {
+    const { max, windowMs } = config.loginRateLimit;
+    const loginLimiter = rateLimit({
+      windowMs,
+      limit: max,
+      // only failed sign-ins count, per client address and e-mail
+      skipSuccessfulRequests: true,
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '')}`,
+      handler: (_req, res) => {
+        const minutes = Math.ceil(windowMs / 60_000);
+        sendProblem(res, 429, `Too many failed sign-in attempts. Wait ${minutes} minutes and try again.`, {
+          code: 'too-many-sign-ins',
+        });
+      },
+    });
+
+    api.define(
+      {
+        method: 'post',
+        path: '/api/auth/login',
+        roles: 'public',
+        body: loginRequestSchema,
+        before: [loginLimiter],
+        summary: 'Sign in with e-mail and password',
+      },
+      async (req, res, { body }) => {
+        const user = await authenticate(passport, req, res);
+        if (!user) {
+          await recordAudit(db, { at: clock.now(), actor: null, action: 'sign-in-failed', target: null, details: { email: body.email } });
+          throw new AppError('wrong-credentials', 401, wrongCredentials);
+        }
+        await logIn(req, user);
+        await updateUser(db, user.id, { last_sign_in_at: clock.now().toISOString() });
+        await recordAudit(db, { at: clock.now(), actor: user, action: 'sign-in', target: `user:${user.id}` });
+        res.json({ user });
+      },
+    );
+
+    api.define(
+      { method: 'post', path: '/api/auth/logout', roles: 'public', summary: 'Sign out (harmless when signed out)' },
+      async (req, res) => {
+        const user = req.user;
+        if (user) {
+          await logOut(req);
+          await recordAudit(db, { at: clock.now(), actor: user, action: 'sign-out', target: `user:${user.id}` });
+        }
+        await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+        res.clearCookie('clearbase.sid', { path: '/' });
+        res.status(204).end();
+      },
+    );
+
+    api.define({ method: 'get', path: '/api/auth/me', roles: 'signed-in', summary: 'The signed-in user' }, (_req, res, { user }) => {
+      res.json(user);
+    });
+
+    api.define(
+      {
+        method: 'post',
+        path: '/api/auth/password',
+        roles: 'signed-in',
+        body: changePasswordRequestSchema,
+        summary: 'Change my password; my other sessions end',
+      },
+      async (req, res, { body, user }) => {
+        const row = await findUserById(db, user!.id);
+        if (!row || !(await verifyPassword(body.currentPassword, row.password_hash))) {
+          throw new AppError('wrong-current-password', 400, 'The current password is not right.', [
+            { path: 'body.currentPassword', message: 'The current password is not right.' },
+          ]);
+        }
+        const now = clock.now().toISOString();
+        const passwordHash = await hashPassword(body.newPassword);
+        await db.transaction().execute(async (trx) => {
+          await updateUser(trx, row.id, { password_hash: passwordHash, password_changed_at: now });
+          await dropUserSessions(trx, row.id, req.sessionID);
+          await recordAudit(trx, { at: clock.now(), actor: user!, action: 'password-changed', target: `user:${row.id}` });
+        });
+        res.status(204).end();
+      },
+    );
+  };
+}
