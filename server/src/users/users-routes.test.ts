@@ -95,7 +95,7 @@ describe('audit log', () => {
       expect(actions).toContain(a);
     }
     expect(res.body.total).toBe(res.body.entries.length);
-    const role = res.body.entries.find((e: { action: string }) => e.action === 'user-role-changed' && e.target === `user:${dee.body.user.id}`);
+    const role = res.body.entries.find((e: { action: string; target: string | null }) => e.action === 'user-role-changed' && e.target === `user:${dee.body.user.id}`);
     expect(role).toMatchObject({ actorEmail: 'admin@lab.test', details: { from: 'customer', to: 'operator' } });
   });
 
