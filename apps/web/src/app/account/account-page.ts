@@ -39,7 +39,10 @@ export class AccountPage {
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     currentPassword: ['', [Validators.required]],
-    newPassword: ['', [Validators.required, Validators.minLength(minPasswordLength), Validators.maxLength(maxPasswordLength)]],
+    newPassword: [
+      '',
+      [Validators.required, Validators.minLength(minPasswordLength), Validators.maxLength(maxPasswordLength)],
+    ],
     repeatPassword: ['', [Validators.required, sameAsNew]],
   });
   protected readonly busy = signal(false);

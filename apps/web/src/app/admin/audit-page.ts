@@ -90,7 +90,12 @@ export class AuditPage {
           catchError((err: unknown) =>
             of<AuditView>({ loading: false, entries: [], total: 0, problem: readProblem(err).message }),
           ),
-          startWith<AuditView>({ loading: true, entries: this.entries(), total: this.total(), problem: null }),
+          startWith<AuditView>({
+            loading: true,
+            entries: this.entries(),
+            total: this.total(),
+            problem: null,
+          }),
         ),
       ),
     ),

@@ -12,9 +12,9 @@ import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/for
 import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
-import { type CreateUserRequest, type Role, type UserRecord, roles } from '@clearbase/contracts';
+import type { CreateUserRequest, Role, UserRecord } from '@clearbase/contracts';
 import { readProblem } from '../problem/read-problem';
-import { roleLabel } from '../shell/role-label';
+import { roleChoices, roleLabel } from '../shell/role-label';
 import { UsersApi } from './users-api';
 
 // The server's password rule (libs/contracts auth/user.ts): 10 to 200 characters.
@@ -50,7 +50,7 @@ export class CreateUserDialog {
   private readonly api = inject(UsersApi);
   private readonly ref = inject<MatDialogRef<CreateUserDialog, UserRecord>>(MatDialogRef);
 
-  protected readonly roles = roles;
+  protected readonly roles = roleChoices;
   protected readonly roleLabel = roleLabel;
   protected readonly minPasswordLength = minPasswordLength;
   protected readonly form = inject(NonNullableFormBuilder).group({

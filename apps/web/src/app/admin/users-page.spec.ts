@@ -113,18 +113,24 @@ describe('UsersPage', () => {
     const { page } = await render();
     const own = await page.getHarness(MatSelectHarness.with({ selector: '[data-testid="user-role-1"]' }));
     expect(await own.isDisabled()).toBe(true);
-    expect(await page.getAllHarnesses(MatButtonHarness.with({ selector: '[data-testid="user-toggle-1"]' }))).toHaveLength(0);
+    expect(
+      await page.getAllHarnesses(MatButtonHarness.with({ selector: '[data-testid="user-toggle-1"]' })),
+    ).toHaveLength(0);
   });
 
   it('disables a user only after confirmation', async () => {
     const { page, loader, backend, fixture } = await render();
-    await (await page.getHarness(MatButtonHarness.with({ selector: '[data-testid="user-toggle-3"]' }))).click();
+    await (
+      await page.getHarness(MatButtonHarness.with({ selector: '[data-testid="user-toggle-3"]' }))
+    ).click();
     let dialog = await loader.getHarness(MatDialogHarness);
     expect(await dialog.getTitleText()).toBe('Disable Cy Orrin?');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Cancel' }))).click();
     backend.expectNone('/api/users/3');
 
-    await (await page.getHarness(MatButtonHarness.with({ selector: '[data-testid="user-toggle-3"]' }))).click();
+    await (
+      await page.getHarness(MatButtonHarness.with({ selector: '[data-testid="user-toggle-3"]' }))
+    ).click();
     dialog = await loader.getHarness(MatDialogHarness);
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Disable' }))).click();
     const req = backend.expectOne('/api/users/3');
@@ -135,7 +141,11 @@ describe('UsersPage', () => {
     const table = await page.getHarness(MatTableHarness);
     const cells = await Promise.all((await table.getRows()).map((r) => r.getCellTextByColumnName()));
     expect(cells.find((c) => c['name'] === 'Cy Orrin')?.['disabled']).toBe('Disabled');
-    expect(await (await page.getHarness(MatButtonHarness.with({ selector: '[data-testid="user-toggle-3"]' }))).getText()).toBe('Enable');
+    expect(
+      await (
+        await page.getHarness(MatButtonHarness.with({ selector: '[data-testid="user-toggle-3"]' }))
+      ).getText(),
+    ).toBe('Enable');
   });
 
   it('creates a user and shows the temporary password once', async () => {
@@ -147,8 +157,12 @@ describe('UsersPage', () => {
     expect(await dialog.getText()).toContain('Enter a name');
     backend.expectNone('/api/users');
 
-    await (await dialog.getHarness(MatInputHarness.with({ selector: '[data-testid="create-user-name"]' }))).setValue('Ines Varga');
-    await (await dialog.getHarness(MatInputHarness.with({ selector: '[data-testid="create-user-email"]' }))).setValue('ines@lab.test');
+    await (
+      await dialog.getHarness(MatInputHarness.with({ selector: '[data-testid="create-user-name"]' }))
+    ).setValue('Ines Varga');
+    await (
+      await dialog.getHarness(MatInputHarness.with({ selector: '[data-testid="create-user-email"]' }))
+    ).setValue('ines@lab.test');
     const role = await dialog.getHarness(MatSelectHarness);
     await role.open();
     await role.clickOptions({ text: 'Operator' });
@@ -157,7 +171,10 @@ describe('UsersPage', () => {
     const req = backend.expectOne((r) => r.method === 'POST' && r.url === '/api/users');
     expect(req.request.body).toEqual({ email: 'ines@lab.test', name: 'Ines Varga', role: 'operator' });
     const created: UserRecord = { ...people[1]!, id: 9, email: 'ines@lab.test', name: 'Ines Varga' };
-    req.flush({ user: created, temporaryPassword: 'amber-ink-4711-quiet' }, { status: 201, statusText: 'Created' });
+    req.flush(
+      { user: created, temporaryPassword: 'amber-ink-4711-quiet' },
+      { status: 201, statusText: 'Created' },
+    );
     await fixture.whenStable();
 
     expect(await dialog.getText()).toContain('amber-ink-4711-quiet');
@@ -171,20 +188,26 @@ describe('UsersPage', () => {
     const { page, loader, backend, fixture } = await render();
     await (await page.getHarness(MatButtonHarness.with({ selector: '[data-testid="create-user"]' }))).click();
     const dialog = await loader.getHarness(MatDialogHarness);
-    await (await dialog.getHarness(MatInputHarness.with({ selector: '[data-testid="create-user-name"]' }))).setValue('Cy Again');
-    await (await dialog.getHarness(MatInputHarness.with({ selector: '[data-testid="create-user-email"]' }))).setValue('cy@home.test');
+    await (
+      await dialog.getHarness(MatInputHarness.with({ selector: '[data-testid="create-user-name"]' }))
+    ).setValue('Cy Again');
+    await (
+      await dialog.getHarness(MatInputHarness.with({ selector: '[data-testid="create-user-email"]' }))
+    ).setValue('cy@home.test');
     await (await dialog.getHarness(MatButtonHarness.with({ text: 'Create user' }))).click();
 
-    backend.expectOne((r) => r.method === 'POST' && r.url === '/api/users').flush(
-      {
-        type: 'about:blank',
-        title: 'Conflict',
-        status: 409,
-        detail: 'A user with this e-mail address exists.',
-        errors: [{ path: 'email', message: 'Already in use' }],
-      },
-      { status: 409, statusText: 'Conflict' },
-    );
+    backend
+      .expectOne((r) => r.method === 'POST' && r.url === '/api/users')
+      .flush(
+        {
+          type: 'about:blank',
+          title: 'Conflict',
+          status: 409,
+          detail: 'A user with this e-mail address exists.',
+          errors: [{ path: 'email', message: 'Already in use' }],
+        },
+        { status: 409, statusText: 'Conflict' },
+      );
     await fixture.whenStable();
 
     const shown = await dialog.getText();

@@ -1,5 +1,13 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, viewChild } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  signal,
+  viewChild,
+} from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormField, MatLabel, MatPrefix } from '@angular/material/form-field';
@@ -25,10 +33,10 @@ import {
   MatTableDataSource,
 } from '@angular/material/table';
 import { MatTooltip } from '@angular/material/tooltip';
-import { type Role, type UserRecord, roles } from '@clearbase/contracts';
+import type { Role, UserRecord } from '@clearbase/contracts';
 import { Session } from '../auth/session';
 import { readProblem } from '../problem/read-problem';
-import { roleLabel } from '../shell/role-label';
+import { roleChoices, roleLabel } from '../shell/role-label';
 import { ConfirmDialog, type ConfirmDialogData } from './confirm-dialog';
 import { CreateUserDialog } from './create-user-dialog';
 import { UsersApi } from './users-api';
@@ -73,7 +81,7 @@ export class UsersPage {
   private readonly snackBar = inject(MatSnackBar);
   private readonly session = inject(Session);
 
-  protected readonly roles = roles;
+  protected readonly roles = roleChoices;
   protected readonly roleLabel = roleLabel;
   protected readonly columns = ['name', 'email', 'role', 'disabled', 'lastSignInAt', 'createdAt', 'actions'];
   protected readonly dataSource = new MatTableDataSource<UserRecord>([]);
@@ -120,7 +128,10 @@ export class UsersPage {
 
   protected openCreate(): void {
     this.dialog
-      .open<CreateUserDialog, void, UserRecord>(CreateUserDialog, { autoFocus: 'first-tabbable', width: '480px' })
+      .open<CreateUserDialog, void, UserRecord>(CreateUserDialog, {
+        autoFocus: 'first-tabbable',
+        width: '480px',
+      })
       .afterClosed()
       .subscribe((user) => {
         if (!user) return;
@@ -154,7 +165,8 @@ export class UsersPage {
       .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data, width: '420px' })
       .afterClosed()
       .subscribe((ok) => {
-        if (ok) this.save(user, { disabled: disabling }, `${user.name} is ${disabling ? 'disabled' : 'enabled'}.`);
+        if (ok)
+          this.save(user, { disabled: disabling }, `${user.name} is ${disabling ? 'disabled' : 'enabled'}.`);
       });
   }
 

@@ -9,7 +9,12 @@ import { Session } from './session';
 @Component({ template: 'page' })
 class Blank {}
 
-const problem401 = { type: 'about:blank', title: 'Unauthorized', status: 401, detail: 'Sign in to continue.' };
+const problem401 = {
+  type: 'about:blank',
+  title: 'Unauthorized',
+  status: 401,
+  detail: 'Sign in to continue.',
+};
 
 function setUp() {
   TestBed.configureTestingModule({
@@ -36,7 +41,9 @@ describe('apiInterceptor', () => {
   it('on a 401 from an API call, forgets the user and goes to sign-in with the current page as return URL', async () => {
     const { http, backend, router, session } = setUp();
     session.load().subscribe();
-    backend.expectOne('/api/auth/me').flush({ id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' });
+    backend
+      .expectOne('/api/auth/me')
+      .flush({ id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' });
     await router.navigateByUrl('/admin/users');
     let failedWith = 0;
     http.get('/api/users').subscribe({ error: (e: { status: number }) => (failedWith = e.status) });
@@ -77,7 +84,9 @@ describe('apiInterceptor', () => {
     let failedWith = 0;
     http.get('/api/users').subscribe({ error: (e: { status: number }) => (failedWith = e.status) });
 
-    backend.expectOne('/api/users').flush({ title: 'Forbidden', status: 403 }, { status: 403, statusText: 'Forbidden' });
+    backend
+      .expectOne('/api/users')
+      .flush({ title: 'Forbidden', status: 403 }, { status: 403, statusText: 'Forbidden' });
     await new Promise((r) => setTimeout(r));
 
     expect(failedWith).toBe(403);

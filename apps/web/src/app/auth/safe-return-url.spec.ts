@@ -6,7 +6,15 @@ describe('safeReturnUrl', () => {
   });
 
   it('goes home for other origins, protocol-relative URLs, the sign-in page and nothing', () => {
-    for (const bad of ['https://elsewhere.test/', '//elsewhere.test', '/\\elsewhere.test', '/sign-in', '', null, undefined]) {
+    for (const bad of [
+      'https://elsewhere.test/',
+      '//elsewhere.test',
+      '/\\elsewhere.test',
+      '/sign-in',
+      '',
+      null,
+      undefined,
+    ]) {
       expect(safeReturnUrl(bad)).toBe('/');
     }
   });

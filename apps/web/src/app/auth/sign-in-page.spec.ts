@@ -73,7 +73,12 @@ describe('SignInPage', () => {
     const req = backend.expectOne('/api/auth/login');
     expect(req.request.body).toEqual({ email: 'ada@lab.test', password: 'wrong password' });
     req.flush(
-      { type: 'about:blank', title: 'Unauthorized', status: 401, detail: 'The e-mail address or password is wrong.' },
+      {
+        type: 'about:blank',
+        title: 'Unauthorized',
+        status: 401,
+        detail: 'The e-mail address or password is wrong.',
+      },
       { status: 401, statusText: 'Unauthorized' },
     );
     await fixture.whenStable();
@@ -90,10 +95,15 @@ describe('SignInPage', () => {
 
     backend
       .expectOne('/api/auth/login')
-      .flush({ title: 'Too Many Requests', status: 429, detail: 'Wait a minute before trying again.' }, { status: 429, statusText: 'Too Many Requests' });
+      .flush(
+        { title: 'Too Many Requests', status: 429, detail: 'Wait a minute before trying again.' },
+        { status: 429, statusText: 'Too Many Requests' },
+      );
     await fixture.whenStable();
 
-    expect(el(fixture, 'sign-in-error')?.textContent).toContain('Too many attempts. Wait a minute before trying again.');
+    expect(el(fixture, 'sign-in-error')?.textContent).toContain(
+      'Too many attempts. Wait a minute before trying again.',
+    );
   });
 
   it('shows per-field errors from a schema problem next to the field', async () => {
@@ -102,10 +112,17 @@ describe('SignInPage', () => {
     type(fixture, 'sign-in-password', 'whatever');
     await submit(fixture);
 
-    backend.expectOne('/api/auth/login').flush(
-      { title: 'Bad Request', status: 400, detail: 'The request has errors.', errors: [{ path: 'email', message: 'Unknown domain' }] },
-      { status: 400, statusText: 'Bad Request' },
-    );
+    backend
+      .expectOne('/api/auth/login')
+      .flush(
+        {
+          title: 'Bad Request',
+          status: 400,
+          detail: 'The request has errors.',
+          errors: [{ path: 'email', message: 'Unknown domain' }],
+        },
+        { status: 400, statusText: 'Bad Request' },
+      );
     await fixture.whenStable();
 
     expect(el(fixture, 'sign-in-email-problem')?.textContent).toContain('Unknown domain');
@@ -117,7 +134,9 @@ describe('SignInPage', () => {
     type(fixture, 'sign-in-password', 'correct horse');
     await submit(fixture);
 
-    backend.expectOne('/api/auth/login').flush({ user: { id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' } });
+    backend
+      .expectOne('/api/auth/login')
+      .flush({ user: { id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' } });
     await fixture.whenStable();
 
     expect(router.url).toBe('/admin/users');
@@ -129,7 +148,9 @@ describe('SignInPage', () => {
     type(fixture, 'sign-in-password', 'correct horse');
     await submit(fixture);
 
-    backend.expectOne('/api/auth/login').flush({ user: { id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' } });
+    backend
+      .expectOne('/api/auth/login')
+      .flush({ user: { id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' } });
     await fixture.whenStable();
 
     expect(router.url).toBe('/');

@@ -60,9 +60,7 @@ export class SignInPage {
       error: (err: unknown) => {
         this.busy.set(false);
         const p = readProblem(err);
-        this.problem.set(
-          p.status === 429 ? `Too many attempts. ${p.message}` : p.message,
-        );
+        this.problem.set(p.status === 429 ? `Too many attempts. ${p.message}` : p.message);
         this.fieldErrors.set(p.fieldErrors);
         if (p.status === 401) this.form.controls.password.reset('');
       },

@@ -24,5 +24,7 @@ export class HomePage {
     const role = this.session.role();
     return role === null ? [] : roleDuties[role];
   });
-  protected readonly pages = computed(() => navEntriesFor(this.session.role()).filter((e) => e.name !== 'home'));
+  protected readonly pages = computed(() =>
+    navEntriesFor(this.session.role()).filter((e) => e.name !== 'home'),
+  );
 }

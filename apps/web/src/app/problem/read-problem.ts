@@ -18,10 +18,18 @@ function isProblem(body: unknown): body is Problem {
  */
 export function readProblem(error: unknown): ProblemMessage {
   if (!(error instanceof HttpErrorResponse)) {
-    return { status: 0, message: 'Something went wrong in the app. Reload the page and try again.', fieldErrors: {} };
+    return {
+      status: 0,
+      message: 'Something went wrong in the app. Reload the page and try again.',
+      fieldErrors: {},
+    };
   }
   if (error.status === 0) {
-    return { status: 0, message: 'The server cannot be reached. Check the connection and try again.', fieldErrors: {} };
+    return {
+      status: 0,
+      message: 'The server cannot be reached. Check the connection and try again.',
+      fieldErrors: {},
+    };
   }
   let body: unknown = error.error;
   if (typeof body === 'string') {

@@ -17,7 +17,14 @@ describe('navEntriesFor', () => {
 
   it('reads the roles from the list it is given, so features add pages by adding lines', () => {
     const entries = [
-      { name: 'rolls', label: 'Rolls', icon: 'film', path: '/rolls', roles: ['operator'] as const, group: 'work' as const },
+      {
+        name: 'rolls',
+        label: 'Rolls',
+        icon: 'film',
+        path: '/rolls',
+        roles: ['operator'] as const,
+        group: 'work' as const,
+      },
     ];
     expect(navEntriesFor('operator', entries).map((e) => e.name)).toEqual(['rolls']);
     expect(navEntriesFor('customer', entries)).toEqual([]);

@@ -22,8 +22,22 @@ const everyone: readonly Role[] = ['customer', 'operator', 'manager', 'admin'];
 export const navEntries: readonly NavEntry[] = [
   { name: 'home', label: 'Home', icon: 'home', path: '/', roles: everyone, group: 'work' },
   { name: 'users', label: 'Users', icon: 'group', path: '/admin/users', roles: ['admin'], group: 'admin' },
-  { name: 'audit', label: 'Audit log', icon: 'history', path: '/admin/audit', roles: ['admin'], group: 'admin' },
-  { name: 'account', label: 'Account', icon: 'manage_accounts', path: '/account', roles: everyone, group: 'you' },
+  {
+    name: 'audit',
+    label: 'Audit log',
+    icon: 'history',
+    path: '/admin/audit',
+    roles: ['admin'],
+    group: 'admin',
+  },
+  {
+    name: 'account',
+    label: 'Account',
+    icon: 'manage_accounts',
+    path: '/account',
+    roles: everyone,
+    group: 'you',
+  },
 ];
 
 /** The entries a role may see, in menu order. */

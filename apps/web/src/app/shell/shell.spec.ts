@@ -35,12 +35,22 @@ async function renderFor(user: User) {
 
 describe('Shell navigation', () => {
   it('shows a customer only home and account', async () => {
-    const { navNames } = await renderFor({ id: 2, email: 'cy@home.test', name: 'Cy Orrin', role: 'customer' });
+    const { navNames } = await renderFor({
+      id: 2,
+      email: 'cy@home.test',
+      name: 'Cy Orrin',
+      role: 'customer',
+    });
     expect(navNames).toEqual(['nav-home', 'nav-account']);
   });
 
   it('shows an operator no admin pages', async () => {
-    const { navNames } = await renderFor({ id: 3, email: 'ola@lab.test', name: 'Ola Brandt', role: 'operator' });
+    const { navNames } = await renderFor({
+      id: 3,
+      email: 'ola@lab.test',
+      name: 'Ola Brandt',
+      role: 'operator',
+    });
     expect(navNames).not.toContain('nav-users');
     expect(navNames).not.toContain('nav-audit');
   });
