@@ -87,6 +87,10 @@ describe('the API edge', () => {
     const csp = String(res.headers['content-security-policy']);
     expect(csp).toContain("default-src 'self'");
     expect(csp).toContain("script-src 'self'");
+    // the hash of exactly this.media='all', computed with node:crypto SHA-256 as CSP Level 3 defines hash-source
+    const hash = (await import('node:crypto')).createHash('sha256').update("this.media='all'").digest('base64');
+    expect(csp).toContain(`'sha256-${hash}'`);
+    expect(csp).not.toMatch(/script-src[^;]*'unsafe-inline'/);
     expect(csp).toContain("frame-ancestors 'none'");
     expect(csp).not.toMatch(/https?:\/\//);
   });

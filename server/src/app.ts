@@ -9,6 +9,7 @@ import { apiRouteModules } from './api-route-modules';
 import { authRoutes } from './auth/auth-routes';
 import { createPassport } from './auth/create-passport';
 import { KyselySessionStore } from './auth/kysely-session-store';
+import { sessionCookieName } from './auth/session-cookie-name';
 import type { Clock } from './clock';
 import type { Config } from './config/config';
 import type { Database } from './db/database';
@@ -19,8 +20,10 @@ import { createApiRoutes, type RegisteredRoute } from './http/define-route';
 import type { RouteModule } from './http/route-module';
 import { serveWebApp } from './http/serve-web-app';
 
-/** The session cookie's name. */
-export const sessionCookieName = 'clearbase.sid';
+// base64 SHA-256 of the handler text this.media='all', per CSP Level 3 hash-source
+const stylesheetOnloadHash = 'MhtPZXr7+LpJUY5qtMutB+qWfQtMaPccfe7QXtCcEYc=';
+
+export { sessionCookieName };
 
 export interface AppDeps {
   db: Kysely<Database>;
@@ -63,7 +66,9 @@ export function createApp(deps: AppDeps): Express {
         useDefaults: false,
         directives: {
           defaultSrc: ["'self'"],
-          scriptSrc: ["'self'"],
+          // the production build's critical-CSS step loads the full stylesheet with onload="this.media='all'"
+          // (@angular/build inline-critical-css); 'unsafe-hashes' allows exactly that one handler, nothing else inline
+          scriptSrc: ["'self'", "'unsafe-hashes'", `'sha256-${stylesheetOnloadHash}'`],
           // Angular inserts component styles as <style> elements at run time, so inline styles must be allowed
           styleSrc: ["'self'", "'unsafe-inline'"],
           fontSrc: ["'self'"],

@@ -9,6 +9,7 @@ import type { RouteModule } from '../http/route-module';
 import { findUserById, updateUser } from '../users/user-repository';
 import { dropUserSessions } from './kysely-session-store';
 import { hashPassword, verifyPassword } from './password-hash';
+import { sessionCookieName } from './session-cookie-name';
 
 const wrongCredentials = 'The e-mail or password is not right.';
 
@@ -80,7 +81,7 @@ export function authRoutes(passport: AppPassport): RouteModule {
           await recordAudit(db, { at: clock.now(), actor: user, action: 'sign-out', target: `user:${user.id}` });
         }
         await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
-        res.clearCookie('clearbase.sid', { path: '/' });
+        res.clearCookie(sessionCookieName, { path: '/' });
         res.status(204).end();
       },
     );

@@ -1,0 +1,2 @@
+/** The session cookie's name. */
+export const sessionCookieName = 'clearbase.sid';

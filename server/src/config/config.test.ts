@@ -1,0 +1,47 @@
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { ConfigError, loadConfig } from './config';
+
+const dir = mkdtempSync(join(tmpdir(), 'clearbase-config-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe('configuration from the environment', () => {
+  it('uses the documented defaults', () => {
+    const config = loadConfig({ DATA_DIR: dir });
+    expect(config).toMatchObject({
+      port: 4300,
+      host: '127.0.0.1',
+      nodeEnv: 'development',
+      publicUrl: 'http://127.0.0.1:4300',
+      secureCookies: false,
+      jsonBodyLimitBytes: 1024 * 1024,
+      loginRateLimit: { max: 10, windowMs: 15 * 60_000 },
+      seedDemo: true,
+    });
+  });
+
+  it('names the variable with a bad value', () => {
+    expect(() => loadConfig({ DATA_DIR: dir, PORT: 'eighty' })).toThrow(ConfigError);
+    expect(() => loadConfig({ DATA_DIR: dir, PORT: 'eighty' })).toThrow(/PORT: .*\(received "eighty"\)/);
+    expect(() => loadConfig({ DATA_DIR: dir, PUBLIC_URL: 'not a url' })).toThrow(/PUBLIC_URL/);
+  });
+
+  it('requires SESSION_SECRET in production', () => {
+    expect(() => loadConfig({ DATA_DIR: dir, NODE_ENV: 'production' })).toThrow(/SESSION_SECRET: required in production/);
+  });
+
+  it('generates a session secret on first start in development and keeps it', () => {
+    const first = loadConfig({ DATA_DIR: dir }).sessionSecret;
+    expect(first.length).toBeGreaterThanOrEqual(32);
+    expect(readFileSync(join(dir, 'session-secret'), 'utf8').trim()).toBe(first);
+    expect(loadConfig({ DATA_DIR: dir }).sessionSecret).toBe(first);
+  });
+
+  it('makes cookies Secure when the public address is https', () => {
+    const config = loadConfig({ DATA_DIR: dir, PUBLIC_URL: 'https://lab.example.test/' });
+    expect(config.secureCookies).toBe(true);
+    expect(config.publicUrl).toBe('https://lab.example.test');
+  });
+});
