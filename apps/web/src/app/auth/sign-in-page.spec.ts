@@ -112,17 +112,15 @@ describe('SignInPage', () => {
     type(fixture, 'sign-in-password', 'whatever');
     await submit(fixture);
 
-    backend
-      .expectOne('/api/auth/login')
-      .flush(
-        {
-          title: 'Bad Request',
-          status: 400,
-          detail: 'The request has errors.',
-          errors: [{ path: 'email', message: 'Unknown domain' }],
-        },
-        { status: 400, statusText: 'Bad Request' },
-      );
+    backend.expectOne('/api/auth/login').flush(
+      {
+        title: 'Bad Request',
+        status: 400,
+        detail: 'The request has errors.',
+        errors: [{ path: 'email', message: 'Unknown domain' }],
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
     await fixture.whenStable();
 
     expect(el(fixture, 'sign-in-email-problem')?.textContent).toContain('Unknown domain');
