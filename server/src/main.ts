@@ -31,7 +31,10 @@ function loadConfigOrExit() {
 const config = loadConfigOrExit();
 const logger = createLogger(config.logLevel);
 const db = openDatabase(join(config.dataDir, databaseFileName));
-const applied = await migrateToLatest(db);
+const applied = await migrateToLatest(db).catch((err: Error) => {
+  console.error(`Could not migrate the database in ${config.dataDir}: ${err.message}`);
+  process.exit(1);
+});
 if (applied.length) logger.info({ applied }, 'migrated the database');
 const seeded = config.seedDemo ? await seedDemo(db, { clock: systemClock }) : false;
 

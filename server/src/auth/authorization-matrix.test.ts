@@ -3,7 +3,7 @@ import type { Express } from 'express';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { routeRegistryOf } from '../app';
 import { declaredRoute, isAllowed, type RegisteredRoute } from '../http/define-route';
-import { addUser, client, createTestApp, signedIn, type TestApp } from '../test-support/test-app';
+import { addUser, client, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 
 interface Layer {
   route?: { path: string; methods: Record<string, boolean>; stack: { handle: unknown }[] };
@@ -57,10 +57,18 @@ describe('authorization matrix', () => {
   it('answers every declared route as its roles say, for every role and for anonymous visitors', async () => {
     const failures: string[] = [];
     const registry = routeRegistryOf(t.app);
+    // one client per caller, signed in again only when a route (sign-out, say) ended its session
+    const clients = new Map<Role | 'anonymous', Client>();
+    const clientFor = async (caller: Role | 'anonymous'): Promise<Client> => {
+      const known = clients.get(caller);
+      if (known && (caller === 'anonymous' || (await known.get('/api/auth/me')).status === 200)) return known;
+      const fresh = caller === 'anonymous' ? await client(t.app) : await signedIn(t.app, `${caller}@lab.test`);
+      clients.set(caller, fresh);
+      return fresh;
+    };
     for (const route of registry) {
       for (const caller of who) {
-        // a fresh client per call, as some routes (sign-out) end the session
-        const c = caller === 'anonymous' ? await client(t.app) : await signedIn(t.app, `${caller}@lab.test`);
+        const c = await clientFor(caller);
         const res = await c.send(route.method, samplePath(route.path), route.method === 'get' ? undefined : {});
         const allowed = isAllowed(route.roles, caller === 'anonymous' ? undefined : ({ role: caller } as never));
         const expected = allowed ? 'neither 401 nor 403' : caller === 'anonymous' ? '401' : '403';
