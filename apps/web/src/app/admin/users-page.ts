@@ -83,7 +83,7 @@ export class UsersPage {
 
   protected readonly roles = roleChoices;
   protected readonly roleLabel = roleLabel;
-  protected readonly columns = ['name', 'email', 'role', 'disabled', 'lastSignInAt', 'createdAt', 'actions'];
+  protected readonly columns = ['name', 'role', 'disabled', 'lastSignInAt', 'createdAt', 'actions'];
   protected readonly dataSource = new MatTableDataSource<UserRecord>([]);
   protected readonly loading = signal(true);
   protected readonly problem = signal<string | null>(null);
