@@ -9,7 +9,7 @@ export function sendProblem(
   detail: string,
   extra: { code?: string; errors?: Problem['errors'] } = {},
 ): void {
-  const body: Problem & { code?: string } = {
+  const body: Problem = {
     // RFC 9457 section 4.2.1: about:blank when the status says it all
     type: 'about:blank',
     title: STATUS_CODES[status] ?? 'Error',

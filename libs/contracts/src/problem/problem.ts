@@ -7,6 +7,8 @@ export const problemSchema = z.object({
   status: z.number().int(),
   detail: z.string().optional(),
   instance: z.string().optional(),
+  /** A stable machine-readable reason, e.g. `wrong-credentials`, `email-taken`, `csrf-token-invalid`. */
+  code: z.string().optional(),
   /** Schema errors: one per field, with its path. */
   errors: z.array(z.object({ path: z.string(), message: z.string() })).optional(),
 });
