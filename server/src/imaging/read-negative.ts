@@ -12,6 +12,8 @@ export interface ReadNegativeOptions {
   maxPixels?: number;
   /** Put the pixels in a SharedArrayBuffer so worker threads can read them without a copy. Default false. */
   shared?: boolean;
+  /** Supplies the array the pixels are copied into (for example a reused shared buffer); overrides `shared`. */
+  allocate?: (samples: number) => Uint16Array;
 }
 
 export interface NegativeImage {
@@ -117,8 +119,12 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
   if (raw.info.channels !== 3 || raw.info.width !== width || raw.info.height !== height) {
     throw damaged(new Error(`decoded ${raw.info.width}x${raw.info.height}x${raw.info.channels}`));
   }
-  const shared = options.shared ?? false;
-  const data = bitDepth === 16 ? toUint16(raw.data, shared) : expand8(raw.data, shared);
+  const samples = width * height * 3;
+  const allocate =
+    options.allocate ??
+    (options.shared ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2)) : undefined);
+  const data = bitDepth === 16 ? toUint16(raw.data, allocate) : expand8(raw.data, allocate);
+  if (data.length < samples) throw new RangeError(`Expected at least ${samples} samples from allocate but received ${data.length}`);
   return { width, height, data, bitDepth, format: sniffed, warnings };
 }
 
@@ -140,17 +146,17 @@ async function readHead(path: string): Promise<Uint8Array> {
   }
 }
 
-function toUint16(bytes: Buffer, shared: boolean): Uint16Array {
+function toUint16(bytes: Buffer, allocate: ((n: number) => Uint16Array) | undefined): Uint16Array {
   const count = bytes.byteLength / 2;
-  if (!shared && bytes.byteOffset % 2 === 0) return new Uint16Array(bytes.buffer, bytes.byteOffset, count);
-  const out = new Uint16Array(shared ? new SharedArrayBuffer(bytes.byteLength) : new ArrayBuffer(bytes.byteLength));
-  new Uint8Array(out.buffer).set(bytes);
+  if (!allocate && bytes.byteOffset % 2 === 0) return new Uint16Array(bytes.buffer, bytes.byteOffset, count);
+  const out = allocate ? allocate(count) : new Uint16Array(count);
+  new Uint8Array(out.buffer, out.byteOffset, bytes.byteLength).set(bytes);
   return out;
 }
 
 /** 8 → 16 bits by ×257, so 255 maps to 65535 (sharp's own cast shifts by 8 and stops at 65280). */
-function expand8(bytes: Buffer, shared: boolean): Uint16Array {
-  const out = new Uint16Array(shared ? new SharedArrayBuffer(bytes.length * 2) : new ArrayBuffer(bytes.length * 2));
+function expand8(bytes: Buffer, allocate: ((n: number) => Uint16Array) | undefined): Uint16Array {
+  const out = allocate ? allocate(bytes.length) : new Uint16Array(bytes.length);
   for (let i = 0; i < bytes.length; i++) out[i] = bytes[i]! * 257;
   return out;
 }

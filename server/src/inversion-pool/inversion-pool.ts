@@ -4,6 +4,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Piscina } from 'piscina';
 import type { InvertChunkTask } from './invert-chunk';
 import { sharePlan } from './share-plan';
+import { createFrameBuffers, type FrameBuffers } from './frame-buffers';
 
 export interface InversionPoolOptions {
   /** Worker threads. Default `os.availableParallelism()`. */
@@ -14,6 +15,8 @@ export interface InversionPoolOptions {
 
 export interface InversionPool {
   readonly threads: number;
+  /** Shared frame buffers to reuse from frame to frame (see `FrameBuffers` for why). */
+  readonly buffers: FrameBuffers;
   /**
    * Inverts a whole frame across the workers. `input` and `output` must be backed by a
    * SharedArrayBuffer (see `sharedArray`) so the workers write the result in place, without copies.
@@ -78,6 +81,7 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
 
   return {
     threads,
+    buffers: createFrameBuffers(),
     async invertFrame(plan, input, output, width, height) {
       const pixels = width * height;
       if (input.length < pixels * 3 || output.length < pixels * 3) {

@@ -1,6 +1,6 @@
 import { performance } from 'node:perf_hooks';
 import { readNegative, writePositive, type PositiveFormat } from '../imaging/index';
-import { sharedArray, type InversionPool } from './inversion-pool';
+import type { InversionPool } from './inversion-pool';
 import {
   baseFromRegion,
   compileDensity,
@@ -85,29 +85,38 @@ export async function invertNegativeFile(
   settings: FrameSettings,
 ): Promise<FrameResult> {
   const start = performance.now();
-  const negative = await readNegative(file, { shared: true, ...(settings.maxPixels ? { maxPixels: settings.maxPixels } : {}) });
-  const measured = measureFrame(negative, settings);
-  const outKind = settings.format === 'jpeg' ? 'u8' : 'u16';
-  const plan = compileInversion(
-    paramsFor(settings, measured.base, settings.levels ?? measured.levels, outKind, settings.render),
-    measured.density,
-  );
-  const pixels = sharedArray(outKind === 'u8' ? Uint8Array : Uint16Array, negative.data.length);
-  await pool.invertFrame(plan, negative.data, pixels, negative.width, negative.height);
-  await writePositive(pixels, {
-    path: output,
-    width: negative.width,
-    height: negative.height,
-    format: settings.format,
-    ...(settings.quality ? { quality: settings.quality } : {}),
-    metadata: {
-      stock: settings.stock.stock,
-      profileVersion: `${settings.stock.stock}@${settings.stock.version}`,
-      scanner: settings.scanner.name,
-      adjustments: { render: settings.render, base: measured.base.rgb.map((v) => Number(v.toFixed(5))) },
-      sourceFile: file.split(/[\\/]/).pop() ?? file,
-    },
+  const negative = await readNegative(file, {
+    allocate: (samples) => pool.buffers.acquire(Uint16Array, samples),
+    ...(settings.maxPixels ? { maxPixels: settings.maxPixels } : {}),
   });
+  const outKind = settings.format === 'jpeg' ? Uint8Array : Uint16Array;
+  const pixels = pool.buffers.acquire(outKind, negative.data.length);
+  let measured: ReturnType<typeof measureFrame>;
+  try {
+    measured = measureFrame(negative, settings);
+    const plan = compileInversion(
+      paramsFor(settings, measured.base, settings.levels ?? measured.levels, outKind === Uint8Array ? 'u8' : 'u16', settings.render),
+      measured.density,
+    );
+    await pool.invertFrame(plan, negative.data, pixels, negative.width, negative.height);
+    await writePositive(pixels, {
+      path: output,
+      width: negative.width,
+      height: negative.height,
+      format: settings.format,
+      ...(settings.quality ? { quality: settings.quality } : {}),
+      metadata: {
+        stock: settings.stock.stock,
+        profileVersion: `${settings.stock.stock}@${settings.stock.version}`,
+        scanner: settings.scanner.name,
+        adjustments: { render: settings.render, base: measured.base.rgb.map((v) => Number(v.toFixed(5))) },
+        sourceFile: file.split(/[\\/]/).pop() ?? file,
+      },
+    });
+  } finally {
+    pool.buffers.release(negative.data);
+    pool.buffers.release(pixels);
+  }
   return {
     file,
     output,
