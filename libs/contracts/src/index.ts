@@ -2,3 +2,4 @@ export * from './auth/role';
 export * from './auth/user';
 export * from './auth/audit-entry';
 export * from './problem/problem';
+export * from './lab/lab';
