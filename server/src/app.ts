@@ -2,7 +2,6 @@ import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
 import type { Kysely } from 'kysely';
-import { resolve } from 'node:path';
 import type { Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
 import { apiRouteModules } from './api-route-modules';
@@ -30,7 +29,7 @@ export interface AppDeps {
   config: Config;
   clock: Clock;
   logger: Logger;
-  /** Folder of the built web app; defaults to dist/web/browser under the working directory. */
+  /** Folder of the built web app; defaults to config.webRoot. */
   webRoot?: string;
   /** Route modules to register; defaults to every module of the product. */
   routeModules?: readonly RouteModule[];
@@ -116,7 +115,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api', (req, _res, next) => {
     next(new AppError('not-found', 404, `No API route ${req.method} ${req.originalUrl}.`));
   });
-  serveWebApp(app, deps.webRoot ?? resolve('dist/web/browser'));
+  serveWebApp(app, deps.webRoot ?? config.webRoot);
   app.use((req, _res, next) => next(new AppError('not-found', 404, `Nothing at ${req.originalUrl}.`)));
   app.use(errorHandler());
   return app;

@@ -20,6 +20,8 @@ const envSchema = z.object({
   // 10 failed sign-ins per 15 minutes per address and e-mail: common practice against password guessing, from memory
   LOGIN_RATE_LIMIT_MAX: intFromEnv(1, 10_000).default(10),
   LOGIN_RATE_LIMIT_WINDOW_MINUTES: intFromEnv(1, 24 * 60).default(15),
+  // the Angular build's output folder (angular.json outputPath + /browser)
+  WEB_ROOT: z.string().min(1).default('dist/web/browser'),
   SEED_DEMO: z.enum(['true', 'false']).default('true'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
@@ -37,6 +39,8 @@ export interface Config {
   sessionMaxAgeMs: number;
   jsonBodyLimitBytes: number;
   loginRateLimit: { max: number; windowMs: number };
+  /** Folder of the built web app, served with a fallback to its index.html. */
+  webRoot: string;
   seedDemo: boolean;
   logLevel: string;
 }
@@ -83,6 +87,7 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     sessionMaxAgeMs: e.SESSION_MAX_AGE_HOURS * 3600_000,
     jsonBodyLimitBytes: e.JSON_BODY_LIMIT_BYTES,
     loginRateLimit: { max: e.LOGIN_RATE_LIMIT_MAX, windowMs: e.LOGIN_RATE_LIMIT_WINDOW_MINUTES * 60_000 },
+    webRoot: resolve(e.WEB_ROOT),
     seedDemo: e.SEED_DEMO === 'true',
     logLevel: e.LOG_LEVEL,
   };
