@@ -4,12 +4,16 @@ export type Timed = () => Promise<unknown>;
 
 /**
  * Runs each case `repetitions` times, interleaved (a b c, b c a, c a b, ...) so drift in machine
- * load touches all cases alike, after one untimed warm-up round. Returns the median ms per case.
+ * load touches all cases alike, after one untimed warm-up round unless `warmUp` is false. Returns the median ms per case.
  */
-export async function timeInterleaved(cases: Record<string, Timed>, repetitions: number): Promise<Record<string, number>> {
+export async function timeInterleaved(
+  cases: Record<string, Timed>,
+  repetitions: number,
+  { warmUp = true }: { warmUp?: boolean } = {},
+): Promise<Record<string, number>> {
   const names = Object.keys(cases);
   const samples: Record<string, number[]> = Object.fromEntries(names.map((n) => [n, []]));
-  for (const name of names) await cases[name]!();
+  if (warmUp) for (const name of names) await cases[name]!();
   for (let rep = 0; rep < repetitions; rep++) {
     for (let k = 0; k < names.length; k++) {
       const name = names[(rep + k) % names.length]!;

@@ -51,7 +51,11 @@ const roll = await timeInterleaved(
     },
   },
   quick ? 3 : 1,
+  // The single-frame cases above already warmed the pool, sharp and the JIT.
+  { warmUp: false },
 );
+// maxRSS is in kilobytes (Node.js process.resourceUsage docs).
+const benchPeakRssMB = Math.round(process.resourceUsage().maxRSS / 1024);
 await pool.close();
 
 const tsx = createRequire(import.meta.url).resolve('tsx');
@@ -68,8 +72,9 @@ const rows: [string, string, string][] = [
   ['peak RSS of (b), own process', `${peakRssMB} MB`, '(goal ≤ 700 MB)'],
   [`${ROLL}-frame roll, ${IN_FLIGHT} frames in flight`, ms(roll['pipelined']!), `roll/singles = ${(roll['pipelined']! / roll['oneByOne']!).toFixed(2)} (goal ≤ 0.6)`],
   [`${ROLL} single frames one after another`, ms(roll['oneByOne']!), ''],
+  ['peak RSS of this whole run (all cases and rolls)', `${benchPeakRssMB} MB`, ''],
 ];
 for (const [name, value, note] of rows) process.stdout.write(`${name.padEnd(52)} ${value.padStart(10)}  ${note}\n`);
 process.stdout.write(
-  `${JSON.stringify({ width, height, bitDepth, threads, reps, ms: t, roll, ratios: { bOverA: t['inversion']! / t['ioFloor']!, bOverC: t['inversion']! / t['sharpNegate']!, rollOverSingles: roll['pipelined']! / roll['oneByOne']! }, peakRssMB })}\n`,
+  `${JSON.stringify({ width, height, bitDepth, threads, reps, ms: t, roll, ratios: { bOverA: t['inversion']! / t['ioFloor']!, bOverC: t['inversion']! / t['sharpNegate']!, rollOverSingles: roll['pipelined']! / roll['oneByOne']! }, peakRssMB, benchPeakRssMB })}\n`,
 );
