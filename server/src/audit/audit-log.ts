@@ -12,7 +12,8 @@ export type AuditAction =
   | 'user-renamed'
   | 'user-role-changed'
   | 'user-disabled'
-  | 'user-enabled';
+  | 'user-enabled'
+  | 'settings-changed';
 
 export interface AuditEvent {
   at: Date;

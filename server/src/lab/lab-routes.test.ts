@@ -2,7 +2,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { systemClock } from '../clock';
 import { demoLab, seedDemo } from '../demo/seed';
-import { createTestApp, type TestApp } from '../test-support/test-app';
+import { addUser, createTestApp, signedIn, type TestApp } from '../test-support/test-app';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -21,5 +21,23 @@ describe('GET /api/lab', () => {
     await seedDemo(t.db, { clock: systemClock });
     const res = await request(t.app).get('/api/lab');
     expect(res.body).toEqual(demoLab);
+  });
+
+  it('lets an admin rename the lab, and records the change', async () => {
+    await addUser(t.db, 'admin', 'boss@lab.test');
+    const admin = await signedIn(t.app, 'boss@lab.test');
+    const next = { name: 'Harbour Street Film Lab', town: 'Wrenmouth', address: '2 Harbour Street, Wrenmouth' };
+    const res = await admin.send('put', '/api/lab', next);
+    expect(res.status).toBe(200);
+    expect((await request(t.app).get('/api/lab')).body).toEqual(next);
+    const audit = await admin.get('/api/audit?action=settings-changed');
+    expect(audit.body.entries[0]).toMatchObject({ actorEmail: 'boss@lab.test', target: 'lab', details: { after: next } });
+  });
+
+  it('refuses an empty lab name, naming the field', async () => {
+    const admin = await signedIn(t.app, 'boss@lab.test');
+    const res = await admin.send('put', '/api/lab', { name: '', town: '', address: '' });
+    expect(res.status).toBe(400);
+    expect(res.body.errors[0].path).toBe('body.name');
   });
 });
