@@ -9,7 +9,6 @@ import {
 } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
-import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
 import type { ChangePasswordRequest } from '@clearbase/contracts';
 import { Session } from '../auth/session';
@@ -27,7 +26,7 @@ function sameAsNew(control: AbstractControl): ValidationErrors | null {
 /** Account: who you are, and changing your password. */
 @Component({
   selector: 'cb-account-page',
-  imports: [ReactiveFormsModule, MatButton, MatFormField, MatLabel, MatError, MatHint, MatInput, MatIcon],
+  imports: [ReactiveFormsModule, MatButton, MatFormField, MatLabel, MatError, MatHint, MatInput],
   templateUrl: './account-page.html',
   styleUrl: './account-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

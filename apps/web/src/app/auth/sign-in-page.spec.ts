@@ -85,6 +85,8 @@ describe('SignInPage', () => {
 
     expect(el(fixture, 'sign-in-error')?.textContent).toContain('The e-mail address or password is wrong.');
     expect((el(fixture, 'sign-in-password') as HTMLInputElement).value).toBe('');
+    expect((el(fixture, 'sign-in-email') as HTMLInputElement).value).toBe('ada@lab.test');
+    expect(text(fixture)).not.toContain('Enter your password');
   });
 
   it('says so when sign-in attempts are being limited', async () => {

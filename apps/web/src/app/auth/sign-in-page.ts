@@ -1,5 +1,5 @@
-import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { ChangeDetectionStrategy, Component, inject, input, signal, viewChild } from '@angular/core';
+import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { Router } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatError, MatFormField, MatLabel, MatSuffix } from '@angular/material/form-field';
@@ -45,6 +45,7 @@ export class SignInPage {
   protected readonly problem = signal<string | null>(null);
   protected readonly fieldErrors = signal<Readonly<Record<string, string>>>({});
   protected readonly showPassword = signal(false);
+  private readonly formDirective = viewChild.required(FormGroupDirective);
 
   protected submit(): void {
     this.form.markAllAsTouched();
@@ -62,7 +63,9 @@ export class SignInPage {
         const p = readProblem(err);
         this.problem.set(p.status === 429 ? `Too many attempts. ${p.message}` : p.message);
         this.fieldErrors.set(p.fieldErrors);
-        if (p.status === 401) this.form.controls.password.reset('');
+        // A wrong password is cleared without the empty field at once showing its own error.
+        if (p.status === 401)
+          this.formDirective().resetForm({ email: this.form.controls.email.value, password: '' });
       },
     });
   }
