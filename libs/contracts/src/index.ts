@@ -3,3 +3,4 @@ export * from './auth/user';
 export * from './auth/audit-entry';
 export * from './problem/problem';
 export * from './lab/lab';
+export * from './profile/profile-document';

@@ -1,0 +1,129 @@
+import { DENSITY_RANGE, RELATIVE_LOG_EXPOSURE_RANGE, LUMINANCE_WEIGHTS, resolveInversion, type InversionParams } from './invert-pixel';
+import { densityAboveBase } from './density';
+import { linearise, FULL_SCALE_16 } from './scanner-input';
+
+/** Entries of the density → log exposure table: 16384 over 5 D is 0.0003 D a step, linearly interpolated (sizing from memory). */
+const EXPOSURE_LUT_SIZE = 16384;
+/** Entries of the log exposure → output table: 65536 over 9 log units, linearly interpolated (sizing from memory). */
+const OUTPUT_LUT_SIZE = 65536;
+
+/**
+ * A compiled inversion: plain data and typed arrays only, so it survives structuredClone / postMessage.
+ * Per pixel: D = densityLut[c·65536 + count]; D' = M·D; e = interp(exposureLut, D'); saturation; code = interp(outputLut, e).
+ */
+export interface InversionPlan {
+  outputBits: 8 | 16;
+  /** 3 × 65536 densities above base by channel and 16-bit count, held to the density range. */
+  densityLut: Float32Array;
+  /** Row-major 3×3 crosstalk, or null for identity. */
+  crosstalk: Float32Array | null;
+  /** 3 × exposureLutSize relative log exposures (balance, exposure and E_mid applied) over densityMin…densityMax. */
+  exposureLut: Float32Array;
+  exposureLutSize: number;
+  densityMin: number;
+  densityMax: number;
+  /** Saturation factor in log exposure around the luminance-weighted mean; 1 = none. */
+  saturation: number;
+  weights: [number, number, number];
+  /** outputLutSize output code values (not rounded) over relativeMin…relativeMax. */
+  outputLut: Float32Array;
+  outputLutSize: number;
+  relativeMin: number;
+  relativeMax: number;
+}
+
+/**
+ * Compiles params into lookup tables for `applyInversion`.
+ * @example const plan = compileInversion(params); applyInversion(plan, input, output, 0, width * height);
+ */
+export function compileInversion(params: InversionParams): InversionPlan {
+  const resolved = resolveInversion(params);
+  const [dMin, dMax] = DENSITY_RANGE;
+  const [rMin, rMax] = RELATIVE_LOG_EXPOSURE_RANGE;
+  const densityLut = new Float32Array(3 * 65536);
+  for (let c = 0; c < 3; c++) {
+    for (let v = 0; v < 65536; v++) {
+      const d = densityAboveBase(linearise(v / FULL_SCALE_16, params.scanner, c as 0 | 1 | 2), params.base[c]!);
+      densityLut[c * 65536 + v] = d < dMin ? dMin : d > dMax ? dMax : d;
+    }
+  }
+  const m = resolved.crosstalk;
+  const identity = m.every((row, r) => row.every((x, k) => x === (r === k ? 1 : 0)));
+  const exposureLut = new Float32Array(3 * EXPOSURE_LUT_SIZE);
+  for (let c = 0; c < 3; c++) {
+    for (let i = 0; i < EXPOSURE_LUT_SIZE; i++) {
+      const d = dMin + ((dMax - dMin) * i) / (EXPOSURE_LUT_SIZE - 1);
+      const e = resolved.curves[c]!.inverse(d) + resolved.offset[c]!;
+      exposureLut[c * EXPOSURE_LUT_SIZE + i] = e < rMin ? rMin : e > rMax ? rMax : e;
+    }
+  }
+  const outputLut = new Float32Array(OUTPUT_LUT_SIZE);
+  for (let i = 0; i < OUTPUT_LUT_SIZE; i++) outputLut[i] = resolved.encode(rMin + ((rMax - rMin) * i) / (OUTPUT_LUT_SIZE - 1));
+  return {
+    outputBits: params.outputBits,
+    densityLut,
+    crosstalk: identity ? null : Float32Array.from(m.flat()),
+    exposureLut,
+    exposureLutSize: EXPOSURE_LUT_SIZE,
+    densityMin: dMin,
+    densityMax: dMax,
+    saturation: resolved.saturation,
+    weights: [...LUMINANCE_WEIGHTS],
+    outputLut,
+    outputLutSize: OUTPUT_LUT_SIZE,
+    relativeMin: rMin,
+    relativeMax: rMax,
+  };
+}
+
+/**
+ * Inverts pixels [firstPixel, firstPixel + pixelCount) of interleaved 16-bit RGB `input` into `output`
+ * (same pixel indices; Uint8Array for 8-bit plans, Uint16Array for 16-bit). Workers may split rows.
+ * @example applyInversion(plan, input, output, row * width, width) // one row
+ */
+export function applyInversion(plan: InversionPlan, input: Uint16Array, output: Uint8Array | Uint16Array, firstPixel: number, pixelCount: number): void {
+  const { densityLut: dl, crosstalk: m, exposureLut: el, exposureLutSize: en, outputLut: ol, outputLutSize: on, saturation: s } = plan;
+  const dMin = plan.densityMin, dMax = plan.densityMax, rMin = plan.relativeMin, rMax = plan.relativeMax;
+  const dScale = (en - 1) / (dMax - dMin);
+  const rScale = (on - 1) / (rMax - rMin);
+  const [wr, wg, wb] = plan.weights;
+  const expo = (d: number, base: number): number => {
+    if (d <= dMin) return el[base]!;
+    if (d >= dMax) return el[base + en - 1]!;
+    const x = (d - dMin) * dScale;
+    const i = x | 0;
+    const f = x - i;
+    return el[base + i]! + f * (el[base + i + 1]! - el[base + i]!);
+  };
+  const out = (e: number): number => {
+    if (e <= rMin) return Math.round(ol[0]!);
+    if (e >= rMax) return Math.round(ol[on - 1]!);
+    const x = (e - rMin) * rScale;
+    const i = x | 0;
+    const f = x - i;
+    return Math.round(ol[i]! + f * (ol[i + 1]! - ol[i]!));
+  };
+  const end = (firstPixel + pixelCount) * 3;
+  for (let i = firstPixel * 3; i < end; i += 3) {
+    let r = dl[input[i]!]!;
+    let g = dl[65536 + input[i + 1]!]!;
+    let b = dl[131072 + input[i + 2]!]!;
+    if (m) {
+      const r2 = m[0]! * r + m[1]! * g + m[2]! * b;
+      const g2 = m[3]! * r + m[4]! * g + m[5]! * b;
+      b = m[6]! * r + m[7]! * g + m[8]! * b;
+      r = r2;
+      g = g2;
+    }
+    let er = expo(r, 0), eg = expo(g, en), eb = expo(b, 2 * en);
+    if (s !== 1) {
+      const mean = wr * er + wg * eg + wb * eb;
+      er = mean + s * (er - mean);
+      eg = mean + s * (eg - mean);
+      eb = mean + s * (eb - mean);
+    }
+    output[i] = out(er);
+    output[i + 1] = out(eg);
+    output[i + 2] = out(eb);
+  }
+}
