@@ -110,6 +110,14 @@ describe('clearbase synth, invert and profile validate', () => {
     expect((await readdir(join(dir, 'mixed'))).sort()).toEqual(['tidewater-400-frame-01.jpg', 'tidewater-400-frame-03.jpg']);
   });
 
+  it('samples the base from a rectangle drawn by the operator', async () => {
+    const run = await runCli(['invert', negatives[0]!, '--out', 'drawn', '--base', '10,0,50,4', '--json'], dir);
+    expect(run.code).toBe(0);
+    const line = JSON.parse(run.stdout.trim()) as { base: { region: number[]; confidence: number } };
+    expect(line.base.region).toEqual([10, 0, 50, 4]);
+    expect(line.base.confidence).toBe(1);
+  });
+
   it('exits 2 with the usage text for a bad option value', async () => {
     const run = await runCli(['invert', negatives[0]!, '--out', 'x', '--format', 'gif'], dir);
     expect(run.code).toBe(2);

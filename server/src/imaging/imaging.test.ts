@@ -84,6 +84,14 @@ describe('readNegative', () => {
     expect(Array.from(img.data)).toEqual(Array.from(data));
   });
 
+  it('copies the pixels into the array an allocate callback supplies', async () => {
+    const data = ramp16();
+    const target = new Uint16Array(new SharedArrayBuffer(data.length * 2));
+    const img = await readNegative(await write16('into.tif', data, 'tiff'), { allocate: (n) => (n === data.length ? target : new Uint16Array(n)) });
+    expect(img.data).toBe(target);
+    expect(Array.from(target)).toEqual(Array.from(data));
+  });
+
   it('reads an 8-bit file scaled to 16-bit full scale, with a warning', async () => {
     const path = join(dir, 'eight.png');
     await sharp(new Uint8Array(W * H * 3).fill(200), { raw: { width: W, height: H, channels: 3 } }).png().toFile(path);
