@@ -38,14 +38,79 @@ export interface SettingsTable {
   value: string;
 }
 
+/** A film stock of the catalogue. */
+export interface StocksTable {
+  id: Generated<number>;
+  name: string;
+  maker: string;
+  iso: number;
+  process: string;
+  /** 0/1 */
+  masked: number;
+  base_material: string;
+  /** JSON array of frame format names */
+  frame_formats: string;
+  notes: ColumnType<string, string | undefined, string>;
+  created_at: ColumnType<string, string, never>;
+}
+
+/** An input device with its scanner input profile. */
+export interface ScannersTable {
+  id: Generated<number>;
+  name: string;
+  kind: string;
+  /** JSON scanner input profile */
+  input_profile: string;
+  created_at: ColumnType<string, string, never>;
+}
+
+/** A stock profile (per stock, optionally per scanner); its parameters live in its versions. */
+export interface ProfilesTable {
+  id: Generated<number>;
+  stock_id: number;
+  scanner_id: number | null;
+  name: string;
+  /** The id its profile documents carry. */
+  document_id: string;
+  created_at: ColumnType<string, string, never>;
+  created_by: number | null;
+}
+
+/** A numbered version of a profile: draft, published (immutable, enforced by trigger) or retired. */
+export interface ProfileVersionsTable {
+  id: Generated<number>;
+  profile_id: number;
+  version: number;
+  status: 'draft' | 'published' | 'retired';
+  parent_version_id: number | null;
+  /** JSON profile document */
+  parameters: string;
+  changelog: string | null;
+  created_at: ColumnType<string, string, never>;
+  created_by: number | null;
+  updated_at: string;
+  published_at: string | null;
+  published_by: number | null;
+  retired_at: string | null;
+}
+
 /** The one database schema of Clearbase. */
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
   audit_log: AuditLogTable;
   settings: SettingsTable;
+  stocks: StocksTable;
+  scanners: ScannersTable;
+  profiles: ProfilesTable;
+  profile_versions: ProfileVersionsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
 export type NewUserRow = Insertable<UsersTable>;
 export type UserRowUpdate = Updateable<UsersTable>;
+
+export type StockRow = Selectable<StocksTable>;
+export type ScannerRow = Selectable<ScannersTable>;
+export type ProfileRow = Selectable<ProfilesTable>;
+export type ProfileVersionRow = Selectable<ProfileVersionsTable>;
