@@ -2,10 +2,11 @@ import { DENSITY_RANGE, RELATIVE_LOG_EXPOSURE_RANGE, LUMINANCE_WEIGHTS, resolveI
 import { densityAboveBase } from './density';
 import { linearise, FULL_SCALE_16 } from './scanner-input';
 
-/** Entries of the density → log exposure table: 16384 over 5 D is 0.0003 D a step, linearly interpolated (sizing from memory). */
-const EXPOSURE_LUT_SIZE = 16384;
-/** Entries of the log exposure → output table: 65536 over 9 log units, linearly interpolated (sizing from memory). */
-const OUTPUT_LUT_SIZE = 65536;
+/** Entries of the density → log exposure table: 32768 over 5 D is 0.00015 D a step, linearly interpolated (sized by the equality test). */
+const EXPOSURE_LUT_SIZE = 32768;
+/** Entries of the log exposure → output table: 262144 over 9 log units, linearly interpolated; fine enough that the
+ * kink at the white clip stays within one 16-bit code (sized by the equality test). */
+const OUTPUT_LUT_SIZE = 262144;
 
 /**
  * A compiled inversion: plain data and typed arrays only, so it survives structuredClone / postMessage.

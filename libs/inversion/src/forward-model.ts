@@ -95,13 +95,14 @@ export function filmDensity(stock: FilmStock, channel: 0 | 1 | 2, logExposure: n
 }
 
 /**
- * A stock profile matching an invented stock: curves sampled every 0.1 log exposure from −3.6 to 1.6.
- * @example profileForStock(POLYCLEAR_200).curves.green.points.length // 53
+ * A stock profile matching an invented stock: curves sampled every 0.1 log exposure from −2.3 (where
+ * the toe slope is near the 0.2 floor, below which the profile extrapolates with that slope) to 1.7.
+ * @example profileForStock(POLYCLEAR_200).curves.green.points.length // 41
  */
 export function profileForStock(stock: FilmStock): ProfileDocument {
   const curve = (c: 0 | 1 | 2) => ({
-    points: Array.from({ length: 53 }, (_, i) => {
-      const x = Math.round((-3.6 + 0.1 * i) * 1e6) / 1e6;
+    points: Array.from({ length: 41 }, (_, i) => {
+      const x = Math.round((-2.3 + 0.1 * i) * 1e6) / 1e6;
       return { logExposure: x, density: filmDensity(stock, c, x) };
     }),
   });
