@@ -1,0 +1,29 @@
+import type { CreateScannerRequest, Scanner, ScannerKind, ScannerProfile } from '@clearbase/contracts';
+import type { Kysely } from 'kysely';
+import type { Database, ScannerRow } from '../db/database';
+
+export function listScanners(db: Kysely<Database>): Promise<ScannerRow[]> {
+  return db.selectFrom('scanners').selectAll().orderBy('name').execute();
+}
+
+export function findScannerById(db: Kysely<Database>, id: number): Promise<ScannerRow | undefined> {
+  return db.selectFrom('scanners').selectAll().where('id', '=', id).executeTakeFirst();
+}
+
+export function insertScanner(db: Kysely<Database>, scanner: CreateScannerRequest, at: Date): Promise<ScannerRow> {
+  return db
+    .insertInto('scanners')
+    .values({ name: scanner.name, kind: scanner.kind, input_profile: JSON.stringify(scanner.inputProfile), created_at: at.toISOString() })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
+export function toScanner(row: ScannerRow): Scanner {
+  return {
+    id: row.id,
+    name: row.name,
+    kind: row.kind as ScannerKind,
+    inputProfile: JSON.parse(row.input_profile) as ScannerProfile,
+    createdAt: row.created_at,
+  };
+}

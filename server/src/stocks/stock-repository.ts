@@ -1,0 +1,48 @@
+import type { CreateStockRequest, FilmProcess, Stock } from '@clearbase/contracts';
+import type { Kysely } from 'kysely';
+import type { Database, StockRow } from '../db/database';
+
+export function listStocks(db: Kysely<Database>): Promise<StockRow[]> {
+  return db.selectFrom('stocks').selectAll().orderBy('name').execute();
+}
+
+export function findStockById(db: Kysely<Database>, id: number): Promise<StockRow | undefined> {
+  return db.selectFrom('stocks').selectAll().where('id', '=', id).executeTakeFirst();
+}
+
+export function findStockByName(db: Kysely<Database>, name: string): Promise<StockRow | undefined> {
+  return db.selectFrom('stocks').selectAll().where('name', '=', name).executeTakeFirst();
+}
+
+export function insertStock(db: Kysely<Database>, stock: CreateStockRequest, at: Date): Promise<StockRow> {
+  return db
+    .insertInto('stocks')
+    .values({
+      name: stock.name,
+      maker: stock.maker,
+      iso: stock.iso,
+      process: stock.process,
+      masked: stock.masked ? 1 : 0,
+      base_material: stock.baseMaterial,
+      frame_formats: JSON.stringify(stock.frameFormats),
+      notes: stock.notes,
+      created_at: at.toISOString(),
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
+export function toStock(row: StockRow): Stock {
+  return {
+    id: row.id,
+    name: row.name,
+    maker: row.maker,
+    iso: row.iso,
+    process: row.process as FilmProcess,
+    masked: row.masked === 1,
+    baseMaterial: row.base_material,
+    frameFormats: JSON.parse(row.frame_formats) as string[],
+    notes: row.notes,
+    createdAt: row.created_at,
+  };
+}

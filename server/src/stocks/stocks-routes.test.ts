@@ -1,0 +1,88 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+
+let t: TestApp;
+let manager: Client;
+let operator: Client;
+let customer: Client;
+beforeAll(async () => {
+  t = await createTestApp();
+  for (const role of ['manager', 'operator', 'customer'] as const) await addUser(t.db, role);
+  manager = await signedIn(t.app, 'manager@lab.test');
+  operator = await signedIn(t.app, 'operator@lab.test');
+  customer = await signedIn(t.app, 'customer@lab.test');
+});
+afterAll(() => t.close());
+
+const tealLine = {
+  name: 'Tealine 200',
+  maker: 'Harrowgate Emulsions',
+  iso: 200,
+  process: 'C-41',
+  masked: false,
+  baseMaterial: 'clear polyester',
+  frameFormats: ['135-36'],
+  notes: 'Thin base.',
+};
+
+describe('stocks', () => {
+  it('lets a manager add a stock that any signed-in user then sees in the catalogue', async () => {
+    const created = await manager.post('/api/stocks', tealLine);
+    expect(created.status).toBe(201);
+    expect(created.body.stock).toMatchObject({ ...tealLine, id: expect.any(Number) });
+    const list = await customer.get('/api/stocks');
+    expect(list.status).toBe(200);
+    expect(list.body.stocks.map((s: { name: string }) => s.name)).toEqual(['Tealine 200']);
+  });
+
+  it('refuses an operator adding a stock (403) and a duplicate name (409 problem)', async () => {
+    expect((await operator.post('/api/stocks', { ...tealLine, name: 'Other' })).status).toBe(403);
+    const dup = await manager.post('/api/stocks', tealLine);
+    expect(dup.status).toBe(409);
+    expect(dup.headers['content-type']).toMatch(/^application\/problem\+json/);
+  });
+
+  it('answers a stock page with its (empty) profiles, and 404 for an unknown id', async () => {
+    const [stock] = (await customer.get('/api/stocks')).body.stocks;
+    const page = await customer.get(`/api/stocks/${stock.id}`);
+    expect(page.status).toBe(200);
+    expect(page.body).toEqual({ stock, profiles: [] });
+    expect((await customer.get('/api/stocks/999')).status).toBe(404);
+  });
+
+  it('lists each invalid field of a new stock with its path', async () => {
+    const res = await manager.post('/api/stocks', { ...tealLine, name: 'X', iso: 0, process: 'K-14' });
+    expect(res.status).toBe(400);
+    expect(res.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['body.iso', 'body.process']);
+  });
+
+  it('audits the creation with before and after', async () => {
+    const row = await t.db.selectFrom('audit_log').selectAll().where('action', '=', 'stock-created').executeTakeFirstOrThrow();
+    expect(row.actor_email).toBe('manager@lab.test');
+    expect(JSON.parse(row.details!)).toMatchObject({ before: null, after: { name: 'Tealine 200' } });
+  });
+});
+
+describe('scanners', () => {
+  const rig = {
+    name: 'Copy stand one',
+    kind: 'camera-rig',
+    inputProfile: { name: 'Copy stand one', encoding: 'linear', gamma: 1, blackLevel: [0.002, 0.002, 0.002], gains: [1, 1.1, 1.3] },
+  };
+
+  it('lets a manager add a scanner that staff read but customers may not', async () => {
+    const created = await manager.post('/api/scanners', rig);
+    expect(created.status).toBe(201);
+    expect(created.body.scanner).toMatchObject(rig);
+    const list = await operator.get('/api/scanners');
+    expect(list.body.scanners).toHaveLength(1);
+    expect((await customer.get('/api/scanners')).status).toBe(403);
+    expect((await operator.post('/api/scanners', { ...rig, name: 'Other' })).status).toBe(403);
+  });
+
+  it('names the invalid field of an input profile', async () => {
+    const res = await manager.post('/api/scanners', { ...rig, name: 'Bad', inputProfile: { ...rig.inputProfile, gains: [1, 0, 1] } });
+    expect(res.status).toBe(400);
+    expect(res.body.errors[0].path).toBe('body.inputProfile.gains.1');
+  });
+});
