@@ -10,3 +10,4 @@ export * from './film-base';
 export * from './invert-pixel';
 export * from './compile-inversion';
 export * from './forward-model';
+export * from './frame-levels';

@@ -1,0 +1,111 @@
+import type { Balance, Tone } from '@clearbase/contracts';
+import type { Region, RgbImage } from './film-base';
+import { LUMINANCE_WEIGHTS, MID_GREY, relativeLogExposure, resolveInversion, type InversionParams } from './invert-pixel';
+import { LOG_EXPOSURE_PER_POINT } from './printer-points';
+import type { Rgb } from './srgb';
+
+/** Exposure statistics of a frame, in log exposure (profile balance applied, no exposure offset). */
+export interface FrameLevels {
+  /** E_mid by auto exposure: luminance-weighted mean log exposure ("integrate to grey"). */
+  midLogExposure: number;
+  /** Per-channel mean log exposure. */
+  channelMeans: Rgb;
+  /** Luminance-weighted log exposure at the dark and light percentiles. */
+  blackLogExposure: number;
+  whiteLogExposure: number;
+}
+
+/** Options of `measureFrameLevels`. */
+export interface MeasureLevelsOptions {
+  /** Rectangle to measure (the frame, without rebate); whole image by default. */
+  region?: Region;
+  /** Measure every n-th pixel in both directions. Default 4. */
+  step?: number;
+  /** Percentile for black and white points, 0..50. Default 0.5 (common practice of the trade, from memory). */
+  clipPercent?: number;
+}
+
+/**
+ * Measures a frame: mean log exposure (for E_mid), per-channel means (for neutral balance) and black/white points.
+ * @example measureFrameLevels({ ...params, midLogExposure: 0 }, negative, { region: negative.truth.frame }).midLogExposure // ≈ −0.75
+ */
+export function measureFrameLevels(params: Omit<InversionParams, 'midLogExposure' | 'exposureStops'>, image: RgbImage, options: MeasureLevelsOptions = {}): FrameLevels {
+  const full: InversionParams = { ...params, midLogExposure: 0, exposureStops: 0, render: 'reference' };
+  const resolved = resolveInversion(full);
+  const [x0, y0, w, h] = options.region ?? [0, 0, image.width, image.height];
+  const step = Math.max(1, Math.floor(options.step ?? 4));
+  const sums: Rgb = [0, 0, 0];
+  const lum: number[] = [];
+  for (let y = y0; y < y0 + h; y += step) {
+    for (let x = x0; x < x0 + w; x += step) {
+      const i = (y * image.width + x) * 3;
+      const e = relativeLogExposure(resolved, full, [image.data[i]!, image.data[i + 1]!, image.data[i + 2]!]);
+      sums[0] += e[0]; sums[1] += e[1]; sums[2] += e[2];
+      lum.push(LUMINANCE_WEIGHTS[0] * e[0] + LUMINANCE_WEIGHTS[1] * e[1] + LUMINANCE_WEIGHTS[2] * e[2]);
+    }
+  }
+  const n = Math.max(1, lum.length);
+  const channelMeans: Rgb = [sums[0] / n, sums[1] / n, sums[2] / n];
+  lum.sort((a, b) => a - b);
+  const pct = (options.clipPercent ?? 0.5) / 100;
+  const at = (q: number) => lum[Math.min(lum.length - 1, Math.max(0, Math.round(q * (lum.length - 1))))] ?? 0;
+  return {
+    midLogExposure: LUMINANCE_WEIGHTS[0] * channelMeans[0] + LUMINANCE_WEIGHTS[1] * channelMeans[1] + LUMINANCE_WEIGHTS[2] * channelMeans[2],
+    channelMeans,
+    blackLogExposure: at(pct),
+    whiteLogExposure: at(1 - pct),
+  };
+}
+
+/**
+ * Balance in printer points that brings every channel's mean to the neutral (grey-world in log exposure).
+ * @example neutralBalance(levels) // { cyanRed: -3.1, magentaGreen: 0.4, yellowBlue: 2.2 }
+ */
+export function neutralBalance(levels: FrameLevels): Balance {
+  const toPoints = (c: 0 | 1 | 2) => (levels.midLogExposure - levels.channelMeans[c]) / LOG_EXPOSURE_PER_POINT;
+  return { cyanRed: toPoints(0), magentaGreen: toPoints(1), yellowBlue: toPoints(2) };
+}
+
+/**
+ * Tone black and white points (scene-linear, 18 % grey at E_mid) from measured levels, keeping a contrast.
+ * @example levelsToTone(levels, 1.1) // { contrast: 1.1, blackPoint: 0.004, whitePoint: 1.3 }
+ */
+export function levelsToTone(levels: FrameLevels, contrast: number, midLogExposure = levels.midLogExposure): Tone {
+  const blackPoint = Math.min(0.5, MID_GREY * 10 ** (contrast * (levels.blackLogExposure - midLogExposure)));
+  const whitePoint = Math.min(16, Math.max(blackPoint * 1.01, MID_GREY * 10 ** (contrast * (levels.whiteLogExposure - midLogExposure))));
+  return { contrast, blackPoint, whitePoint };
+}
+
+/** Roll-wide levels and each frame's deviation from them. */
+export interface RollLevels {
+  roll: FrameLevels;
+  /** Per frame, frame − roll for every quantity. */
+  deviations: FrameLevels[];
+}
+
+/**
+ * Roll-wide levels from all frames: means of the frames' means (E_mid, channel means), medians of their
+ * black and white points; deviations keep what each frame differs by.
+ * @example rollLevels([a, b, c]).deviations[1].midLogExposure // how much lighter frame b is than the roll
+ */
+export function rollLevels(frames: FrameLevels[]): RollLevels {
+  if (!frames.length) throw new RangeError('a roll needs at least one frame');
+  const mean = (f: (l: FrameLevels) => number) => frames.reduce((s, l) => s + f(l), 0) / frames.length;
+  const median = (f: (l: FrameLevels) => number) => {
+    const s = frames.map(f).sort((a, b) => a - b);
+    return s.length % 2 ? s[s.length >> 1]! : 0.5 * (s[s.length / 2 - 1]! + s[s.length / 2]!);
+  };
+  const roll: FrameLevels = {
+    midLogExposure: mean((l) => l.midLogExposure),
+    channelMeans: [mean((l) => l.channelMeans[0]), mean((l) => l.channelMeans[1]), mean((l) => l.channelMeans[2])],
+    blackLogExposure: median((l) => l.blackLogExposure),
+    whiteLogExposure: median((l) => l.whiteLogExposure),
+  };
+  const deviations = frames.map((l) => ({
+    midLogExposure: l.midLogExposure - roll.midLogExposure,
+    channelMeans: [0, 1, 2].map((c) => l.channelMeans[c]! - roll.channelMeans[c]!) as Rgb,
+    blackLogExposure: l.blackLogExposure - roll.blackLogExposure,
+    whiteLogExposure: l.whiteLogExposure - roll.whiteLogExposure,
+  }));
+  return { roll, deviations };
+}
