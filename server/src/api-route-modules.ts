@@ -2,6 +2,7 @@ import { auditRoutes } from './audit/audit-routes';
 import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
 import { labRoutes } from './lab/lab-routes';
+import { profilesRoutes } from './profiles/profiles-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
 import { stocksRoutes } from './stocks/stocks-routes';
 import { usersRoutes } from './users/users-routes';
@@ -10,4 +11,4 @@ import { usersRoutes } from './users/users-routes';
  * Every resource's routes, in the order they are registered. Add a resource by appending its module; sign-in routes
  * are added by createApp because they need the app's passport instance.
  */
-export const apiRouteModules: readonly RouteModule[] = [healthRoutes, labRoutes, usersRoutes, auditRoutes, stocksRoutes, scannersRoutes];
+export const apiRouteModules: readonly RouteModule[] = [healthRoutes, labRoutes, usersRoutes, auditRoutes, stocksRoutes, scannersRoutes, profilesRoutes];

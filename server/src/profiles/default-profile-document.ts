@@ -11,7 +11,8 @@ export function defaultProfileDocument(stock: StockRow, documentId: string): Pro
   const line = {
     points: [
       { logExposure: -logExposureSpan, density: 0 },
-      { logExposure: 0, density: negativeGamma * logExposureSpan },
+      // rounded so the stored document reads 1.8, not 1.7999999999999998
+      { logExposure: 0, density: Number((negativeGamma * logExposureSpan).toFixed(6)) },
     ],
   };
   return {
