@@ -31,6 +31,8 @@ export interface InversionPlan {
   outputLutSize: number;
   relativeMin: number;
   relativeMax: number;
+  /** When every stage is per channel (identity crosstalk, saturation 1): 3 × 65536 output codes by count, else null. */
+  directLut: Uint16Array | null;
 }
 
 /**
@@ -60,7 +62,7 @@ export function compileInversion(params: InversionParams): InversionPlan {
   }
   const outputLut = new Float32Array(OUTPUT_LUT_SIZE);
   for (let i = 0; i < OUTPUT_LUT_SIZE; i++) outputLut[i] = resolved.encode(rMin + ((rMax - rMin) * i) / (OUTPUT_LUT_SIZE - 1));
-  return {
+  const plan: InversionPlan = {
     outputBits: params.outputBits,
     densityLut,
     crosstalk: identity ? null : Float32Array.from(m.flat()),
@@ -74,7 +76,20 @@ export function compileInversion(params: InversionParams): InversionPlan {
     outputLutSize: OUTPUT_LUT_SIZE,
     relativeMin: rMin,
     relativeMax: rMax,
+    directLut: null,
   };
+  if (identity && resolved.saturation === 1) {
+    // Every stage is per channel: fold the whole chain into one table per channel, through the same tables.
+    const direct = new Uint16Array(3 * 65536);
+    const e = new Float64Array(3);
+    for (let v = 0; v < 65536; v++) {
+      e[0] = densityLut[v]!; e[1] = densityLut[65536 + v]!; e[2] = densityLut[131072 + v]!;
+      pixelFromDensities(plan, e);
+      direct[v] = e[0]!; direct[65536 + v] = e[1]!; direct[131072 + v] = e[2]!;
+    }
+    plan.directLut = direct;
+  }
+  return plan;
 }
 
 /**
@@ -83,6 +98,16 @@ export function compileInversion(params: InversionParams): InversionPlan {
  * @example applyInversion(plan, input, output, row * width, width) // one row
  */
 export function applyInversion(plan: InversionPlan, input: Uint16Array, output: Uint8Array | Uint16Array, firstPixel: number, pixelCount: number): void {
+  const end = (firstPixel + pixelCount) * 3;
+  const direct = plan.directLut;
+  if (direct) {
+    for (let i = firstPixel * 3; i < end; i += 3) {
+      output[i] = direct[input[i]!]!;
+      output[i + 1] = direct[65536 + input[i + 1]!]!;
+      output[i + 2] = direct[131072 + input[i + 2]!]!;
+    }
+    return;
+  }
   const { densityLut: dl, crosstalk: m, exposureLut: el, exposureLutSize: en, outputLut: ol, outputLutSize: on, saturation: s } = plan;
   const dMin = plan.densityMin, dMax = plan.densityMax, rMin = plan.relativeMin, rMax = plan.relativeMax;
   const dScale = (en - 1) / (dMax - dMin);
@@ -93,18 +118,15 @@ export function applyInversion(plan: InversionPlan, input: Uint16Array, output: 
     if (d >= dMax) return el[base + en - 1]!;
     const x = (d - dMin) * dScale;
     const i = x | 0;
-    const f = x - i;
-    return el[base + i]! + f * (el[base + i + 1]! - el[base + i]!);
+    return el[base + i]! + (x - i) * (el[base + i + 1]! - el[base + i]!);
   };
   const out = (e: number): number => {
     if (e <= rMin) return Math.round(ol[0]!);
     if (e >= rMax) return Math.round(ol[on - 1]!);
     const x = (e - rMin) * rScale;
     const i = x | 0;
-    const f = x - i;
-    return Math.round(ol[i]! + f * (ol[i + 1]! - ol[i]!));
+    return Math.round(ol[i]! + (x - i) * (ol[i + 1]! - ol[i]!));
   };
-  const end = (firstPixel + pixelCount) * 3;
   for (let i = firstPixel * 3; i < end; i += 3) {
     let r = dl[input[i]!]!;
     let g = dl[65536 + input[i + 1]!]!;
@@ -126,5 +148,40 @@ export function applyInversion(plan: InversionPlan, input: Uint16Array, output: 
     output[i] = out(er);
     output[i + 1] = out(eg);
     output[i + 2] = out(eb);
+  }
+}
+
+/** Densities after crosstalk (in `e`) → rounded output codes (in `e`): exposure tables, saturation, output table. */
+function pixelFromDensities(plan: InversionPlan, e: Float64Array): void {
+  const { exposureLut: el, exposureLutSize: en, outputLut: ol, outputLutSize: on, saturation: s } = plan;
+  const dMin = plan.densityMin, dMax = plan.densityMax, rMin = plan.relativeMin, rMax = plan.relativeMax;
+  const dScale = (en - 1) / (dMax - dMin);
+  const rScale = (on - 1) / (rMax - rMin);
+  for (let c = 0; c < 3; c++) {
+    const d = e[c]!;
+    const base = c * en;
+    let v: number;
+    if (d <= dMin) v = el[base]!;
+    else if (d >= dMax) v = el[base + en - 1]!;
+    else {
+      const x = (d - dMin) * dScale;
+      const k = x | 0;
+      v = el[base + k]! + (x - k) * (el[base + k + 1]! - el[base + k]!);
+    }
+    e[c] = v;
+  }
+  if (s !== 1) {
+    const mean = plan.weights[0] * e[0]! + plan.weights[1] * e[1]! + plan.weights[2] * e[2]!;
+    for (let c = 0; c < 3; c++) e[c] = mean + s * (e[c]! - mean);
+  }
+  for (let c = 0; c < 3; c++) {
+    const v = e[c]!;
+    if (v <= rMin) e[c] = Math.round(ol[0]!);
+    else if (v >= rMax) e[c] = Math.round(ol[on - 1]!);
+    else {
+      const x = (v - rMin) * rScale;
+      const k = x | 0;
+      e[c] = Math.round(ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!));
+    }
   }
 }

@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
-  applyInversion, chartScene, compileInversion, D65_WHITE, deltaE2000, exposeNegative, gradientScene, invertPixel, labD50ToLabD65,
+  AMBERMASK_100, applyInversion, chartScene, compileInversion, D65_WHITE, deltaE2000, exposeNegative, gradientScene, invertPixel, labD50ToLabD65,
   LINEAR_SCANNER, linearSrgbToXyz, POLYCLEAR_200, profileForStock, relativeLogExposure, resolveInversion, srgbDecode, TINTLINE_400,
   xyzToLab, type InversionParams, type Rgb,
 } from './index';
@@ -103,6 +103,20 @@ describe('compiled fast path', () => {
       expect(worst).toBeLessThanOrEqual(1);
     });
   }
+  it('folds a per-channel-only inversion into one table per channel, still within 1 code of the plain path', () => {
+    const params: InversionParams = { profile: profileForStock(AMBERMASK_100), scanner, base: [0.5, 0.3, 0.15], midLogExposure: -0.7, render: 'print', outputBits: 16 };
+    const plan = compileInversion(params);
+    expect(plan.directLut).not.toBeNull();
+    const out = new Uint16Array(input.length);
+    applyInversion(plan, input, out, 0, input.length / 3);
+    const r = resolveInversion(params);
+    let worst = 0;
+    for (let p = 0; p < input.length / 3; p += 5) {
+      const want = invertPixel(params, [input[3 * p]!, input[3 * p + 1]!, input[3 * p + 2]!], r);
+      for (let c = 0; c < 3; c++) worst = Math.max(worst, Math.abs(want[c]! - out[3 * p + c]!));
+    }
+    expect(worst).toBeLessThanOrEqual(1);
+  });
   it('leaves pixels outside the given range untouched', () => {
     const params: InversionParams = { profile: profileForStock(POLYCLEAR_200), scanner: LINEAR_SCANNER, base: [0.8, 0.8, 0.8], midLogExposure: -0.7, render: 'print', outputBits: 8 };
     const out = new Uint8Array(30).fill(7);
