@@ -3,6 +3,7 @@ import type { Kysely } from 'kysely';
 import { hashPassword } from '../auth/password-hash';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';
+import { catalogueSeedStep } from '../profiles/demo-catalogue-seed';
 import { countUsers, insertUser } from '../users/user-repository';
 
 /** The shared password of every demo account. */
@@ -54,7 +55,7 @@ const usersStep: SeedStep = {
 };
 
 /** The demo seed's steps. Append a step to seed more (stocks, scanners, orders). */
-export const demoSeedSteps: SeedStep[] = [labStep, usersStep];
+export const demoSeedSteps: SeedStep[] = [labStep, usersStep, catalogueSeedStep];
 
 /**
  * Fills an empty database with the demo lab. A database that has any user is left untouched.
