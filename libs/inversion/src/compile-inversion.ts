@@ -95,9 +95,18 @@ export function compileInversion(params: InversionParams): InversionPlan {
 /**
  * Inverts pixels [firstPixel, firstPixel + pixelCount) of interleaved 16-bit RGB `input` into `output`
  * (same pixel indices; Uint8Array for 8-bit plans, Uint16Array for 16-bit). Workers may split rows.
+ * Throws a RangeError, before any work, for a range outside the input or an output of the wrong kind.
  * @example applyInversion(plan, input, output, row * width, width) // one row
  */
 export function applyInversion(plan: InversionPlan, input: Uint16Array, output: Uint8Array | Uint16Array, firstPixel: number, pixelCount: number): void {
+  const pixels = Math.floor(input.length / 3);
+  if (!Number.isInteger(firstPixel) || firstPixel < 0 || firstPixel > pixels)
+    throw new RangeError(`Expected integer between 0 and ${pixels} for firstPixel but received ${firstPixel} of type ${typeof firstPixel}`);
+  if (!Number.isInteger(pixelCount) || pixelCount < 0 || firstPixel + pixelCount > pixels)
+    throw new RangeError(`Expected integer between 0 and ${pixels - firstPixel} for pixelCount but received ${pixelCount} of type ${typeof pixelCount}`);
+  if (output.length < input.length) throw new RangeError(`Expected output of at least ${input.length} values but received ${output.length}`);
+  if ((plan.outputBits === 8) !== output instanceof Uint8Array)
+    throw new RangeError(`Expected ${plan.outputBits === 8 ? 'Uint8Array' : 'Uint16Array'} for output of a ${plan.outputBits}-bit plan but received ${output.constructor.name}`);
   const end = (firstPixel + pixelCount) * 3;
   const direct = plan.directLut;
   if (direct) {

@@ -1,6 +1,7 @@
 import type { Balance, Tone } from '@clearbase/contracts';
 import type { Region, RgbImage } from './film-base';
-import { LUMINANCE_WEIGHTS, MID_GREY, relativeLogExposure, resolveInversion, type InversionParams } from './invert-pixel';
+import { LUMINANCE_WEIGHTS, relativeLogExposure, resolveInversion, type InversionParams } from './invert-pixel';
+import { MID_GREY } from './tone-curve';
 import { LOG_EXPOSURE_PER_POINT } from './printer-points';
 import type { Rgb } from './srgb';
 

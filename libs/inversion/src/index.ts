@@ -7,6 +7,7 @@ export * from './printer-points';
 export * from './monotone-curve';
 export * from './scanner-input';
 export * from './film-base';
+export * from './tone-curve';
 export * from './invert-pixel';
 export * from './compile-inversion';
 export * from './forward-model';

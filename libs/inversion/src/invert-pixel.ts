@@ -4,9 +4,8 @@ import { createMonotoneCurve, type MonotoneCurve } from './monotone-curve';
 import { addBalances, balanceToLogExposure, stopsToLogExposure } from './printer-points';
 import { linearise, FULL_SCALE_16 } from './scanner-input';
 import { srgbEncode, type Matrix3, type Rgb } from './srgb';
+import { MID_GREY, referenceTone, toneCurve } from './tone-curve';
 
-/** Scene-linear value of the mid grey E_mid maps to: 18 % (common practice of the trade). */
-export const MID_GREY = 0.18;
 /** Densities above base are held to this range, D (covers any colour negative, from memory). */
 export const DENSITY_RANGE: readonly [number, number] = [-0.5, 4.5];
 /** Log exposures relative to E_mid are held to this range (below 16-bit black, above any white point). */
@@ -50,25 +49,40 @@ export interface ResolvedInversion {
 
 const clamp = (x: number, lo: number, hi: number) => (x < lo ? lo : x > hi ? hi : x);
 
+function describe(value: unknown): string {
+  return `${typeof value === 'number' ? value : JSON.stringify(value)} of type ${typeof value}`;
+}
+
 /**
- * Resolves params into curves, offsets and the output encoding.
+ * Checks params before any work; throws a RangeError of one shape, e.g.
+ * `Expected number above 0 and at most 1 for base[1] but received 0 of type number`.
+ * @example assertInversionParams({ ...params, outputBits: 12 }) // throws "Expected 8 or 16 for outputBits but received 12 of type number"
+ */
+export function assertInversionParams(params: InversionParams): void {
+  params.base.forEach((b, c) => {
+    if (!(typeof b === 'number' && b > 0 && b <= 1)) throw new RangeError(`Expected number above 0 and at most 1 for base[${c}] but received ${describe(b)}`);
+  });
+  if (params.outputBits !== 8 && params.outputBits !== 16) throw new RangeError(`Expected 8 or 16 for outputBits but received ${describe(params.outputBits)}`);
+  if (params.render !== 'print' && params.render !== 'reference') throw new RangeError(`Expected 'print' or 'reference' for render but received ${describe(params.render)}`);
+  if (!Number.isFinite(params.midLogExposure)) throw new RangeError(`Expected finite number for midLogExposure but received ${describe(params.midLogExposure)}`);
+  if (params.exposureStops !== undefined && !Number.isFinite(params.exposureStops)) throw new RangeError(`Expected finite number for exposureStops but received ${describe(params.exposureStops)}`);
+}
+
+/**
+ * Resolves params into curves, offsets and the output encoding. Throws a RangeError on invalid params.
  * @example resolveInversion(params).offset // [balance_r + exposure − E_mid, …]
  */
 export function resolveInversion(params: InversionParams): ResolvedInversion {
+  assertInversionParams(params);
   const { profile } = params;
   const curve = (c: 'red' | 'green' | 'blue') =>
     createMonotoneCurve(profile.curves[c].points.map((p) => p.logExposure), profile.curves[c].points.map((p) => p.density));
   const balance = balanceToLogExposure(addBalances(profile.balance, ...(params.balances ?? [])));
   const shift = stopsToLogExposure(params.exposureStops ?? 0) - params.midLogExposure;
   const maxCode = params.outputBits === 8 ? 255 : FULL_SCALE_16;
-  const { contrast, blackPoint, whitePoint } = profile.tone;
+  const tone = profile.tone;
   const encode =
-    params.render === 'reference'
-      ? (rel: number) => maxCode * srgbEncode(clamp(MID_GREY * 10 ** rel, 0, 1))
-      : (rel: number) => {
-          const y = MID_GREY * 10 ** (contrast * rel);
-          return maxCode * srgbEncode(clamp((y - blackPoint) / (whitePoint - blackPoint), 0, 1));
-        };
+    params.render === 'reference' ? (rel: number) => maxCode * srgbEncode(referenceTone(rel)) : (rel: number) => maxCode * srgbEncode(toneCurve(rel, tone));
   return {
     curves: [curve('red'), curve('green'), curve('blue')],
     crosstalk: profile.crosstalk,
