@@ -11,4 +11,12 @@ import { usersRoutes } from './users/users-routes';
  * Every resource's routes, in the order they are registered. Add a resource by appending its module; sign-in routes
  * are added by createApp because they need the app's passport instance.
  */
-export const apiRouteModules: readonly RouteModule[] = [healthRoutes, labRoutes, usersRoutes, auditRoutes, stocksRoutes, scannersRoutes, profilesRoutes];
+export const apiRouteModules: readonly RouteModule[] = [
+  healthRoutes,
+  labRoutes,
+  usersRoutes,
+  auditRoutes,
+  stocksRoutes,
+  scannersRoutes,
+  profilesRoutes,
+];

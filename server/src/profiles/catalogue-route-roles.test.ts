@@ -14,7 +14,9 @@ const managers = ['manager', 'admin'];
 
 describe('catalogue and profile routes', () => {
   it('declare who may call them: reads for staff or anyone signed in, publishing and retiring for managers', () => {
-    const roles = Object.fromEntries(routeRegistryOf(t.app).map((r) => [`${r.method.toUpperCase()} ${r.path}`, r.roles]));
+    const roles = Object.fromEntries(
+      routeRegistryOf(t.app).map((r) => [`${r.method.toUpperCase()} ${r.path}`, r.roles]),
+    );
     expect(roles).toMatchObject({
       'GET /api/stocks': 'signed-in',
       'POST /api/stocks': managers,

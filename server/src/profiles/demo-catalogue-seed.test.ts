@@ -34,7 +34,9 @@ describe('demo catalogue', () => {
       for (const v of [v1, v2]) {
         const { parameters } = (await operator.get(`/api/profile-versions/${v.id}`)).body.version;
         expect(validateProfileDocument(parameters).ok).toBe(true);
-        expect(parameters.stock.base).toBe(stock.masked ? 'masked' : stock.baseMaterial.includes('tinted') ? 'tinted' : 'clear');
+        expect(parameters.stock.base).toBe(
+          stock.masked ? 'masked' : stock.baseMaterial.includes('tinted') ? 'tinted' : 'clear',
+        );
       }
       const diff = (await operator.get(`/api/profile-versions/${v1.id}/diff/${v2.id}`)).body;
       expect(diff.changes.map((c: { path: string }) => c.path)).toEqual(['balance.magentaGreen']);
@@ -43,6 +45,10 @@ describe('demo catalogue', () => {
 
   it('holds one scanner of each kind', async () => {
     const { scanners } = (await operator.get('/api/scanners')).body;
-    expect(scanners.map((s: { kind: string }) => s.kind).sort()).toEqual(['camera-rig', 'flatbed', 'lab-scanner']);
+    expect(scanners.map((s: { kind: string }) => s.kind).sort()).toEqual([
+      'camera-rig',
+      'flatbed',
+      'lab-scanner',
+    ]);
   });
 });

@@ -27,7 +27,8 @@ export const demoStocks: readonly DemoStock[] = [
       masked: false,
       baseMaterial: 'tinted polyester (pale grey-blue)',
       frameFormats: ['135-24', '135-36'],
-      notes: 'Unmasked colour negative on a thin tinted polyester base. Rate at EI 400; takes one stop of push well.',
+      notes:
+        'Unmasked colour negative on a thin tinted polyester base. Rate at EI 400; takes one stop of push well.',
     },
     gammas: [0.58, 0.61, 0.66],
     crosstalk: -0.06,
@@ -70,24 +71,46 @@ export const demoScanners: readonly CreateScannerRequest[] = [
   {
     name: 'Copy stand, bench 1',
     kind: 'camera-rig',
-    inputProfile: { name: 'Copy stand, bench 1', encoding: 'linear', gamma: 1, blackLevel: [0.004, 0.004, 0.004], gains: [1, 1.18, 1.42] },
+    inputProfile: {
+      name: 'Copy stand, bench 1',
+      encoding: 'linear',
+      gamma: 1,
+      blackLevel: [0.004, 0.004, 0.004],
+      gains: [1, 1.18, 1.42],
+    },
   },
   {
     name: 'Roll scanner, back room',
     kind: 'lab-scanner',
-    inputProfile: { name: 'Roll scanner, back room', encoding: 'srgb', gamma: 1, blackLevel: [0.002, 0.002, 0.003], gains: [1.05, 1, 1.1] },
+    inputProfile: {
+      name: 'Roll scanner, back room',
+      encoding: 'srgb',
+      gamma: 1,
+      blackLevel: [0.002, 0.002, 0.003],
+      gains: [1.05, 1, 1.1],
+    },
   },
   {
     name: 'Flatbed for sheet film',
     kind: 'flatbed',
-    inputProfile: { name: 'Flatbed for sheet film', encoding: 'gamma', gamma: 2.2, blackLevel: [0.01, 0.01, 0.012], gains: [1, 1.02, 1.08] },
+    inputProfile: {
+      name: 'Flatbed for sheet film',
+      encoding: 'gamma',
+      gamma: 2.2,
+      blackLevel: [0.01, 0.01, 0.012],
+      gains: [1, 1.02, 1.08],
+    },
   },
 ];
 
 // a 3.0 log exposure span (10 stops) covers a negative's useful range: common practice of the trade, from memory
 const logExposureSpan = 3;
 
-function demoDocument(demo: DemoStock, base: ProfileDocument['stock']['base'], documentId: string): ProfileDocument {
+function demoDocument(
+  demo: DemoStock,
+  base: ProfileDocument['stock']['base'],
+  documentId: string,
+): ProfileDocument {
   const curve = (gamma: number) => ({
     points: [
       { logExposure: -logExposureSpan, density: 0 },
@@ -119,16 +142,37 @@ async function seedCatalogue(db: Kysely<Database>, at: Date, managerId: number |
   for (const [i, demo] of demoStocks.entries()) {
     const stock = await insertStock(db, demo.stock, at);
     const documentId = `demo-${stock.name.toLowerCase().replace(/[^a-z0-9]+/g, '-')}`;
-    const profile = await insertProfile(db, { stockId: stock.id, scannerId: null, name: `${stock.name}, house profile`, documentId, at, by: managerId });
+    const profile = await insertProfile(db, {
+      stockId: stock.id,
+      scannerId: null,
+      name: `${stock.name}, house profile`,
+      documentId,
+      at,
+      by: managerId,
+    });
     const document = demoDocument(demo, baseOf(stock), documentId);
-    const v1 = await insertDraft(db, { profile, parentVersionId: null, parameters: document, at, by: managerId });
+    const v1 = await insertDraft(db, {
+      profile,
+      parentVersionId: null,
+      parameters: document,
+      at,
+      by: managerId,
+    });
     await db
       .updateTable('profile_versions')
-      .set({ status: 'published', changelog: 'First house profile from the calibration roll', published_at: at.toISOString(), published_by: managerId })
+      .set({
+        status: 'published',
+        changelog: 'First house profile from the calibration roll',
+        published_at: at.toISOString(),
+        published_by: managerId,
+      })
       .where('id', '=', v1.id)
       .execute();
     // the open draft: a small magenta-green correction under trial
-    const trial = { ...document, balance: { ...document.balance, magentaGreen: document.balance.magentaGreen - 1 - i } };
+    const trial = {
+      ...document,
+      balance: { ...document.balance, magentaGreen: document.balance.magentaGreen - 1 - i },
+    };
     await insertDraft(db, { profile, parentVersionId: v1.id, parameters: trial, at, by: managerId });
   }
 }
@@ -137,7 +181,12 @@ async function seedCatalogue(db: Kysely<Database>, at: Date, managerId: number |
 export const catalogueSeedStep: SeedStep = {
   name: 'stocks, scanners and profiles',
   async run(db, { clock }) {
-    const manager = await db.selectFrom('users').select('id').where('role', '=', 'manager').orderBy('id').executeTakeFirst();
+    const manager = await db
+      .selectFrom('users')
+      .select('id')
+      .where('role', '=', 'manager')
+      .orderBy('id')
+      .executeTakeFirst();
     await seedCatalogue(db, clock.now(), manager?.id ?? null);
   },
 };

@@ -4,7 +4,11 @@ import type { ParameterChange } from '@clearbase/contracts';
  * Flattens a JSON value to leaf paths in the profile document's path style.
  * @example flattenDocument({ curves: { red: { points: [{ density: 0 }] } } }) // Map { 'curves.red.points[0].density' => 0 }
  */
-export function flattenDocument(value: unknown, prefix = '', out = new Map<string, unknown>()): Map<string, unknown> {
+export function flattenDocument(
+  value: unknown,
+  prefix = '',
+  out = new Map<string, unknown>(),
+): Map<string, unknown> {
   if (Array.isArray(value)) {
     if (value.length === 0) out.set(prefix, []);
     value.forEach((item, i) => flattenDocument(item, `${prefix}[${i}]`, out));

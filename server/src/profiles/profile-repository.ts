@@ -6,7 +6,10 @@ export function findProfileById(db: Kysely<Database>, id: number): Promise<Profi
   return db.selectFrom('profiles').selectAll().where('id', '=', id).executeTakeFirst();
 }
 
-export function findProfileByDocumentId(db: Kysely<Database>, documentId: string): Promise<ProfileRow | undefined> {
+export function findProfileByDocumentId(
+  db: Kysely<Database>,
+  documentId: string,
+): Promise<ProfileRow | undefined> {
   return db.selectFrom('profiles').selectAll().where('document_id', '=', documentId).executeTakeFirst();
 }
 
@@ -14,9 +17,18 @@ export function listProfilesOfStock(db: Kysely<Database>, stockId: number): Prom
   return db.selectFrom('profiles').selectAll().where('stock_id', '=', stockId).orderBy('id').execute();
 }
 
-export function listVersionsOfProfiles(db: Kysely<Database>, profileIds: readonly number[]): Promise<ProfileVersionRow[]> {
+export function listVersionsOfProfiles(
+  db: Kysely<Database>,
+  profileIds: readonly number[],
+): Promise<ProfileVersionRow[]> {
   if (profileIds.length === 0) return Promise.resolve([]);
-  return db.selectFrom('profile_versions').selectAll().where('profile_id', 'in', profileIds).orderBy('profile_id').orderBy('version').execute();
+  return db
+    .selectFrom('profile_versions')
+    .selectAll()
+    .where('profile_id', 'in', profileIds)
+    .orderBy('profile_id')
+    .orderBy('version')
+    .execute();
 }
 
 export function findVersionById(db: Kysely<Database>, id: number): Promise<ProfileVersionRow | undefined> {
@@ -34,7 +46,14 @@ export async function nextVersionNumber(db: Kysely<Database>, profileId: number)
 
 export function insertProfile(
   db: Kysely<Database>,
-  row: { stockId: number; scannerId: number | null; name: string; documentId: string; at: Date; by: number | null },
+  row: {
+    stockId: number;
+    scannerId: number | null;
+    name: string;
+    documentId: string;
+    at: Date;
+    by: number | null;
+  },
 ): Promise<ProfileRow> {
   return db
     .insertInto('profiles')
@@ -53,7 +72,13 @@ export function insertProfile(
 /** Adds a draft numbered max+1; the stored document carries the profile's document id and the version number. */
 export async function insertDraft(
   db: Kysely<Database>,
-  draft: { profile: ProfileRow; parentVersionId: number | null; parameters: ProfileDocument; at: Date; by: number | null },
+  draft: {
+    profile: ProfileRow;
+    parentVersionId: number | null;
+    parameters: ProfileDocument;
+    at: Date;
+    by: number | null;
+  },
 ): Promise<ProfileVersionRow> {
   const version = await nextVersionNumber(db, draft.profile.id);
   const at = draft.at.toISOString();
@@ -83,7 +108,14 @@ export function stamped(parameters: ProfileDocument, documentId: string, version
 }
 
 export function toProfile(row: ProfileRow): Profile {
-  return { id: row.id, stockId: row.stock_id, scannerId: row.scanner_id, name: row.name, documentId: row.document_id, createdAt: row.created_at };
+  return {
+    id: row.id,
+    stockId: row.stock_id,
+    scannerId: row.scanner_id,
+    name: row.name,
+    documentId: row.document_id,
+    createdAt: row.created_at,
+  };
 }
 
 export function toVersionSummary(row: ProfileVersionRow): ProfileVersionSummary {

@@ -16,7 +16,13 @@ export const profileUpload: RequestHandler = (req, res, next) => {
   upload(req, res, (err: unknown) => {
     if (!err) return next();
     if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
-      return next(new AppError('profile-file-too-large', 413, `A profile file may be at most ${profileUploadLimitBytes} bytes.`));
+      return next(
+        new AppError(
+          'profile-file-too-large',
+          413,
+          `A profile file may be at most ${profileUploadLimitBytes} bytes.`,
+        ),
+      );
     }
     const detail = err instanceof multer.MulterError ? `${err.message}.` : 'The upload could not be read.';
     next(new AppError('profile-upload-invalid', 400, `${detail} Send one file in the field "file".`));

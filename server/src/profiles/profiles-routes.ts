@@ -58,7 +58,13 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
   };
 
   api.define(
-    { method: 'post', path: '/api/profiles', roles: operatorRoles, body: createProfileRequestSchema, summary: 'Create a profile and its version 1 draft' },
+    {
+      method: 'post',
+      path: '/api/profiles',
+      roles: operatorRoles,
+      body: createProfileRequestSchema,
+      summary: 'Create a profile and its version 1 draft',
+    },
     async (_req, res, { body, user }) => {
       const stock = await findStockById(db, body.stockId);
       if (!stock) throw new AppError('stock-not-found', 404, `No stock with id ${body.stockId}.`);
@@ -66,12 +72,23 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
         throw new AppError('scanner-not-found', 404, `No scanner with id ${body.scannerId}.`);
       }
       if (stock.process !== 'C-41') {
-        throw new AppError('process-not-supported', 422, `Profiles invert C-41 stocks; ${stock.name} is ${stock.process}.`);
+        throw new AppError(
+          'process-not-supported',
+          422,
+          `Profiles invert C-41 stocks; ${stock.name} is ${stock.process}.`,
+        );
       }
       const documentId = randomUUID();
       const created = await db.transaction().execute(async (trx) => {
         const at = clock.now();
-        const profile = await insertProfile(trx, { stockId: stock.id, scannerId: body.scannerId, name: body.name, documentId, at, by: user!.id });
+        const profile = await insertProfile(trx, {
+          stockId: stock.id,
+          scannerId: body.scannerId,
+          name: body.name,
+          documentId,
+          at,
+          by: user!.id,
+        });
         const draft = await insertDraft(trx, {
           profile,
           parentVersionId: null,
@@ -80,7 +97,14 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
           by: user!.id,
         });
         const result = { profile: toProfile(profile), version: toVersion(draft) };
-        await recordCatalogueAudit(trx, { at, actor: user!, action: 'profile-created', target: `profile:${profile.id}`, before: null, after: result });
+        await recordCatalogueAudit(trx, {
+          at,
+          actor: user!,
+          action: 'profile-created',
+          target: `profile:${profile.id}`,
+          before: null,
+          after: result,
+        });
         return result;
       });
       res.status(201).json(created);
@@ -88,19 +112,34 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
   );
 
   api.define(
-    { method: 'post', path: '/api/profiles/import', roles: operatorRoles, before: [profileUpload], summary: 'Import a profile document as a new profile or a new draft' },
+    {
+      method: 'post',
+      path: '/api/profiles/import',
+      roles: operatorRoles,
+      before: [profileUpload],
+      summary: 'Import a profile document as a new profile or a new draft',
+    },
     async (req, res, { user }) => {
       let json: unknown = req.body;
       if (req.file) {
         try {
           json = JSON.parse(req.file.buffer.toString('utf8'));
         } catch {
-          throw new AppError('profile-file-not-json', 400, `The file ${req.file.originalname} is not valid JSON.`);
+          throw new AppError(
+            'profile-file-not-json',
+            400,
+            `The file ${req.file.originalname} is not valid JSON.`,
+          );
         }
       }
       const checked = validateProfileDocument(json);
       if (!checked.ok) {
-        throw new AppError('profile-document-invalid', 400, 'The profile document does not match the schema.', checked.errors);
+        throw new AppError(
+          'profile-document-invalid',
+          400,
+          'The profile document does not match the schema.',
+          checked.errors,
+        );
       }
       const document = checked.value;
       const result = await db.transaction().execute(async (trx) => {
@@ -113,21 +152,57 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
             .where('profile_id', '=', existing.id)
             .where('version', '=', document.version)
             .executeTakeFirst();
-          const draft = await insertDraft(trx, { profile: existing, parentVersionId: parent?.id ?? null, parameters: document, at, by: user!.id });
+          const draft = await insertDraft(trx, {
+            profile: existing,
+            parentVersionId: parent?.id ?? null,
+            parameters: document,
+            at,
+            by: user!.id,
+          });
           const made = { created: 'draft' as const, profile: toProfile(existing), version: toVersion(draft) };
-          await recordCatalogueAudit(trx, { at, actor: user!, action: 'profile-imported', target: `profile-version:${draft.id}`, before: null, after: made });
+          await recordCatalogueAudit(trx, {
+            at,
+            actor: user!,
+            action: 'profile-imported',
+            target: `profile-version:${draft.id}`,
+            before: null,
+            after: made,
+          });
           return made;
         }
         const stock = await findStockByName(trx, document.stock.name);
         if (!stock) {
-          throw new AppError('stock-not-found', 422, `No stock named ${document.stock.name}; add the stock to the catalogue first.`, [
-            { path: 'stock.name', message: 'no stock of this name in the catalogue' },
-          ]);
+          throw new AppError(
+            'stock-not-found',
+            422,
+            `No stock named ${document.stock.name}; add the stock to the catalogue first.`,
+            [{ path: 'stock.name', message: 'no stock of this name in the catalogue' }],
+          );
         }
-        const profile = await insertProfile(trx, { stockId: stock.id, scannerId: null, name: `${stock.name} (imported)`, documentId: document.id, at, by: user!.id });
-        const draft = await insertDraft(trx, { profile, parentVersionId: null, parameters: document, at, by: user!.id });
+        const profile = await insertProfile(trx, {
+          stockId: stock.id,
+          scannerId: null,
+          name: `${stock.name} (imported)`,
+          documentId: document.id,
+          at,
+          by: user!.id,
+        });
+        const draft = await insertDraft(trx, {
+          profile,
+          parentVersionId: null,
+          parameters: document,
+          at,
+          by: user!.id,
+        });
         const made = { created: 'profile' as const, profile: toProfile(profile), version: toVersion(draft) };
-        await recordCatalogueAudit(trx, { at, actor: user!, action: 'profile-imported', target: `profile:${profile.id}`, before: null, after: made });
+        await recordCatalogueAudit(trx, {
+          at,
+          actor: user!,
+          action: 'profile-imported',
+          target: `profile:${profile.id}`,
+          before: null,
+          after: made,
+        });
         return made;
       });
       res.status(201).json(result);
@@ -135,13 +210,24 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
   );
 
   api.define(
-    { method: 'post', path: '/api/profiles/:id/versions', roles: operatorRoles, params: profileIdParams, body: createDraftRequestSchema, summary: 'New draft from any version' },
+    {
+      method: 'post',
+      path: '/api/profiles/:id/versions',
+      roles: operatorRoles,
+      params: profileIdParams,
+      body: createDraftRequestSchema,
+      summary: 'New draft from any version',
+    },
     async (_req, res, { params, body, user }) => {
       const profile = await findProfileById(db, params.id);
       if (!profile) throw new AppError('profile-not-found', 404, `No profile with id ${params.id}.`);
       const parent = await findVersionById(db, body.parentVersionId);
       if (!parent || parent.profile_id !== profile.id) {
-        throw new AppError('profile-version-not-found', 404, `Profile ${profile.id} has no version with id ${body.parentVersionId}.`);
+        throw new AppError(
+          'profile-version-not-found',
+          404,
+          `Profile ${profile.id} has no version with id ${body.parentVersionId}.`,
+        );
       }
       const version = await db.transaction().execute(async (trx) => {
         const at = clock.now();
@@ -167,14 +253,27 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
   );
 
   api.define(
-    { method: 'get', path: '/api/profile-versions/:id', roles: staffRoles, params: idParams, summary: 'A version with its parameters' },
+    {
+      method: 'get',
+      path: '/api/profile-versions/:id',
+      roles: staffRoles,
+      params: idParams,
+      summary: 'A version with its parameters',
+    },
     async (_req, res, { params }) => {
       res.json({ version: toVersion(await loadVersion(params.id)) });
     },
   );
 
   api.define(
-    { method: 'patch', path: '/api/profile-versions/:id', roles: operatorRoles, params: idParams, body: updateDraftRequestSchema, summary: 'Change a draft’s parameters' },
+    {
+      method: 'patch',
+      path: '/api/profile-versions/:id',
+      roles: operatorRoles,
+      params: idParams,
+      body: updateDraftRequestSchema,
+      summary: 'Change a draft’s parameters',
+    },
     async (_req, res, { params, body, user }) => {
       const version = await db.transaction().execute(async (trx) => {
         const row = await findVersionById(trx, params.id);
@@ -190,7 +289,14 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
           .where('id', '=', row.id)
           .returningAll()
           .executeTakeFirstOrThrow();
-        await recordCatalogueAudit(trx, { at, actor: user!, action: 'profile-version-updated', target: `profile-version:${row.id}`, before, after });
+        await recordCatalogueAudit(trx, {
+          at,
+          actor: user!,
+          action: 'profile-version-updated',
+          target: `profile-version:${row.id}`,
+          before,
+          after,
+        });
         return toVersion(updated);
       });
       res.json({ version });
@@ -198,16 +304,34 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
   );
 
   api.define(
-    { method: 'post', path: '/api/profile-versions/:id/publish', roles: managerRoles, params: idParams, body: publishVersionRequestSchema, summary: 'Publish a draft with a changelog line' },
+    {
+      method: 'post',
+      path: '/api/profile-versions/:id/publish',
+      roles: managerRoles,
+      params: idParams,
+      body: publishVersionRequestSchema,
+      summary: 'Publish a draft with a changelog line',
+    },
     async (_req, res, { params, body, user }) => {
       const version = await db.transaction().execute(async (trx) => {
         const row = await findVersionById(trx, params.id);
         if (!row) throw versionNotFound(params.id);
-        if (row.status !== 'draft') throw new AppError('profile-version-not-draft', 409, `Version ${row.version} is already ${row.status}.`);
+        if (row.status !== 'draft')
+          throw new AppError(
+            'profile-version-not-draft',
+            409,
+            `Version ${row.version} is already ${row.status}.`,
+          );
         const at = clock.now().toISOString();
         const updated = await trx
           .updateTable('profile_versions')
-          .set({ status: 'published', changelog: body.changelog, published_at: at, published_by: user!.id, updated_at: at })
+          .set({
+            status: 'published',
+            changelog: body.changelog,
+            published_at: at,
+            published_by: user!.id,
+            updated_at: at,
+          })
           .where('id', '=', row.id)
           .returningAll()
           .executeTakeFirstOrThrow();
@@ -226,13 +350,23 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
   );
 
   api.define(
-    { method: 'post', path: '/api/profile-versions/:id/retire', roles: managerRoles, params: idParams, summary: 'Retire a published version (it stays readable)' },
+    {
+      method: 'post',
+      path: '/api/profile-versions/:id/retire',
+      roles: managerRoles,
+      params: idParams,
+      summary: 'Retire a published version (it stays readable)',
+    },
     async (_req, res, { params, user }) => {
       const version = await db.transaction().execute(async (trx) => {
         const row = await findVersionById(trx, params.id);
         if (!row) throw versionNotFound(params.id);
         if (row.status !== 'published') {
-          throw new AppError('profile-version-not-published', 409, `Only a published version can be retired; version ${row.version} is ${row.status}.`);
+          throw new AppError(
+            'profile-version-not-published',
+            409,
+            `Only a published version can be retired; version ${row.version} is ${row.status}.`,
+          );
         }
         const at = clock.now().toISOString();
         const updated = await trx
@@ -256,7 +390,13 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
   );
 
   api.define(
-    { method: 'get', path: '/api/profile-versions/:a/diff/:b', roles: staffRoles, params: diffParams, summary: 'Parameter-by-parameter changes from version a to version b' },
+    {
+      method: 'get',
+      path: '/api/profile-versions/:a/diff/:b',
+      roles: staffRoles,
+      params: diffParams,
+      summary: 'Parameter-by-parameter changes from version a to version b',
+    },
     async (_req, res, { params }) => {
       const [a, b] = [await loadVersion(params.a), await loadVersion(params.b)];
       // id and version always differ between two versions; they are labels, not parameters
@@ -264,13 +404,23 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
         const { id: _id, version: _version, ...rest } = JSON.parse(row.parameters) as ProfileDocument;
         return rest;
       };
-      const diff: ProfileDiff = { from: a.id, to: b.id, changes: diffDocuments(parameters(a), parameters(b)) };
+      const diff: ProfileDiff = {
+        from: a.id,
+        to: b.id,
+        changes: diffDocuments(parameters(a), parameters(b)),
+      };
       res.json(diff);
     },
   );
 
   api.define(
-    { method: 'get', path: '/api/profile-versions/:id/export', roles: staffRoles, params: idParams, summary: 'The version’s profile document as a JSON download' },
+    {
+      method: 'get',
+      path: '/api/profile-versions/:id/export',
+      roles: staffRoles,
+      params: idParams,
+      summary: 'The version’s profile document as a JSON download',
+    },
     async (_req, res, { params }) => {
       const row = await loadVersion(params.id);
       const document = JSON.parse(row.parameters) as ProfileDocument;

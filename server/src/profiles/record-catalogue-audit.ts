@@ -19,7 +19,11 @@ export type CatalogueAuditAction =
  */
 export function recordCatalogueAudit(
   db: Kysely<Database>,
-  event: Omit<AuditEvent, 'action' | 'details'> & { action: CatalogueAuditAction; before: unknown; after: unknown },
+  event: Omit<AuditEvent, 'action' | 'details'> & {
+    action: CatalogueAuditAction;
+    before: unknown;
+    after: unknown;
+  },
 ): Promise<void> {
   const { before, after, action, ...rest } = event;
   return recordAudit(db, { ...rest, action: action as string as AuditAction, details: { before, after } });

@@ -10,10 +10,19 @@ export function findScannerById(db: Kysely<Database>, id: number): Promise<Scann
   return db.selectFrom('scanners').selectAll().where('id', '=', id).executeTakeFirst();
 }
 
-export function insertScanner(db: Kysely<Database>, scanner: CreateScannerRequest, at: Date): Promise<ScannerRow> {
+export function insertScanner(
+  db: Kysely<Database>,
+  scanner: CreateScannerRequest,
+  at: Date,
+): Promise<ScannerRow> {
   return db
     .insertInto('scanners')
-    .values({ name: scanner.name, kind: scanner.kind, input_profile: JSON.stringify(scanner.inputProfile), created_at: at.toISOString() })
+    .values({
+      name: scanner.name,
+      kind: scanner.kind,
+      input_profile: JSON.stringify(scanner.inputProfile),
+      created_at: at.toISOString(),
+    })
     .returningAll()
     .executeTakeFirstOrThrow();
 }

@@ -57,7 +57,11 @@ describe('stocks', () => {
   });
 
   it('audits the creation with before and after', async () => {
-    const row = await t.db.selectFrom('audit_log').selectAll().where('action', '=', 'stock-created').executeTakeFirstOrThrow();
+    const row = await t.db
+      .selectFrom('audit_log')
+      .selectAll()
+      .where('action', '=', 'stock-created')
+      .executeTakeFirstOrThrow();
     expect(row.actor_email).toBe('manager@lab.test');
     expect(JSON.parse(row.details!)).toMatchObject({ before: null, after: { name: 'Tealine 200' } });
   });
@@ -67,7 +71,13 @@ describe('scanners', () => {
   const rig = {
     name: 'Copy stand one',
     kind: 'camera-rig',
-    inputProfile: { name: 'Copy stand one', encoding: 'linear', gamma: 1, blackLevel: [0.002, 0.002, 0.002], gains: [1, 1.1, 1.3] },
+    inputProfile: {
+      name: 'Copy stand one',
+      encoding: 'linear',
+      gamma: 1,
+      blackLevel: [0.002, 0.002, 0.002],
+      gains: [1, 1.1, 1.3],
+    },
   };
 
   it('lets a manager add a scanner that staff read but customers may not', async () => {
@@ -81,7 +91,11 @@ describe('scanners', () => {
   });
 
   it('names the invalid field of an input profile', async () => {
-    const res = await manager.post('/api/scanners', { ...rig, name: 'Bad', inputProfile: { ...rig.inputProfile, gains: [1, 0, 1] } });
+    const res = await manager.post('/api/scanners', {
+      ...rig,
+      name: 'Bad',
+      inputProfile: { ...rig.inputProfile, gains: [1, 0, 1] },
+    });
     expect(res.status).toBe(400);
     expect(res.body.errors[0].path).toBe('body.inputProfile.gains.1');
   });

@@ -2,7 +2,12 @@ import { createStockRequestSchema, type StockDetail } from '@clearbase/contracts
 import { z } from 'zod';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
-import { listProfilesOfStock, listVersionsOfProfiles, toProfile, toVersionSummary } from '../profiles/profile-repository';
+import {
+  listProfilesOfStock,
+  listVersionsOfProfiles,
+  toProfile,
+  toVersionSummary,
+} from '../profiles/profile-repository';
 import { recordCatalogueAudit } from '../profiles/record-catalogue-audit';
 import { isUniqueViolation } from './is-unique-violation';
 import { findStockById, insertStock, listStocks, toStock } from './stock-repository';
@@ -10,23 +15,40 @@ import { findStockById, insertStock, listStocks, toStock } from './stock-reposit
 const stockIdParams = z.object({ id: z.coerce.number().int().positive('Expected a positive stock id') });
 
 export const stocksRoutes: RouteModule = (api, { db, clock }) => {
-  api.define({ method: 'get', path: '/api/stocks', roles: 'signed-in', summary: 'The stock catalogue' }, async (_req, res) => {
-    res.json({ stocks: (await listStocks(db)).map(toStock) });
-  });
+  api.define(
+    { method: 'get', path: '/api/stocks', roles: 'signed-in', summary: 'The stock catalogue' },
+    async (_req, res) => {
+      res.json({ stocks: (await listStocks(db)).map(toStock) });
+    },
+  );
 
   api.define(
-    { method: 'post', path: '/api/stocks', roles: ['manager', 'admin'], body: createStockRequestSchema, summary: 'Add a stock' },
+    {
+      method: 'post',
+      path: '/api/stocks',
+      roles: ['manager', 'admin'],
+      body: createStockRequestSchema,
+      summary: 'Add a stock',
+    },
     async (_req, res, { body, user }) => {
       const stock = await db.transaction().execute(async (trx) => {
         let row;
         try {
           row = await insertStock(trx, body, clock.now());
         } catch (err) {
-          if (isUniqueViolation(err)) throw new AppError('stock-name-taken', 409, `A stock named ${body.name} already exists.`);
+          if (isUniqueViolation(err))
+            throw new AppError('stock-name-taken', 409, `A stock named ${body.name} already exists.`);
           throw err;
         }
         const created = toStock(row);
-        await recordCatalogueAudit(trx, { at: clock.now(), actor: user!, action: 'stock-created', target: `stock:${row.id}`, before: null, after: created });
+        await recordCatalogueAudit(trx, {
+          at: clock.now(),
+          actor: user!,
+          action: 'stock-created',
+          target: `stock:${row.id}`,
+          before: null,
+          after: created,
+        });
         return created;
       });
       res.status(201).json({ stock });
@@ -34,12 +56,21 @@ export const stocksRoutes: RouteModule = (api, { db, clock }) => {
   );
 
   api.define(
-    { method: 'get', path: '/api/stocks/:id', roles: 'signed-in', params: stockIdParams, summary: 'A stock with its profiles and their versions' },
+    {
+      method: 'get',
+      path: '/api/stocks/:id',
+      roles: 'signed-in',
+      params: stockIdParams,
+      summary: 'A stock with its profiles and their versions',
+    },
     async (_req, res, { params }) => {
       const row = await findStockById(db, params.id);
       if (!row) throw new AppError('stock-not-found', 404, `No stock with id ${params.id}.`);
       const profiles = await listProfilesOfStock(db, row.id);
-      const versions = await listVersionsOfProfiles(db, profiles.map((p) => p.id));
+      const versions = await listVersionsOfProfiles(
+        db,
+        profiles.map((p) => p.id),
+      );
       const detail: StockDetail = {
         stock: toStock(row),
         profiles: profiles.map((p) => ({
