@@ -10,6 +10,8 @@ describe('film base detection', () => {
       const found = detectFilmBase(neg, scanner);
       found.rgb.forEach((v, c) => expect(Math.abs(v / neg.truth.base[c]! - 1)).toBeLessThan(0.01));
       expect(found.confidence).toBeGreaterThan(0.5);
+      const [, y, , h] = found.region;
+      expect(y + h <= 24 || y >= neg.height - 24).toBe(true);
     });
   }
   it('ignores clipped bare light even where it covers most of the border', () => {

@@ -17,7 +17,7 @@ export interface RgbImage {
 export interface FilmBase {
   /** Linear transmitted light of the base per channel, 0..1 of full scale. */
   rgb: Rgb;
-  /** Region sampled (for detection: the bounding rectangle of the blocks used). */
+  /** Region sampled (for detection: the row or column of base blocks holding most of them). */
   region: Region;
   /** 0 (no usable base) … 1 (large, even and clearly the least dense film). */
   confidence: number;
@@ -108,8 +108,16 @@ export function detectFilmBase(image: RgbImage, scanner: ScannerProfile, options
   const top = Math.max(...blocks.map((b) => b.level));
   const chosen = blocks.filter((b) => b.level >= (1 - tolerance) * top);
   const rgb: Rgb = [median(chosen.map((b) => b.rgb[0])), median(chosen.map((b) => b.rgb[1])), median(chosen.map((b) => b.rgb[2]))];
-  const x0 = Math.min(...chosen.map((b) => b.rect[0])), y0 = Math.min(...chosen.map((b) => b.rect[1]));
-  const x1 = Math.max(...chosen.map((b) => b.rect[0] + size)), y1 = Math.max(...chosen.map((b) => b.rect[1] + size));
+  // Report one strip an operator can check: the row or column of blocks holding most base blocks.
+  const count = (key: (b: (typeof chosen)[number]) => number) => {
+    const m = new Map<number, typeof chosen>();
+    for (const b of chosen) m.set(key(b), [...(m.get(key(b)) ?? []), b]);
+    return [...m.values()].reduce((a, b) => (b.length > a.length ? b : a));
+  };
+  const byRow = count((b) => b.rect[1]), byColumn = count((b) => b.rect[0]);
+  const strip = byRow.length >= byColumn.length ? byRow : byColumn;
+  const x0 = Math.min(...strip.map((b) => b.rect[0])), y0 = Math.min(...strip.map((b) => b.rect[1]));
+  const x1 = Math.max(...strip.map((b) => b.rect[0] + size)), y1 = Math.max(...strip.map((b) => b.rect[1] + size));
   // Confidence: enough base blocks (8 or more count as plenty, from memory) and even ones.
   const evenness = 1 - median(chosen.map((b) => b.spread)) / EVENNESS;
   const confidence = Math.max(0, Math.min(1, Math.min(1, chosen.length / 8) * evenness));
