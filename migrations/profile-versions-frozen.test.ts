@@ -54,6 +54,15 @@ describe('profile versions in the database', () => {
     ).rejects.toThrow(/immutable/);
   });
 
+  it('refuse rewriting a published version’s changelog or publisher', async () => {
+    await expect(
+      sql`update profile_versions set changelog = 'rewritten' where version = 1`.execute(db),
+    ).rejects.toThrow(/immutable/);
+    await expect(
+      sql`update profile_versions set published_by = 7 where version = 1`.execute(db),
+    ).rejects.toThrow(/immutable/);
+  });
+
   it('let a draft’s parameters change', async () => {
     await sql`update profile_versions set parameters = '{"a":2}' where version = 2`.execute(db);
     expect(await parametersOf(2)).toBe('{"a":2}');
