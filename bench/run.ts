@@ -13,12 +13,13 @@ import { runPipelined } from '../server/src/inversion-pool/run-pipelined';
 import { BENCH_SETTINGS, OUT_DIR, benchNegative } from './bench-negative';
 import { timeInterleaved } from './interleave';
 
-const { values } = parseArgs({ options: { quick: { type: 'boolean', default: false }, reps: { type: 'string' } } });
+const { values } = parseArgs({ options: { quick: { type: 'boolean', default: false }, reps: { type: 'string' }, 'roll-frames': { type: 'string' } } });
 const quick = values.quick;
 // 6000 × 4000 = 24 MP, a 35 mm frame from a high-resolution scanner; common practice of the trade, from memory.
 const [width, height] = quick ? [1500, 1000] : [6000, 4000];
 const reps = Number(values.reps ?? (quick ? 7 : 5));
-const ROLL = 36; // frames on a 35 mm roll, common practice of the trade
+// 36 frames on a 35 mm roll, common practice of the trade; fewer with --roll-frames for a shorter run.
+const ROLL = Number(values['roll-frames'] ?? 36);
 const IN_FLIGHT = 2;
 
 sharp.cache(false);
@@ -34,11 +35,15 @@ const positive8 = new Uint8Array(await sharp(firstOut).raw().toBuffer());
 
 const cases = {
   ioFloor: async () => {
-    await sharp(file, { limitInputPixels: false }).toColourspace('rgb16').raw({ depth: 'ushort' }).toBuffer();
+    // Same decode options as readNegative, so the floor differs from (b) only by the inversion.
+    await sharp(file, { limitInputPixels: false, failOn: 'error', ignoreIcc: true, sequentialRead: true })
+      .toColourspace('rgb16')
+      .raw({ depth: 'ushort' })
+      .toBuffer();
     await writePositive(positive8, { path: join(OUT_DIR, 'floor.jpg'), width, height, format: 'jpeg' });
   },
   inversion: () => invertNegativeFile(pool, file, firstOut, BENCH_SETTINGS),
-  sharpNegate: () => sharp(file, { limitInputPixels: false }).negate().normalise().jpeg({ quality: 92 }).toFile(join(OUT_DIR, 'negate.jpg')),
+  sharpNegate: () => sharp(file, { limitInputPixels: false, sequentialRead: true }).negate().normalise().jpeg({ quality: 92 }).toFile(join(OUT_DIR, 'negate.jpg')),
 };
 const t = await timeInterleaved(cases, reps);
 
