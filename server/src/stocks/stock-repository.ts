@@ -1,9 +1,20 @@
-import type { CreateStockRequest, FilmProcess, Stock } from '@clearbase/contracts';
-import type { Kysely } from 'kysely';
+import type { CreateStockRequest, FilmProcess, Stock, StockQuery } from '@clearbase/contracts';
+import { sql, type Kysely } from 'kysely';
 import type { Database, StockRow } from '../db/database';
 
-export function listStocks(db: Kysely<Database>): Promise<StockRow[]> {
-  return db.selectFrom('stocks').selectAll().orderBy('name').execute();
+/** The catalogue by name, narrowed by the optional filters. */
+export function listStocks(db: Kysely<Database>, query: StockQuery = {}): Promise<StockRow[]> {
+  let select = db.selectFrom('stocks').selectAll();
+  if (query.process) select = select.where('process', '=', query.process);
+  if (query.masked !== undefined) select = select.where('masked', '=', query.masked ? 1 : 0);
+  if (query.q) {
+    // escape LIKE's wildcards so a search for "50%" means the text
+    const pattern = `%${query.q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    select = select.where(
+      sql<boolean>`lower(name) like ${pattern} escape '\\' or lower(maker) like ${pattern} escape '\\'`,
+    );
+  }
+  return select.orderBy('name').execute();
 }
 
 export function findStockById(db: Kysely<Database>, id: number): Promise<StockRow | undefined> {

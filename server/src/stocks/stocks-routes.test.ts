@@ -67,6 +67,33 @@ describe('stocks', () => {
   });
 });
 
+describe('catalogue filters', () => {
+  it('narrows by process, masking and a search of name or maker, ignoring case', async () => {
+    await manager.post('/api/stocks', {
+      ...tealLine,
+      name: 'Kestrel Colour 160',
+      maker: 'Corvel Film Works',
+      masked: true,
+    });
+    await manager.post('/api/stocks', {
+      ...tealLine,
+      name: 'Mono 50%',
+      maker: 'Corvel Film Works',
+      process: 'black-and-white',
+    });
+    const names = async (query: string) =>
+      (await customer.get(`/api/stocks?${query}`)).body.stocks.map((s: { name: string }) => s.name);
+    expect(await names('masked=true')).toEqual(['Kestrel Colour 160']);
+    expect(await names('masked=false&process=C-41')).toEqual(['Tealine 200']);
+    expect(await names('q=corvel')).toEqual(['Kestrel Colour 160', 'Mono 50%']);
+    expect(await names('q=50%25')).toEqual(['Mono 50%']);
+    expect(await names('q=5_')).toEqual([]);
+    const bad = await customer.get('/api/stocks?masked=maybe');
+    expect(bad.status).toBe(400);
+    expect(bad.body.errors[0].path).toBe('query.masked');
+  });
+});
+
 describe('scanners', () => {
   const rig = {
     name: 'Copy stand one',

@@ -1,4 +1,4 @@
-import { createStockRequestSchema, type StockDetail } from '@clearbase/contracts';
+import { createStockRequestSchema, stockQuerySchema, type StockDetail } from '@clearbase/contracts';
 import { z } from 'zod';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
@@ -16,9 +16,15 @@ const stockIdParams = z.object({ id: z.coerce.number().int().positive('Expected 
 
 export const stocksRoutes: RouteModule = (api, { db, clock }) => {
   api.define(
-    { method: 'get', path: '/api/stocks', roles: 'signed-in', summary: 'The stock catalogue' },
-    async (_req, res) => {
-      res.json({ stocks: (await listStocks(db)).map(toStock) });
+    {
+      method: 'get',
+      path: '/api/stocks',
+      roles: 'signed-in',
+      query: stockQuerySchema,
+      summary: 'The stock catalogue, filtered',
+    },
+    async (_req, res, { query }) => {
+      res.json({ stocks: (await listStocks(db, query)).map(toStock) });
     },
   );
 

@@ -57,3 +57,14 @@ export const createScannerRequestSchema = z.strictObject({
   inputProfile: scannerProfileSchema,
 });
 export type CreateScannerRequest = z.infer<typeof createScannerRequestSchema>;
+
+/** Filters of the stock catalogue; all optional. `q` matches name or maker, ignoring case. */
+export const stockQuerySchema = z.strictObject({
+  q: z.string().trim().max(120).optional(),
+  process: filmProcessSchema.optional(),
+  masked: z
+    .enum(['true', 'false'], 'Expected true or false')
+    .transform((v) => v === 'true')
+    .optional(),
+});
+export type StockQuery = z.infer<typeof stockQuerySchema>;
