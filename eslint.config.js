@@ -4,7 +4,16 @@ import angular from 'angular-eslint';
 
 export default tseslint.config(
   {
-    ignores: ['node_modules/', 'dist/', 'data/', '.angular/', 'e2e/artifacts/', 'bench/out/', '.tmp/', 'coverage/'],
+    ignores: [
+      'node_modules/',
+      'dist/',
+      'data/',
+      '.angular/',
+      'e2e/artifacts/',
+      'bench/out/',
+      '.tmp/',
+      'coverage/',
+    ],
   },
   {
     files: ['**/*.ts'],
@@ -25,7 +34,10 @@ export default tseslint.config(
     processor: angular.processInlineTemplates,
     rules: {
       '@angular-eslint/component-selector': ['error', { type: 'element', prefix: 'cb', style: 'kebab-case' }],
-      '@angular-eslint/directive-selector': ['error', { type: 'attribute', prefix: 'cb', style: 'camelCase' }],
+      '@angular-eslint/directive-selector': [
+        'error',
+        { type: 'attribute', prefix: 'cb', style: 'camelCase' },
+      ],
     },
   },
   {

@@ -13,7 +13,13 @@ import { runPipelined } from '../server/src/inversion-pool/run-pipelined';
 import { BENCH_SETTINGS, OUT_DIR, benchNegative } from './bench-negative';
 import { timeInterleaved } from './interleave';
 
-const { values } = parseArgs({ options: { quick: { type: 'boolean', default: false }, reps: { type: 'string' }, 'roll-frames': { type: 'string' } } });
+const { values } = parseArgs({
+  options: {
+    quick: { type: 'boolean', default: false },
+    reps: { type: 'string' },
+    'roll-frames': { type: 'string' },
+  },
+});
 const quick = values.quick;
 // 6000 × 4000 = 24 MP, a 35 mm frame from a high-resolution scanner; common practice of the trade, from memory.
 const [width, height] = quick ? [1500, 1000] : [6000, 4000];
@@ -26,7 +32,9 @@ sharp.cache(false);
 const file = await benchNegative(width, height);
 const threads = availableParallelism();
 const pool = createInversionPool({ threads });
-process.stdout.write(`negative ${width} × ${height} 16-bit TIFF, ${threads} threads, sharp concurrency ${sharp.concurrency()}, median of ${reps}\n`);
+process.stdout.write(
+  `negative ${width} × ${height} 16-bit TIFF, ${threads} threads, sharp concurrency ${sharp.concurrency()}, median of ${reps}\n`,
+);
 
 // An 8-bit positive of realistic content for the I/O floor's encode (JPEG cost depends on content).
 const firstOut = join(OUT_DIR, 'inverted.jpg');
@@ -43,16 +51,33 @@ const cases = {
     await writePositive(positive8, { path: join(OUT_DIR, 'floor.jpg'), width, height, format: 'jpeg' });
   },
   inversion: () => invertNegativeFile(pool, file, firstOut, BENCH_SETTINGS),
-  sharpNegate: () => sharp(file, { limitInputPixels: false, sequentialRead: true }).negate().normalise().jpeg({ quality: 92 }).toFile(join(OUT_DIR, 'negate.jpg')),
+  sharpNegate: () =>
+    sharp(file, { limitInputPixels: false, sequentialRead: true })
+      .negate()
+      .normalise()
+      .jpeg({ quality: 92 })
+      .toFile(join(OUT_DIR, 'negate.jpg')),
 };
 const t = await timeInterleaved(cases, reps);
 
 const rollFrames = Array.from({ length: ROLL }, (_, i) => i);
 const roll = await timeInterleaved(
   {
-    pipelined: () => runPipelined(rollFrames, IN_FLIGHT, async (i) => void (await invertNegativeFile(pool, file, join(OUT_DIR, `roll-${i % IN_FLIGHT}.jpg`), BENCH_SETTINGS))),
+    pipelined: () =>
+      runPipelined(
+        rollFrames,
+        IN_FLIGHT,
+        async (i) =>
+          void (await invertNegativeFile(
+            pool,
+            file,
+            join(OUT_DIR, `roll-${i % IN_FLIGHT}.jpg`),
+            BENCH_SETTINGS,
+          )),
+      ),
     oneByOne: async () => {
-      for (const i of rollFrames) await invertNegativeFile(pool, file, join(OUT_DIR, `single.jpg`), BENCH_SETTINGS);
+      for (const _frame of rollFrames)
+        await invertNegativeFile(pool, file, join(OUT_DIR, `single.jpg`), BENCH_SETTINGS);
     },
   },
   quick ? 3 : 1,
@@ -64,7 +89,13 @@ const benchPeakRssMB = Math.round(process.resourceUsage().maxRSS / 1024);
 await pool.close();
 
 const tsx = createRequire(import.meta.url).resolve('tsx');
-const child = await promisify(execFile)(process.execPath, ['--import', tsx, new URL('./invert-once.ts', import.meta.url).pathname, file, join(OUT_DIR, 'rss.jpg')]);
+const child = await promisify(execFile)(process.execPath, [
+  '--import',
+  tsx,
+  new URL('./invert-once.ts', import.meta.url).pathname,
+  file,
+  join(OUT_DIR, 'rss.jpg'),
+]);
 const { peakRssMB } = JSON.parse(child.stdout) as { peakRssMB: number };
 // Decode-only check that the file really is 16-bit, so the floor is honest.
 const { bitDepth } = await readNegative(file, { maxPixels: width * height });
@@ -72,14 +103,27 @@ const { bitDepth } = await readNegative(file, { maxPixels: width * height });
 const ms = (v: number) => `${v.toFixed(0)} ms`;
 const rows: [string, string, string][] = [
   ['(a) I/O floor: decode 16-bit + encode 8-bit JPEG', ms(t['ioFloor']!), ''],
-  ['(b) full inversion via the pool to JPEG', ms(t['inversion']!), `b/a = ${(t['inversion']! / t['ioFloor']!).toFixed(2)} (goal ≤ 1.2)`],
-  ['(c) sharp negate().normalise() to JPEG', ms(t['sharpNegate']!), `b/c = ${(t['inversion']! / t['sharpNegate']!).toFixed(2)}`],
+  [
+    '(b) full inversion via the pool to JPEG',
+    ms(t['inversion']!),
+    `b/a = ${(t['inversion']! / t['ioFloor']!).toFixed(2)} (goal ≤ 1.2)`,
+  ],
+  [
+    '(c) sharp negate().normalise() to JPEG',
+    ms(t['sharpNegate']!),
+    `b/c = ${(t['inversion']! / t['sharpNegate']!).toFixed(2)}`,
+  ],
   ['peak RSS of (b), own process', `${peakRssMB} MB`, '(goal ≤ 700 MB)'],
-  [`${ROLL}-frame roll, ${IN_FLIGHT} frames in flight`, ms(roll['pipelined']!), `roll/singles = ${(roll['pipelined']! / roll['oneByOne']!).toFixed(2)} (goal ≤ 0.6)`],
+  [
+    `${ROLL}-frame roll, ${IN_FLIGHT} frames in flight`,
+    ms(roll['pipelined']!),
+    `roll/singles = ${(roll['pipelined']! / roll['oneByOne']!).toFixed(2)} (goal ≤ 0.6)`,
+  ],
   [`${ROLL} single frames one after another`, ms(roll['oneByOne']!), ''],
   ['peak RSS of this whole run (all cases and rolls)', `${benchPeakRssMB} MB`, ''],
 ];
-for (const [name, value, note] of rows) process.stdout.write(`${name.padEnd(52)} ${value.padStart(10)}  ${note}\n`);
+for (const [name, value, note] of rows)
+  process.stdout.write(`${name.padEnd(52)} ${value.padStart(10)}  ${note}\n`);
 process.stdout.write(
   `${JSON.stringify({ width, height, bitDepth, threads, reps, ms: t, roll, ratios: { bOverA: t['inversion']! / t['ioFloor']!, bOverC: t['inversion']! / t['sharpNegate']!, rollOverSingles: roll['pipelined']! / roll['oneByOne']! }, peakRssMB, benchPeakRssMB })}\n`,
 );

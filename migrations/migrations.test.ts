@@ -21,7 +21,9 @@ describe('migrations', () => {
     const db = openDatabase(join(dir, 'up-down.sqlite'));
     const applied = await migrateToLatest(db);
     expect(applied.length).toBeGreaterThanOrEqual(4);
-    expect(await tableNames(db)).toEqual(expect.arrayContaining(['audit_log', 'sessions', 'settings', 'users']));
+    expect(await tableNames(db)).toEqual(
+      expect.arrayContaining(['audit_log', 'sessions', 'settings', 'users']),
+    );
 
     expect(await migrateToLatest(db)).toEqual([]);
 

@@ -53,7 +53,8 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
   const url = `http://127.0.0.1:${port}`;
   const deadline = Date.now() + 60_000;
   for (;;) {
-    if (child.exitCode !== null) throw new Error(`The server exited (${child.exitCode}) while starting:\n${log}`);
+    if (child.exitCode !== null)
+      throw new Error(`The server exited (${child.exitCode}) while starting:\n${log}`);
     try {
       const res = await fetch(`${url}/api/health`);
       if (res.ok) break;

@@ -15,7 +15,9 @@ describe('the API edge', () => {
     const res = await request(t.app).get('/api/health');
     expect(res.status).toBe(200);
     expect(res.body).toEqual({ ok: true });
-    const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('XSRF-TOKEN='));
+    const cookie = ([] as string[])
+      .concat(res.headers['set-cookie'] ?? [])
+      .find((c) => c.startsWith('XSRF-TOKEN='));
     expect(cookie).toMatch(/SameSite=Lax/i);
     expect(cookie).not.toMatch(/HttpOnly/i);
   });
@@ -30,7 +32,10 @@ describe('the API edge', () => {
 
   it('refuses a POST whose header does not match the cookie', async () => {
     const c = await client(t.app);
-    const res = await c.agent.post('/api/auth/login').set('X-XSRF-TOKEN', c.token + 'x').send({});
+    const res = await c.agent
+      .post('/api/auth/login')
+      .set('X-XSRF-TOKEN', c.token + 'x')
+      .send({});
     expect(res.status).toBe(403);
   });
 
@@ -79,7 +84,12 @@ describe('the API edge', () => {
     const res = await request(t.app).get('/api/no-such-thing');
     expect(res.status).toBe(404);
     expect(res.headers['content-type']).toMatch(problemType);
-    expect(res.body).toMatchObject({ type: 'about:blank', title: 'Not Found', status: 404, instance: '/api/no-such-thing' });
+    expect(res.body).toMatchObject({
+      type: 'about:blank',
+      title: 'Not Found',
+      status: 404,
+      instance: '/api/no-such-thing',
+    });
   });
 
   it('sends a content security policy that allows only this origin', async () => {
@@ -88,7 +98,10 @@ describe('the API edge', () => {
     expect(csp).toContain("default-src 'self'");
     expect(csp).toContain("script-src 'self'");
     // the hash of exactly this.media='all', computed with node:crypto SHA-256 as CSP Level 3 defines hash-source
-    const hash = (await import('node:crypto')).createHash('sha256').update("this.media='all'").digest('base64');
+    const hash = (await import('node:crypto'))
+      .createHash('sha256')
+      .update("this.media='all'")
+      .digest('base64');
     expect(csp).toContain(`'sha256-${hash}'`);
     expect(csp).not.toMatch(/script-src[^;]*'unsafe-inline'/);
     expect(csp).toContain("frame-ancestors 'none'");
@@ -97,14 +110,17 @@ describe('the API edge', () => {
 
   it('never sends internals when a handler fails', async () => {
     const { createTestApp: make } = await import('./test-support/test-app');
-    const broken = await make({}, {
-      routeModules: [
-        (api) =>
-          api.define({ method: 'get', path: '/api/broken', roles: 'public' }, () => {
-            throw new Error('secret table name users_internal');
-          }),
-      ],
-    });
+    const broken = await make(
+      {},
+      {
+        routeModules: [
+          (api) =>
+            api.define({ method: 'get', path: '/api/broken', roles: 'public' }, () => {
+              throw new Error('secret table name users_internal');
+            }),
+        ],
+      },
+    );
     const res = await request(broken.app).get('/api/broken');
     expect(res.status).toBe(500);
     expect(res.headers['content-type']).toMatch(problemType);

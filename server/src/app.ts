@@ -96,7 +96,13 @@ export function createApp(deps: AppDeps): Express {
       resave: false,
       saveUninitialized: false,
       rolling: true,
-      cookie: { httpOnly: true, sameSite: 'lax', secure: config.secureCookies, maxAge: config.sessionMaxAgeMs, path: '/' },
+      cookie: {
+        httpOnly: true,
+        sameSite: 'lax',
+        secure: config.secureCookies,
+        maxAge: config.sessionMaxAgeMs,
+        path: '/',
+      },
     }),
   );
   const passport = createPassport(db);

@@ -44,7 +44,8 @@ const services: BackgroundService[] = [
     name: 'session pruning',
     start() {
       const store = new KyselySessionStore(db, systemClock, config.sessionMaxAgeMs);
-      const prune = () => store.prune().catch((err: unknown) => logger.warn({ err }, 'session pruning failed'));
+      const prune = () =>
+        store.prune().catch((err: unknown) => logger.warn({ err }, 'session pruning failed'));
       void prune();
       pruneTimer = setInterval(prune, sessionPruneIntervalMs);
       pruneTimer.unref();
@@ -69,18 +70,28 @@ await new Promise<void>((resolve, reject) => {
   server.once('error', reject);
 }).catch((err: NodeJS.ErrnoException) => {
   console.error(
-    err.code === 'EADDRINUSE' ? `PORT ${config.port} on ${config.host} is already in use; set PORT to another.` : err.message,
+    err.code === 'EADDRINUSE'
+      ? `PORT ${config.port} on ${config.host} is already in use; set PORT to another.`
+      : err.message,
   );
   process.exit(1);
 });
 
-const lines = [`Clearbase is listening on http://${config.host}:${config.port}` + (config.publicUrl.startsWith(`http://${config.host}:`) ? '' : ` (public address ${config.publicUrl})`)];
+const lines = [
+  `Clearbase is listening on http://${config.host}:${config.port}` +
+    (config.publicUrl.startsWith(`http://${config.host}:`) ? '' : ` (public address ${config.publicUrl})`),
+];
 lines.push(`Data folder: ${config.dataDir}`);
 if (seeded) {
   lines.push(`Demo lab seeded. Sign in with password "${demoPassword}" as:`);
   for (const u of demoUsers) lines.push(`  ${u.email.padEnd(30)} ${u.role}`);
 } else if (config.seedDemo) {
-  lines.push(`Demo accounts (if this data folder was seeded): ${demoUsers.slice(0, 4).map((u) => u.email).join(', ')} / ${demoPassword}`);
+  lines.push(
+    `Demo accounts (if this data folder was seeded): ${demoUsers
+      .slice(0, 4)
+      .map((u) => u.email)
+      .join(', ')} / ${demoPassword}`,
+  );
 }
 console.log(lines.join('\n'));
 

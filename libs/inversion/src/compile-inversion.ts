@@ -1,4 +1,10 @@
-import { DENSITY_RANGE, RELATIVE_LOG_EXPOSURE_RANGE, LUMINANCE_WEIGHTS, resolveInversion, type InversionParams } from './invert-pixel';
+import {
+  DENSITY_RANGE,
+  RELATIVE_LOG_EXPOSURE_RANGE,
+  LUMINANCE_WEIGHTS,
+  resolveInversion,
+  type InversionParams,
+} from './invert-pixel';
 import { densityAboveBase } from './density';
 import { linearise, FULL_SCALE_16 } from './scanner-input';
 
@@ -46,7 +52,10 @@ export function compileInversion(params: InversionParams): InversionPlan {
   const densityLut = new Float32Array(3 * 65536);
   for (let c = 0; c < 3; c++) {
     for (let v = 0; v < 65536; v++) {
-      const d = densityAboveBase(linearise(v / FULL_SCALE_16, params.scanner, c as 0 | 1 | 2), params.base[c]!);
+      const d = densityAboveBase(
+        linearise(v / FULL_SCALE_16, params.scanner, c as 0 | 1 | 2),
+        params.base[c]!,
+      );
       densityLut[c * 65536 + v] = d < dMin ? dMin : d > dMax ? dMax : d;
     }
   }
@@ -61,7 +70,8 @@ export function compileInversion(params: InversionParams): InversionPlan {
     }
   }
   const outputLut = new Float32Array(OUTPUT_LUT_SIZE);
-  for (let i = 0; i < OUTPUT_LUT_SIZE; i++) outputLut[i] = resolved.encode(rMin + ((rMax - rMin) * i) / (OUTPUT_LUT_SIZE - 1));
+  for (let i = 0; i < OUTPUT_LUT_SIZE; i++)
+    outputLut[i] = resolved.encode(rMin + ((rMax - rMin) * i) / (OUTPUT_LUT_SIZE - 1));
   const plan: InversionPlan = {
     outputBits: params.outputBits,
     densityLut,
@@ -83,9 +93,13 @@ export function compileInversion(params: InversionParams): InversionPlan {
     const direct = new Uint16Array(3 * 65536);
     const e = new Float64Array(3);
     for (let v = 0; v < 65536; v++) {
-      e[0] = densityLut[v]!; e[1] = densityLut[65536 + v]!; e[2] = densityLut[131072 + v]!;
+      e[0] = densityLut[v]!;
+      e[1] = densityLut[65536 + v]!;
+      e[2] = densityLut[131072 + v]!;
       pixelFromDensities(plan, e);
-      direct[v] = e[0]!; direct[65536 + v] = e[1]!; direct[131072 + v] = e[2]!;
+      direct[v] = e[0]!;
+      direct[65536 + v] = e[1]!;
+      direct[131072 + v] = e[2]!;
     }
     plan.directLut = direct;
   }
@@ -98,15 +112,28 @@ export function compileInversion(params: InversionParams): InversionPlan {
  * Throws a RangeError, before any work, for a range outside the input or an output of the wrong kind.
  * @example applyInversion(plan, input, output, row * width, width) // one row
  */
-export function applyInversion(plan: InversionPlan, input: Uint16Array, output: Uint8Array | Uint16Array, firstPixel: number, pixelCount: number): void {
+export function applyInversion(
+  plan: InversionPlan,
+  input: Uint16Array,
+  output: Uint8Array | Uint16Array,
+  firstPixel: number,
+  pixelCount: number,
+): void {
   const pixels = Math.floor(input.length / 3);
   if (!Number.isInteger(firstPixel) || firstPixel < 0 || firstPixel > pixels)
-    throw new RangeError(`Expected integer between 0 and ${pixels} for firstPixel but received ${firstPixel} of type ${typeof firstPixel}`);
+    throw new RangeError(
+      `Expected integer between 0 and ${pixels} for firstPixel but received ${firstPixel} of type ${typeof firstPixel}`,
+    );
   if (!Number.isInteger(pixelCount) || pixelCount < 0 || firstPixel + pixelCount > pixels)
-    throw new RangeError(`Expected integer between 0 and ${pixels - firstPixel} for pixelCount but received ${pixelCount} of type ${typeof pixelCount}`);
-  if (output.length < input.length) throw new RangeError(`Expected output of at least ${input.length} values but received ${output.length}`);
+    throw new RangeError(
+      `Expected integer between 0 and ${pixels - firstPixel} for pixelCount but received ${pixelCount} of type ${typeof pixelCount}`,
+    );
+  if (output.length < input.length)
+    throw new RangeError(`Expected output of at least ${input.length} values but received ${output.length}`);
   if ((plan.outputBits === 8) !== output instanceof Uint8Array)
-    throw new RangeError(`Expected ${plan.outputBits === 8 ? 'Uint8Array' : 'Uint16Array'} for output of a ${plan.outputBits}-bit plan but received ${output.constructor.name}`);
+    throw new RangeError(
+      `Expected ${plan.outputBits === 8 ? 'Uint8Array' : 'Uint16Array'} for output of a ${plan.outputBits}-bit plan but received ${output.constructor.name}`,
+    );
   const end = (firstPixel + pixelCount) * 3;
   const direct = plan.directLut;
   if (direct) {
@@ -117,8 +144,19 @@ export function applyInversion(plan: InversionPlan, input: Uint16Array, output: 
     }
     return;
   }
-  const { densityLut: dl, crosstalk: m, exposureLut: el, exposureLutSize: en, outputLut: ol, outputLutSize: on, saturation: s } = plan;
-  const dMin = plan.densityMin, dMax = plan.densityMax, rMin = plan.relativeMin, rMax = plan.relativeMax;
+  const {
+    densityLut: dl,
+    crosstalk: m,
+    exposureLut: el,
+    exposureLutSize: en,
+    outputLut: ol,
+    outputLutSize: on,
+    saturation: s,
+  } = plan;
+  const dMin = plan.densityMin,
+    dMax = plan.densityMax,
+    rMin = plan.relativeMin,
+    rMax = plan.relativeMax;
   const dScale = (en - 1) / (dMax - dMin);
   const rScale = (on - 1) / (rMax - rMin);
   const [wr, wg, wb] = plan.weights;
@@ -147,7 +185,9 @@ export function applyInversion(plan: InversionPlan, input: Uint16Array, output: 
       r = r2;
       g = g2;
     }
-    let er = expo(r, 0), eg = expo(g, en), eb = expo(b, 2 * en);
+    let er = expo(r, 0),
+      eg = expo(g, en),
+      eb = expo(b, 2 * en);
     if (s !== 1) {
       const mean = wr * er + wg * eg + wb * eb;
       er = mean + s * (er - mean);
@@ -163,7 +203,10 @@ export function applyInversion(plan: InversionPlan, input: Uint16Array, output: 
 /** Densities after crosstalk (in `e`) → rounded output codes (in `e`): exposure tables, saturation, output table. */
 function pixelFromDensities(plan: InversionPlan, e: Float64Array): void {
   const { exposureLut: el, exposureLutSize: en, outputLut: ol, outputLutSize: on, saturation: s } = plan;
-  const dMin = plan.densityMin, dMax = plan.densityMax, rMin = plan.relativeMin, rMax = plan.relativeMax;
+  const dMin = plan.densityMin,
+    dMax = plan.densityMax,
+    rMin = plan.relativeMin,
+    rMax = plan.relativeMax;
   const dScale = (en - 1) / (dMax - dMin);
   const rScale = (on - 1) / (rMax - rMin);
   for (let c = 0; c < 3; c++) {

@@ -1,9 +1,19 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { balanceToLogExposure, createMonotoneCurve, densityAboveBase, densityFromTransmittance, pchipSlopes, pointsToLogExposure, stopsToLogExposure, transmittanceFromDensity } from './index';
+import {
+  balanceToLogExposure,
+  createMonotoneCurve,
+  densityAboveBase,
+  densityFromTransmittance,
+  pchipSlopes,
+  pointsToLogExposure,
+  stopsToLogExposure,
+  transmittanceFromDensity,
+} from './index';
 
 describe('density (ISO 5-1 notation, ISO 5-2 geometry; /work/shared/reference/facts.md)', () => {
-  it('gives density 1.00 for 10 % transmittance', () => expect(densityFromTransmittance(0.1)).toBeCloseTo(1, 12));
+  it('gives density 1.00 for 10 % transmittance', () =>
+    expect(densityFromTransmittance(0.1)).toBeCloseTo(1, 12));
   it('measures density above the base, whatever the base colour', () => {
     expect(densityAboveBase(0.08, 0.8)).toBeCloseTo(1, 12);
     expect(transmittanceFromDensity(densityFromTransmittance(0.37))).toBeCloseTo(0.37, 12);
@@ -13,17 +23,24 @@ describe('density (ISO 5-1 notation, ISO 5-2 geometry; /work/shared/reference/fa
 describe('printer points and stops', () => {
   it('moves log exposure by 0.30 for 12 printer points (common practice of the trade, from memory)', () =>
     expect(pointsToLogExposure(12)).toBeCloseTo(0.3, 12));
-  it('moves log exposure by log10 2 for one stop (facts.md)', () => expect(stopsToLogExposure(1)).toBeCloseTo(0.30103, 5));
+  it('moves log exposure by log10 2 for one stop (facts.md)', () =>
+    expect(stopsToLogExposure(1)).toBeCloseTo(0.30103, 5));
   it('adds exposure to the channel named by the positive colour: +red, +green, +blue', () =>
-    expect(balanceToLogExposure({ cyanRed: 4, magentaGreen: -8, yellowBlue: 12 })).toEqual([0.1, -0.2, 0.30000000000000004]));
+    expect(balanceToLogExposure({ cyanRed: 4, magentaGreen: -8, yellowBlue: 12 })).toEqual([
+      0.1, -0.2, 0.30000000000000004,
+    ]));
 });
 
 describe('monotone cubic (Fritsch & Carlson 1980; SciPy PchipInterpolator check values in facts.md)', () => {
-  const xs = [0, 1, 2, 3, 4], ys = [0, 1, 1, 2, 5];
-  it('has knot slopes 1.5, 0, 0, 1.5, 4', () => pchipSlopes(xs, ys).forEach((d, i) => expect(d).toBeCloseTo([1.5, 0, 0, 1.5, 4][i]!, 12)));
+  const xs = [0, 1, 2, 3, 4],
+    ys = [0, 1, 1, 2, 5];
+  it('has knot slopes 1.5, 0, 0, 1.5, 4', () =>
+    pchipSlopes(xs, ys).forEach((d, i) => expect(d).toBeCloseTo([1.5, 0, 0, 1.5, 4][i]!, 12)));
   it('evaluates 0.6875, 1, 1.3125, 3.1875 at the half points', () => {
     const c = createMonotoneCurve(xs, ys);
-    [0.5, 1.5, 2.5, 3.5].forEach((x, i) => expect(c.evaluate(x)).toBeCloseTo([0.6875, 1, 1.3125, 3.1875][i]!, 12));
+    [0.5, 1.5, 2.5, 3.5].forEach((x, i) =>
+      expect(c.evaluate(x)).toBeCloseTo([0.6875, 1, 1.3125, 3.1875][i]!, 12),
+    );
   });
   it('extrapolates with the end slope but never flatter than the floor', () => {
     const c = createMonotoneCurve([0, 1, 2], [0, 0.01, 1], 0.2);
@@ -33,11 +50,21 @@ describe('monotone cubic (Fritsch & Carlson 1980; SciPy PchipInterpolator check 
   it('round-trips log exposure through any increasing curve (property)', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.tuple(fc.double({ min: 0.05, max: 1, noNaN: true }), fc.double({ min: 0.01, max: 1.5, noNaN: true })), { minLength: 2, maxLength: 12 }),
+        fc.array(
+          fc.tuple(
+            fc.double({ min: 0.05, max: 1, noNaN: true }),
+            fc.double({ min: 0.01, max: 1.5, noNaN: true }),
+          ),
+          { minLength: 2, maxLength: 12 },
+        ),
         fc.double({ min: -3, max: 12, noNaN: true }),
         (steps, x) => {
-          const px = [0], py = [0];
-          for (const [dx, dy] of steps) { px.push(px.at(-1)! + dx); py.push(py.at(-1)! + dy); }
+          const px = [0],
+            py = [0];
+          for (const [dx, dy] of steps) {
+            px.push(px.at(-1)! + dx);
+            py.push(py.at(-1)! + dy);
+          }
           const c = createMonotoneCurve(px, py);
           expect(c.inverse(c.evaluate(x))).toBeCloseTo(x, 7);
         },

@@ -1,12 +1,37 @@
 import { describe, expect, it } from 'vitest';
-import { baseFromRegion, detectFilmBase, exposeNegative, LINEAR_SCANNER, outdoorScene, POLYCLEAR_200, rollBase, TINTLINE_400, AMBERMASK_100, type Rgb } from './index';
+import {
+  baseFromRegion,
+  detectFilmBase,
+  exposeNegative,
+  LINEAR_SCANNER,
+  outdoorScene,
+  POLYCLEAR_200,
+  rollBase,
+  TINTLINE_400,
+  AMBERMASK_100,
+  type Rgb,
+} from './index';
 
-const scanner = { name: 'Test scanner', encoding: 'gamma' as const, gamma: 2.2, blackLevel: [0.002, 0.002, 0.003] as Rgb, gains: [1.02, 1, 1.05] as Rgb };
+const scanner = {
+  name: 'Test scanner',
+  encoding: 'gamma' as const,
+  gamma: 2.2,
+  blackLevel: [0.002, 0.002, 0.003] as Rgb,
+  gains: [1.02, 1, 1.05] as Rgb,
+};
 
 describe('film base detection', () => {
   for (const stock of [POLYCLEAR_200, TINTLINE_400, AMBERMASK_100]) {
     it(`finds the base of ${stock.base} film within 1 % per channel despite sprocket holes, dust and grain`, () => {
-      const neg = exposeNegative(outdoorScene(320, 200), { stock, scanner, rebate: 24, sprocketHoles: true, dust: 60, grain: 0.01, seed: 7 });
+      const neg = exposeNegative(outdoorScene(320, 200), {
+        stock,
+        scanner,
+        rebate: 24,
+        sprocketHoles: true,
+        dust: 60,
+        grain: 0.01,
+        seed: 7,
+      });
       const found = detectFilmBase(neg, scanner);
       found.rgb.forEach((v, c) => expect(Math.abs(v / neg.truth.base[c]! - 1)).toBeLessThan(0.01));
       expect(found.confidence).toBeGreaterThan(0.5);
@@ -15,9 +40,15 @@ describe('film base detection', () => {
     });
   }
   it('ignores clipped bare light even where it covers most of the border', () => {
-    const neg = exposeNegative(outdoorScene(160, 100), { stock: POLYCLEAR_200, scanner: LINEAR_SCANNER, rebate: 12, sprocketHoles: true });
+    const neg = exposeNegative(outdoorScene(160, 100), {
+      stock: POLYCLEAR_200,
+      scanner: LINEAR_SCANNER,
+      rebate: 12,
+      sprocketHoles: true,
+    });
     // Light past the film edge: the last 20 columns read full scale.
-    for (let y = 0; y < neg.height; y++) neg.data.fill(65535, (y * neg.width + 140) * 3, (y * neg.width + 160) * 3);
+    for (let y = 0; y < neg.height; y++)
+      neg.data.fill(65535, (y * neg.width + 140) * 3, (y * neg.width + 160) * 3);
     const found = detectFilmBase(neg, LINEAR_SCANNER);
     found.rgb.forEach((v, c) => expect(Math.abs(v / neg.truth.base[c]! - 1)).toBeLessThan(0.01));
     expect(found.region[0] + found.region[2]).toBeLessThanOrEqual(140);
@@ -27,13 +58,23 @@ describe('film base detection', () => {
     expect(detectFilmBase(bare, LINEAR_SCANNER).confidence).toBe(0);
   });
   it('samples an operator rectangle, and refuses one outside the image', () => {
-    const neg = exposeNegative(outdoorScene(160, 100), { stock: TINTLINE_400, scanner, rebate: 16, sprocketHoles: true, dust: 10 });
+    const neg = exposeNegative(outdoorScene(160, 100), {
+      stock: TINTLINE_400,
+      scanner,
+      rebate: 16,
+      sprocketHoles: true,
+      dust: 10,
+    });
     const drawn = baseFromRegion(neg, scanner, [0, 0, 160, 16]);
     drawn.rgb.forEach((v, c) => expect(Math.abs(v / neg.truth.base[c]! - 1)).toBeLessThan(0.01));
     expect(baseFromRegion(neg, scanner, [150, 0, 40, 10]).confidence).toBe(0);
   });
   it('takes the roll base as the per-channel median of usable frames', () => {
-    const f = (r: number, g: number, b: number, confidence = 0.9) => ({ rgb: [r, g, b] as Rgb, region: [0, 0, 1, 1] as [number, number, number, number], confidence });
+    const f = (r: number, g: number, b: number, confidence = 0.9) => ({
+      rgb: [r, g, b] as Rgb,
+      region: [0, 0, 1, 1] as [number, number, number, number],
+      confidence,
+    });
     const roll = rollBase([f(0.8, 0.7, 0.6), f(0.82, 0.69, 0.61), f(0.1, 0.1, 0.1, 0), f(0.81, 0.75, 0.59)]);
     expect(roll.rgb).toEqual([0.81, 0.7, 0.6]);
     expect(roll.confidence).toBeCloseTo(0.9, 12);

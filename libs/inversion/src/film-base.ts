@@ -48,14 +48,21 @@ function median(values: number[]): number {
 }
 
 /** Per-channel medians (linear light) of the unclipped pixels of a rectangle; dark specks left out. */
-function sampleRect(image: RgbImage, scanner: ScannerProfile, rect: Region, clip: number): { rgb: Rgb; used: number; spread: number } | null {
+function sampleRect(
+  image: RgbImage,
+  scanner: ScannerProfile,
+  rect: Region,
+  clip: number,
+): { rgb: Rgb; used: number; spread: number } | null {
   const [x0, y0, w, h] = rect;
   const ch: [number[], number[], number[]] = [[], [], []];
   const sums: number[] = [];
   for (let y = y0; y < y0 + h; y++) {
     for (let x = x0; x < x0 + w; x++) {
       const i = (y * image.width + x) * 3;
-      const r = image.data[i]!, g = image.data[i + 1]!, b = image.data[i + 2]!;
+      const r = image.data[i]!,
+        g = image.data[i + 1]!,
+        b = image.data[i + 2]!;
       if (r >= clip || g >= clip || b >= clip) continue;
       sums.push(r + g + b);
       ch[0].push(linearise(r / FULL_SCALE_16, scanner, 0));
@@ -69,7 +76,11 @@ function sampleRect(image: RgbImage, scanner: ScannerProfile, rect: Region, clip
   const pick = (a: number[]) => median(a.filter((_, i) => keep[i]));
   const kept = sums.filter((_, i) => keep[i]);
   const mad = median(kept.map((s) => Math.abs(s - mSum)));
-  return { rgb: [pick(ch[0]), pick(ch[1]), pick(ch[2])], used: kept.length, spread: mSum > 0 ? mad / mSum : 1 };
+  return {
+    rgb: [pick(ch[0]), pick(ch[1]), pick(ch[2])],
+    used: kept.length,
+    spread: mSum > 0 ? mad / mSum : 1,
+  };
 }
 
 /**
@@ -77,9 +88,15 @@ function sampleRect(image: RgbImage, scanner: ScannerProfile, rect: Region, clip
  * Confidence 0 when the rectangle is outside the image or holds no film.
  * @example baseFromRegion(image, LINEAR_SCANNER, [0, 0, 200, 40]).rgb // e.g. [0.81, 0.79, 0.74]
  */
-export function baseFromRegion(image: RgbImage, scanner: ScannerProfile, rect: Region, options: DetectFilmBaseOptions = {}): FilmBase {
+export function baseFromRegion(
+  image: RgbImage,
+  scanner: ScannerProfile,
+  rect: Region,
+  options: DetectFilmBaseOptions = {},
+): FilmBase {
   const [x, y, w, h] = rect.map(Math.round) as Region;
-  if (x < 0 || y < 0 || w < 1 || h < 1 || x + w > image.width || y + h > image.height) return { rgb: [0, 0, 0], region: rect, confidence: 0 };
+  if (x < 0 || y < 0 || w < 1 || h < 1 || x + w > image.width || y + h > image.height)
+    return { rgb: [0, 0, 0], region: rect, confidence: 0 };
   const clip = options.clipCount ?? DEFAULT_CLIP_FRACTION * FULL_SCALE_16;
   const s = sampleRect(image, scanner, [x, y, w, h], clip);
   if (!s) return { rgb: [0, 0, 0], region: [x, y, w, h], confidence: 0 };
@@ -92,7 +109,11 @@ export function baseFromRegion(image: RgbImage, scanner: ScannerProfile, rect: R
  * median of the least dense ones. Confidence falls with few base blocks or uneven ones; 0 = flag for QC.
  * @example detectFilmBase(negative, LINEAR_SCANNER) // { rgb: [0.81, 0.79, 0.74], region: [0, 0, 3000, 120], confidence: 0.9 }
  */
-export function detectFilmBase(image: RgbImage, scanner: ScannerProfile, options: DetectFilmBaseOptions = {}): FilmBase {
+export function detectFilmBase(
+  image: RgbImage,
+  scanner: ScannerProfile,
+  options: DetectFilmBaseOptions = {},
+): FilmBase {
   const clip = options.clipCount ?? DEFAULT_CLIP_FRACTION * FULL_SCALE_16;
   const size = options.blockSize ?? Math.max(4, Math.floor(Math.min(image.width, image.height) / 40));
   const tolerance = options.tolerance ?? 0.02;
@@ -107,17 +128,24 @@ export function detectFilmBase(image: RgbImage, scanner: ScannerProfile, options
   if (!blocks.length) return { rgb: [0, 0, 0], region: [0, 0, 0, 0], confidence: 0 };
   const top = Math.max(...blocks.map((b) => b.level));
   const chosen = blocks.filter((b) => b.level >= (1 - tolerance) * top);
-  const rgb: Rgb = [median(chosen.map((b) => b.rgb[0])), median(chosen.map((b) => b.rgb[1])), median(chosen.map((b) => b.rgb[2]))];
+  const rgb: Rgb = [
+    median(chosen.map((b) => b.rgb[0])),
+    median(chosen.map((b) => b.rgb[1])),
+    median(chosen.map((b) => b.rgb[2])),
+  ];
   // Report one strip an operator can check: the row or column of blocks holding most base blocks.
   const count = (key: (b: (typeof chosen)[number]) => number) => {
     const m = new Map<number, typeof chosen>();
     for (const b of chosen) m.set(key(b), [...(m.get(key(b)) ?? []), b]);
     return [...m.values()].reduce((a, b) => (b.length > a.length ? b : a));
   };
-  const byRow = count((b) => b.rect[1]), byColumn = count((b) => b.rect[0]);
+  const byRow = count((b) => b.rect[1]),
+    byColumn = count((b) => b.rect[0]);
   const strip = byRow.length >= byColumn.length ? byRow : byColumn;
-  const x0 = Math.min(...strip.map((b) => b.rect[0])), y0 = Math.min(...strip.map((b) => b.rect[1]));
-  const x1 = Math.max(...strip.map((b) => b.rect[0] + size)), y1 = Math.max(...strip.map((b) => b.rect[1] + size));
+  const x0 = Math.min(...strip.map((b) => b.rect[0])),
+    y0 = Math.min(...strip.map((b) => b.rect[1]));
+  const x1 = Math.max(...strip.map((b) => b.rect[0] + size)),
+    y1 = Math.max(...strip.map((b) => b.rect[1] + size));
   // Confidence: enough base blocks (8 or more count as plenty, from memory) and even ones.
   const evenness = 1 - median(chosen.map((b) => b.spread)) / EVENNESS;
   const confidence = Math.max(0, Math.min(1, Math.min(1, chosen.length / 8) * evenness));
@@ -133,7 +161,11 @@ export function rollBase(bases: FilmBase[]): FilmBase {
   if (!usable.length) return { rgb: [0, 0, 0], region: [0, 0, 0, 0], confidence: 0 };
   const best = usable.reduce((a, b) => (b.confidence > a.confidence ? b : a));
   return {
-    rgb: [median(usable.map((b) => b.rgb[0])), median(usable.map((b) => b.rgb[1])), median(usable.map((b) => b.rgb[2]))],
+    rgb: [
+      median(usable.map((b) => b.rgb[0])),
+      median(usable.map((b) => b.rgb[1])),
+      median(usable.map((b) => b.rgb[2])),
+    ],
     region: best.region,
     confidence: median(usable.map((b) => b.confidence)),
   };

@@ -1,7 +1,15 @@
 import { validateProfileDocument } from '@clearbase/contracts';
 import { describe, expect, it } from 'vitest';
 import {
-  DEMO_STOCKS, exposeNegative, filmDensity, greySteps, LINEAR_SCANNER, POLYCLEAR_200, profileForStock, relativeLogExposure, resolveInversion,
+  DEMO_STOCKS,
+  exposeNegative,
+  filmDensity,
+  greySteps,
+  LINEAR_SCANNER,
+  POLYCLEAR_200,
+  profileForStock,
+  relativeLogExposure,
+  resolveInversion,
   type InversionParams,
 } from './index';
 
@@ -14,7 +22,12 @@ describe('forward film model', () => {
     expect(slope).toBeCloseTo(POLYCLEAR_200.gamma[1], 2);
   });
   it('punches clipped sprocket holes into the rebate and leaves the rebate at base + fog', () => {
-    const neg = exposeNegative(greySteps(4, 0.05, 0.8, 40), { stock: POLYCLEAR_200, scanner: LINEAR_SCANNER, rebate: 12, sprocketHoles: true });
+    const neg = exposeNegative(greySteps(4, 0.05, 0.8, 40), {
+      stock: POLYCLEAR_200,
+      scanner: LINEAR_SCANNER,
+      rebate: 12,
+      sprocketHoles: true,
+    });
     const px = (x: number, y: number) => neg.data[(y * neg.width + x) * 3]!;
     expect(px(8, 5)).toBe(65535);
     expect(px(1, 1) / 65535).toBeCloseTo(neg.truth.base[0], 4);
@@ -28,9 +41,19 @@ describe('forward film model', () => {
     expect(a.data).not.toEqual(c.data);
   });
   it('moves the recovered red log exposure by 0.30 for 12 printer points of cyan–red balance (common practice of the trade, from memory)', () => {
-    const neg = exposeNegative(greySteps(1, 0.18, 0.18, 1), { stock: POLYCLEAR_200, scanner: LINEAR_SCANNER });
+    const neg = exposeNegative(greySteps(1, 0.18, 0.18, 1), {
+      stock: POLYCLEAR_200,
+      scanner: LINEAR_SCANNER,
+    });
     const counts = [neg.data[0]!, neg.data[1]!, neg.data[2]!] as [number, number, number];
-    const params: InversionParams = { profile: profileForStock(POLYCLEAR_200), scanner: LINEAR_SCANNER, base: neg.truth.base, midLogExposure: 0, render: 'reference', outputBits: 16 };
+    const params: InversionParams = {
+      profile: profileForStock(POLYCLEAR_200),
+      scanner: LINEAR_SCANNER,
+      base: neg.truth.base,
+      midLogExposure: 0,
+      render: 'reference',
+      outputBits: 16,
+    };
     const plain = relativeLogExposure(resolveInversion(params), params, counts);
     const withPoints = { ...params, balances: [{ cyanRed: 12, magentaGreen: 0, yellowBlue: 0 }] };
     const shifted = relativeLogExposure(resolveInversion(withPoints), withPoints, counts);

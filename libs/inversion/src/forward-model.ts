@@ -154,13 +154,19 @@ export function labD50ToLabD65(lab: Rgb): Rgb {
  * The 24-patch chart as a scene, 6 × 4 patches of `patchSize` pixels, from rows of published L*a*b* D50.
  * @example chartScene(patches, 32).scene.width // 192
  */
-export function chartScene(patches: { name: string; labD50: Rgb }[], patchSize: number): { scene: Scene; patches: ChartPatch[] } {
-  const width = 6 * patchSize, height = 4 * patchSize;
+export function chartScene(
+  patches: { name: string; labD50: Rgb }[],
+  patchSize: number,
+): { scene: Scene; patches: ChartPatch[] } {
+  const width = 6 * patchSize,
+    height = 4 * patchSize;
   const rgb = new Float32Array(width * height * 3);
   const out: ChartPatch[] = patches.map((p, index) => {
-    const px = (index % 6) * patchSize, py = Math.floor(index / 6) * patchSize;
+    const px = (index % 6) * patchSize,
+      py = Math.floor(index / 6) * patchSize;
     const lin = labD50ToLinearSrgb(p.labD50);
-    for (let y = py; y < py + patchSize; y++) for (let x = px; x < px + patchSize; x++) rgb.set(lin, (y * width + x) * 3);
+    for (let y = py; y < py + patchSize; y++)
+      for (let x = px; x < px + patchSize; x++) rgb.set(lin, (y * width + x) * 3);
     return { index: index + 1, name: p.name, labD50: p.labD50, rect: [px, py, patchSize, patchSize] };
   });
   return { scene: { width, height, rgb }, patches: out };
@@ -170,7 +176,13 @@ export function chartScene(patches: { name: string; labD50: Rgb }[], patchSize: 
  * Neutral steps from `darkest` to `lightest` reflectance, evenly spaced in log, side by side.
  * @example greySteps(11, 0.03, 0.9, 16).width // 176
  */
-export function greySteps(steps: number, darkest: number, lightest: number, stepWidth: number, height = stepWidth): Scene {
+export function greySteps(
+  steps: number,
+  darkest: number,
+  lightest: number,
+  stepWidth: number,
+  height = stepWidth,
+): Scene {
   const width = steps * stepWidth;
   const rgb = new Float32Array(width * height * 3);
   for (let x = 0; x < width; x++) {
@@ -205,9 +217,12 @@ export function outdoorScene(width: number, height: number): Scene {
     for (let x = 0; x < width; x++) {
       let c: Rgb;
       const horizon = 0.55 * height;
-      if (y < horizon) { const t = y / horizon; c = [0.18 + 0.3 * t, 0.3 + 0.3 * t, 0.7 + 0.1 * t]; }
-      else c = [0.06, 0.14, 0.035];
-      const cx = x - 0.65 * width, cy = y - 0.6 * height;
+      if (y < horizon) {
+        const t = y / horizon;
+        c = [0.18 + 0.3 * t, 0.3 + 0.3 * t, 0.7 + 0.1 * t];
+      } else c = [0.06, 0.14, 0.035];
+      const cx = x - 0.65 * width,
+        cy = y - 0.6 * height;
       if (cx * cx + cy * cy < (0.1 * height) ** 2) c = [0.45, 0.3, 0.23];
       if (x < 0.3 * width && y > 0.7 * height) c = [c[0] * 0.1, c[1] * 0.1, c[2] * 0.12];
       rgb.set(c, (y * width + x) * 3);
@@ -270,7 +285,8 @@ const MIN_SCENE = 1e-5;
 export function exposeNegative(scene: Scene, options: ExposeOptions): SyntheticNegative {
   const { stock, scanner } = options;
   const rebate = options.rebate ?? 0;
-  const width = scene.width, height = scene.height + 2 * rebate;
+  const width = scene.width,
+    height = scene.height + 2 * rebate;
   const data = new Uint16Array(width * height * 3);
   const random = prng(options.seed ?? 1);
   const gauss = () => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
@@ -287,28 +303,41 @@ export function exposeNegative(scene: Scene, options: ExposeOptions): SyntheticN
     for (let x = 0; x < width; x++) {
       const i = (y * width + x) * 3;
       const sy = y - rebate;
-      if (sy < 0 || sy >= scene.height) { write(i, [0, 0, 0]); continue; }
+      if (sy < 0 || sy >= scene.height) {
+        write(i, [0, 0, 0]);
+        continue;
+      }
       const j = (sy * width + x) * 3;
-      const dye: Rgb = [0, 1, 2].map((c) => filmDensity(stock, c as 0 | 1 | 2, Math.log10(Math.max(scene.rgb[j + c]!, MIN_SCENE)) + shift)) as Rgb;
+      const dye: Rgb = [0, 1, 2].map((c) =>
+        filmDensity(stock, c as 0 | 1 | 2, Math.log10(Math.max(scene.rgb[j + c]!, MIN_SCENE)) + shift),
+      ) as Rgb;
       write(i, multiply3(mInv, dye));
     }
   }
   if (options.sprocketHoles && rebate >= 6) {
     // Holes about half the rebate tall, spaced three rebates apart (invented proportions).
-    const hw = Math.max(2, Math.round(rebate * 0.7)), hh = Math.max(2, Math.round(rebate * 0.5)), pitch = rebate * 3;
+    const hw = Math.max(2, Math.round(rebate * 0.7)),
+      hh = Math.max(2, Math.round(rebate * 0.5)),
+      pitch = rebate * 3;
     for (const top of [Math.round(rebate * 0.25), height - rebate + Math.round(rebate * 0.25)]) {
       for (let x0 = Math.round(rebate * 0.5); x0 + hw <= width; x0 += pitch) {
-        for (let y = top; y < top + hh; y++) for (let x = x0; x < x0 + hw; x++) data.fill(FULL_SCALE_16, (y * width + x) * 3, (y * width + x) * 3 + 3);
+        for (let y = top; y < top + hh; y++)
+          for (let x = x0; x < x0 + hw; x++)
+            data.fill(FULL_SCALE_16, (y * width + x) * 3, (y * width + x) * 3 + 3);
       }
     }
   }
   for (let k = 0; k < (options.dust ?? 0); k++) {
-    const cx = random() * width, cy = random() * height, r = 1 + random() * 2.5;
+    const cx = random() * width,
+      cy = random() * height,
+      r = 1 + random() * 2.5;
     for (let y = Math.max(0, Math.floor(cy - r)); y < Math.min(height, Math.ceil(cy + r)); y++) {
       for (let x = Math.max(0, Math.floor(cx - r)); x < Math.min(width, Math.ceil(cx + r)); x++) {
         if ((x - cx) ** 2 + (y - cy) ** 2 <= r * r) {
           const i = (y * width + x) * 3;
-          data[i] = data[i]! >> 3; data[i + 1] = data[i + 1]! >> 3; data[i + 2] = data[i + 2]! >> 3;
+          data[i] = data[i]! >> 3;
+          data[i + 1] = data[i + 1]! >> 3;
+          data[i + 2] = data[i + 2]! >> 3;
         }
       }
     }
@@ -318,6 +347,11 @@ export function exposeNegative(scene: Scene, options: ExposeOptions): SyntheticN
     width,
     height,
     data,
-    truth: { base, baseRegion: [0, 0, width, rebate], frame: [0, rebate, scene.width, scene.height], midLogExposure: Math.log10(0.18) + shift },
+    truth: {
+      base,
+      baseRegion: [0, 0, width, rebate],
+      frame: [0, rebate, scene.width, scene.height],
+      midLogExposure: Math.log10(0.18) + shift,
+    },
   };
 }

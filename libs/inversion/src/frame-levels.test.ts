@@ -1,17 +1,38 @@
 import { describe, expect, it } from 'vitest';
-import { exposeNegative, gradientScene, levelsToTone, measureFrameLevels, neutralBalance, outdoorScene, POLYCLEAR_200, profileForStock, rollLevels, type Rgb } from './index';
+import {
+  exposeNegative,
+  gradientScene,
+  levelsToTone,
+  measureFrameLevels,
+  neutralBalance,
+  outdoorScene,
+  POLYCLEAR_200,
+  profileForStock,
+  rollLevels,
+  type Rgb,
+} from './index';
 
-const scanner = { name: 'Test scanner', encoding: 'linear' as const, gamma: 1, blackLevel: [0.001, 0.001, 0.001] as Rgb, gains: [1, 1, 1] as Rgb };
+const scanner = {
+  name: 'Test scanner',
+  encoding: 'linear' as const,
+  gamma: 1,
+  blackLevel: [0.001, 0.001, 0.001] as Rgb,
+  gains: [1, 1, 1] as Rgb,
+};
 const profile = profileForStock(POLYCLEAR_200);
 
 function levelsAt(stops: number, scene = outdoorScene(120, 80)) {
   const neg = exposeNegative(scene, { stock: POLYCLEAR_200, scanner, exposureStops: stops, rebate: 8 });
-  return measureFrameLevels({ profile, scanner, base: neg.truth.base, render: 'print', outputBits: 8 }, neg, { region: neg.truth.frame, step: 2 });
+  return measureFrameLevels({ profile, scanner, base: neg.truth.base, render: 'print', outputBits: 8 }, neg, {
+    region: neg.truth.frame,
+    step: 2,
+  });
 }
 
 describe('auto exposure and levels', () => {
   it('moves E_mid by log10 2 ± 1 % per stop of film exposure', () => {
-    const a = levelsAt(0), b = levelsAt(1);
+    const a = levelsAt(0),
+      b = levelsAt(1);
     expect(Math.abs(b.midLogExposure - a.midLogExposure - Math.log10(2)) / Math.log10(2)).toBeLessThan(0.01);
   });
   it('finds no cast on a neutral gradient', () => {

@@ -1,6 +1,11 @@
 import type { Balance, Tone } from '@clearbase/contracts';
 import type { Region, RgbImage } from './film-base';
-import { LUMINANCE_WEIGHTS, relativeLogExposure, resolveInversion, type InversionParams } from './invert-pixel';
+import {
+  LUMINANCE_WEIGHTS,
+  relativeLogExposure,
+  resolveInversion,
+  type InversionParams,
+} from './invert-pixel';
 import { MID_GREY } from './tone-curve';
 import { LOG_EXPOSURE_PER_POINT } from './printer-points';
 import type { Rgb } from './srgb';
@@ -30,7 +35,11 @@ export interface MeasureLevelsOptions {
  * Measures a frame: mean log exposure (for E_mid), per-channel means (for neutral balance) and black/white points.
  * @example measureFrameLevels({ ...params, midLogExposure: 0 }, negative, { region: negative.truth.frame }).midLogExposure // ≈ −0.75
  */
-export function measureFrameLevels(params: Omit<InversionParams, 'midLogExposure' | 'exposureStops'>, image: RgbImage, options: MeasureLevelsOptions = {}): FrameLevels {
+export function measureFrameLevels(
+  params: Omit<InversionParams, 'midLogExposure' | 'exposureStops'>,
+  image: RgbImage,
+  options: MeasureLevelsOptions = {},
+): FrameLevels {
   const full: InversionParams = { ...params, midLogExposure: 0, exposureStops: 0, render: 'reference' };
   const resolved = resolveInversion(full);
   const [x0, y0, w, h] = options.region ?? [0, 0, image.width, image.height];
@@ -41,7 +50,9 @@ export function measureFrameLevels(params: Omit<InversionParams, 'midLogExposure
     for (let x = x0; x < x0 + w; x += step) {
       const i = (y * image.width + x) * 3;
       const e = relativeLogExposure(resolved, full, [image.data[i]!, image.data[i + 1]!, image.data[i + 2]!]);
-      sums[0] += e[0]; sums[1] += e[1]; sums[2] += e[2];
+      sums[0] += e[0];
+      sums[1] += e[1];
+      sums[2] += e[2];
       lum.push(LUMINANCE_WEIGHTS[0] * e[0] + LUMINANCE_WEIGHTS[1] * e[1] + LUMINANCE_WEIGHTS[2] * e[2]);
     }
   }
@@ -51,7 +62,10 @@ export function measureFrameLevels(params: Omit<InversionParams, 'midLogExposure
   const pct = (options.clipPercent ?? 0.5) / 100;
   const at = (q: number) => lum[Math.min(lum.length - 1, Math.max(0, Math.round(q * (lum.length - 1))))] ?? 0;
   return {
-    midLogExposure: LUMINANCE_WEIGHTS[0] * channelMeans[0] + LUMINANCE_WEIGHTS[1] * channelMeans[1] + LUMINANCE_WEIGHTS[2] * channelMeans[2],
+    midLogExposure:
+      LUMINANCE_WEIGHTS[0] * channelMeans[0] +
+      LUMINANCE_WEIGHTS[1] * channelMeans[1] +
+      LUMINANCE_WEIGHTS[2] * channelMeans[2],
     channelMeans,
     blackLogExposure: at(pct),
     whiteLogExposure: at(1 - pct),
@@ -63,7 +77,8 @@ export function measureFrameLevels(params: Omit<InversionParams, 'midLogExposure
  * @example neutralBalance(levels) // { cyanRed: -3.1, magentaGreen: 0.4, yellowBlue: 2.2 }
  */
 export function neutralBalance(levels: FrameLevels): Balance {
-  const toPoints = (c: 0 | 1 | 2) => (levels.midLogExposure - levels.channelMeans[c]) / LOG_EXPOSURE_PER_POINT;
+  const toPoints = (c: 0 | 1 | 2) =>
+    (levels.midLogExposure - levels.channelMeans[c]) / LOG_EXPOSURE_PER_POINT;
   return { cyanRed: toPoints(0), magentaGreen: toPoints(1), yellowBlue: toPoints(2) };
 }
 
@@ -71,9 +86,16 @@ export function neutralBalance(levels: FrameLevels): Balance {
  * Tone black and white points (scene-linear, 18 % grey at E_mid) from measured levels, keeping a contrast.
  * @example levelsToTone(levels, 1.1) // { contrast: 1.1, blackPoint: 0.004, whitePoint: 1.3 }
  */
-export function levelsToTone(levels: FrameLevels, contrast: number, midLogExposure = levels.midLogExposure): Tone {
+export function levelsToTone(
+  levels: FrameLevels,
+  contrast: number,
+  midLogExposure = levels.midLogExposure,
+): Tone {
   const blackPoint = Math.min(0.5, MID_GREY * 10 ** (contrast * (levels.blackLogExposure - midLogExposure)));
-  const whitePoint = Math.min(16, Math.max(blackPoint * 1.01, MID_GREY * 10 ** (contrast * (levels.whiteLogExposure - midLogExposure))));
+  const whitePoint = Math.min(
+    16,
+    Math.max(blackPoint * 1.01, MID_GREY * 10 ** (contrast * (levels.whiteLogExposure - midLogExposure))),
+  );
   return { contrast, blackPoint, whitePoint };
 }
 
@@ -98,7 +120,11 @@ export function rollLevels(frames: FrameLevels[]): RollLevels {
   };
   const roll: FrameLevels = {
     midLogExposure: mean((l) => l.midLogExposure),
-    channelMeans: [mean((l) => l.channelMeans[0]), mean((l) => l.channelMeans[1]), mean((l) => l.channelMeans[2])],
+    channelMeans: [
+      mean((l) => l.channelMeans[0]),
+      mean((l) => l.channelMeans[1]),
+      mean((l) => l.channelMeans[2]),
+    ],
     blackLogExposure: median((l) => l.blackLogExposure),
     whiteLogExposure: median((l) => l.whiteLogExposure),
   };

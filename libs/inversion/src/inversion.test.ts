@@ -2,19 +2,55 @@ import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
-  AMBERMASK_100, applyInversion, chartScene, compileInversion, D65_WHITE, deltaE2000, exposeNegative, gradientScene, invertPixel, labD50ToLabD65,
-  LINEAR_SCANNER, linearSrgbToXyz, POLYCLEAR_200, profileForStock, relativeLogExposure, resolveInversion, srgbDecode, TINTLINE_400,
-  xyzToLab, type InversionParams, type Rgb,
+  AMBERMASK_100,
+  applyInversion,
+  chartScene,
+  compileInversion,
+  D65_WHITE,
+  deltaE2000,
+  exposeNegative,
+  gradientScene,
+  invertPixel,
+  labD50ToLabD65,
+  LINEAR_SCANNER,
+  linearSrgbToXyz,
+  POLYCLEAR_200,
+  profileForStock,
+  relativeLogExposure,
+  resolveInversion,
+  srgbDecode,
+  TINTLINE_400,
+  xyzToLab,
+  type InversionParams,
+  type Rgb,
 } from './index';
 
 // Published L*a*b* D50 of the 24-patch chart (McCamy et al. 1976; maker's 2016 values), copied in test-data/reference.
-const chartRows = readFileSync(new URL('../../../test-data/reference/colour-rendition-chart-24.csv', import.meta.url), 'utf8')
-  .split('\n').filter((l) => l && !l.startsWith('#')).slice(1)
-  .map((l) => l.split(',')).map((f) => ({ name: f[1]!, labD50: [Number(f[2]), Number(f[3]), Number(f[4])] as Rgb }));
+const chartRows = readFileSync(
+  new URL('../../../test-data/reference/colour-rendition-chart-24.csv', import.meta.url),
+  'utf8',
+)
+  .split('\n')
+  .filter((l) => l && !l.startsWith('#'))
+  .slice(1)
+  .map((l) => l.split(','))
+  .map((f) => ({ name: f[1]!, labD50: [Number(f[2]), Number(f[3]), Number(f[4])] as Rgb }));
 
-const scanner = { name: 'Test scanner', encoding: 'gamma' as const, gamma: 2.2, blackLevel: [0.002, 0.002, 0.003] as Rgb, gains: [1.02, 1, 1.05] as Rgb };
+const scanner = {
+  name: 'Test scanner',
+  encoding: 'gamma' as const,
+  gamma: 2.2,
+  blackLevel: [0.002, 0.002, 0.003] as Rgb,
+  gains: [1.02, 1, 1.05] as Rgb,
+};
 
-function paramsFor(stock = POLYCLEAR_200, base: Rgb, mid: number, render: 'reference' | 'print' = 'reference', outputBits: 8 | 16 = 16): InversionParams {
+function paramsFor(
+  stock = POLYCLEAR_200,
+  base: Rgb,
+  mid: number,
+  render: 'reference' | 'print' = 'reference',
+  outputBits: 8 | 16 = 16,
+): InversionParams {
   return { profile: profileForStock(stock), scanner, base, midLogExposure: mid, render, outputBits };
 }
 
@@ -52,16 +88,25 @@ describe('exposure recovery', () => {
     const r = resolveInversion(params);
     const ea = relativeLogExposure(r, params, [a.data[0]!, a.data[1]!, a.data[2]!]);
     const eb = relativeLogExposure(r, params, [b.data[0]!, b.data[1]!, b.data[2]!]);
-    for (let c = 0; c < 3; c++) expect(Math.abs(eb[c]! - ea[c]! - Math.log10(2)) / Math.log10(2)).toBeLessThan(0.01);
+    for (let c = 0; c < 3; c++)
+      expect(Math.abs(eb[c]! - ea[c]! - Math.log10(2)) / Math.log10(2)).toBeLessThan(0.01);
   });
   it('keeps a neutral gradient neutral at any exposure (property)', () => {
     fc.assert(
       fc.property(fc.double({ min: -1, max: 3, noNaN: true }), (stops) => {
-        const neg = exposeNegative(gradientScene(64, 1, 0.02, 0.9), { stock: POLYCLEAR_200, scanner, exposureStops: stops });
+        const neg = exposeNegative(gradientScene(64, 1, 0.02, 0.9), {
+          stock: POLYCLEAR_200,
+          scanner,
+          exposureStops: stops,
+        });
         const params = paramsFor(POLYCLEAR_200, neg.truth.base, neg.truth.midLogExposure, 'print', 8);
         const r = resolveInversion(params);
         for (let x = 0; x < 64; x += 7) {
-          const [R, G, B] = invertPixel(params, [neg.data[3 * x]!, neg.data[3 * x + 1]!, neg.data[3 * x + 2]!], r);
+          const [R, G, B] = invertPixel(
+            params,
+            [neg.data[3 * x]!, neg.data[3 * x + 1]!, neg.data[3 * x + 2]!],
+            r,
+          );
           expect(Math.max(R, G, B) - Math.min(R, G, B)).toBeLessThanOrEqual(2);
         }
       }),
@@ -72,23 +117,45 @@ describe('exposure recovery', () => {
 
 describe('compiled fast path', () => {
   function testImage(): Uint16Array {
-    const w = 256, h = 256, data = new Uint16Array(w * h * 3);
+    const w = 256,
+      h = 256,
+      data = new Uint16Array(w * h * 3);
     let s = 12345;
-    const rand = () => ((s = (Math.imul(s, 1103515245) + 12345) >>> 0) >>> 16);
+    const rand = () => (s = (Math.imul(s, 1103515245) + 12345) >>> 0) >>> 16;
     for (let y = 0; y < h; y++) {
       for (let x = 0; x < w; x++) {
         const i = (y * w + x) * 3;
-        if (y < h / 2) { data[i] = rand(); data[i + 1] = rand(); data[i + 2] = rand(); }
-        else { const v = Math.round((x / (w - 1)) * 65535); data[i] = v; data[i + 1] = (v * 7) >> 3; data[i + 2] = (v * 5) >> 3; }
+        if (y < h / 2) {
+          data[i] = rand();
+          data[i + 1] = rand();
+          data[i + 2] = rand();
+        } else {
+          const v = Math.round((x / (w - 1)) * 65535);
+          data[i] = v;
+          data[i + 1] = (v * 7) >> 3;
+          data[i + 2] = (v * 5) >> 3;
+        }
       }
     }
     return data;
   }
   const input = testImage();
-  for (const [render, bits, saturation] of [['reference', 8, 1], ['print', 8, 1.3], ['print', 16, 0.8], ['reference', 16, 1]] as const) {
+  for (const [render, bits, saturation] of [
+    ['reference', 8, 1],
+    ['print', 8, 1.3],
+    ['print', 16, 0.8],
+    ['reference', 16, 1],
+  ] as const) {
     it(`equals the plain per-pixel path within 1 code value (${render}, ${bits}-bit, saturation ${saturation})`, () => {
       const profile = { ...profileForStock(POLYCLEAR_200), saturation };
-      const params: InversionParams = { profile, scanner, base: [0.7, 0.68, 0.65], midLogExposure: -0.8, render, outputBits: bits };
+      const params: InversionParams = {
+        profile,
+        scanner,
+        base: [0.7, 0.68, 0.65],
+        midLogExposure: -0.8,
+        render,
+        outputBits: bits,
+      };
       const plan = structuredClone(compileInversion(params));
       const pixels = input.length / 3;
       const out = bits === 8 ? new Uint8Array(input.length) : new Uint16Array(input.length);
@@ -104,7 +171,14 @@ describe('compiled fast path', () => {
     });
   }
   it('folds a per-channel-only inversion into one table per channel, still within 1 code of the plain path', () => {
-    const params: InversionParams = { profile: profileForStock(AMBERMASK_100), scanner, base: [0.5, 0.3, 0.15], midLogExposure: -0.7, render: 'print', outputBits: 16 };
+    const params: InversionParams = {
+      profile: profileForStock(AMBERMASK_100),
+      scanner,
+      base: [0.5, 0.3, 0.15],
+      midLogExposure: -0.7,
+      render: 'print',
+      outputBits: 16,
+    };
     const plan = compileInversion(params);
     expect(plan.directLut).not.toBeNull();
     const out = new Uint16Array(input.length);
@@ -118,7 +192,14 @@ describe('compiled fast path', () => {
     expect(worst).toBeLessThanOrEqual(1);
   });
   it('leaves pixels outside the given range untouched', () => {
-    const params: InversionParams = { profile: profileForStock(POLYCLEAR_200), scanner: LINEAR_SCANNER, base: [0.8, 0.8, 0.8], midLogExposure: -0.7, render: 'print', outputBits: 8 };
+    const params: InversionParams = {
+      profile: profileForStock(POLYCLEAR_200),
+      scanner: LINEAR_SCANNER,
+      base: [0.8, 0.8, 0.8],
+      midLogExposure: -0.7,
+      render: 'print',
+      outputBits: 8,
+    };
     const out = new Uint8Array(30).fill(7);
     applyInversion(compileInversion(params), new Uint16Array(30).fill(20000), out, 2, 3);
     expect([...out.subarray(0, 6)]).toEqual([7, 7, 7, 7, 7, 7]);

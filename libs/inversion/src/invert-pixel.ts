@@ -14,7 +14,10 @@ export const RELATIVE_LOG_EXPOSURE_RANGE: readonly [number, number] = [-6, 3];
 export const LUMINANCE_WEIGHTS: Rgb = [0.2126, 0.7152, 0.0722];
 
 /** The parts of a stock profile the inversion uses. */
-export type InversionProfile = Pick<ProfileDocument, 'curves' | 'crosstalk' | 'balance' | 'tone' | 'saturation'>;
+export type InversionProfile = Pick<
+  ProfileDocument,
+  'curves' | 'crosstalk' | 'balance' | 'tone' | 'saturation'
+>;
 
 /**
  * Everything that determines how one frame inverts.
@@ -60,12 +63,25 @@ function describe(value: unknown): string {
  */
 export function assertInversionParams(params: InversionParams): void {
   params.base.forEach((b, c) => {
-    if (!(typeof b === 'number' && b > 0 && b <= 1)) throw new RangeError(`Expected number above 0 and at most 1 for base[${c}] but received ${describe(b)}`);
+    if (!(typeof b === 'number' && b > 0 && b <= 1))
+      throw new RangeError(
+        `Expected number above 0 and at most 1 for base[${c}] but received ${describe(b)}`,
+      );
   });
-  if (params.outputBits !== 8 && params.outputBits !== 16) throw new RangeError(`Expected 8 or 16 for outputBits but received ${describe(params.outputBits)}`);
-  if (params.render !== 'print' && params.render !== 'reference') throw new RangeError(`Expected 'print' or 'reference' for render but received ${describe(params.render)}`);
-  if (!Number.isFinite(params.midLogExposure)) throw new RangeError(`Expected finite number for midLogExposure but received ${describe(params.midLogExposure)}`);
-  if (params.exposureStops !== undefined && !Number.isFinite(params.exposureStops)) throw new RangeError(`Expected finite number for exposureStops but received ${describe(params.exposureStops)}`);
+  if (params.outputBits !== 8 && params.outputBits !== 16)
+    throw new RangeError(`Expected 8 or 16 for outputBits but received ${describe(params.outputBits)}`);
+  if (params.render !== 'print' && params.render !== 'reference')
+    throw new RangeError(
+      `Expected 'print' or 'reference' for render but received ${describe(params.render)}`,
+    );
+  if (!Number.isFinite(params.midLogExposure))
+    throw new RangeError(
+      `Expected finite number for midLogExposure but received ${describe(params.midLogExposure)}`,
+    );
+  if (params.exposureStops !== undefined && !Number.isFinite(params.exposureStops))
+    throw new RangeError(
+      `Expected finite number for exposureStops but received ${describe(params.exposureStops)}`,
+    );
 }
 
 /**
@@ -76,13 +92,18 @@ export function resolveInversion(params: InversionParams): ResolvedInversion {
   assertInversionParams(params);
   const { profile } = params;
   const curve = (c: 'red' | 'green' | 'blue') =>
-    createMonotoneCurve(profile.curves[c].points.map((p) => p.logExposure), profile.curves[c].points.map((p) => p.density));
+    createMonotoneCurve(
+      profile.curves[c].points.map((p) => p.logExposure),
+      profile.curves[c].points.map((p) => p.density),
+    );
   const balance = balanceToLogExposure(addBalances(profile.balance, ...(params.balances ?? [])));
   const shift = stopsToLogExposure(params.exposureStops ?? 0) - params.midLogExposure;
   const maxCode = params.outputBits === 8 ? 255 : FULL_SCALE_16;
   const tone = profile.tone;
   const encode =
-    params.render === 'reference' ? (rel: number) => maxCode * srgbEncode(referenceTone(rel)) : (rel: number) => maxCode * srgbEncode(toneCurve(rel, tone));
+    params.render === 'reference'
+      ? (rel: number) => maxCode * srgbEncode(referenceTone(rel))
+      : (rel: number) => maxCode * srgbEncode(toneCurve(rel, tone));
   return {
     curves: [curve('red'), curve('green'), curve('blue')],
     crosstalk: profile.crosstalk,
@@ -97,11 +118,19 @@ export function resolveInversion(params: InversionParams): ResolvedInversion {
  * Densities above base after crosstalk, D' = M·D, of one pixel of 16-bit counts, held to DENSITY_RANGE.
  * @example pixelDensities(params, [6554, 6554, 6554]) // ≈ [1, 1, 1] for base 1 and identity crosstalk
  */
-export function pixelDensities(params: Pick<InversionParams, 'scanner' | 'base'>, crosstalk: Matrix3, counts: Rgb): Rgb {
-  const d = [0, 1, 2].map((c) => densityAboveBase(linearise(counts[c]! / FULL_SCALE_16, params.scanner, c as 0 | 1 | 2), params.base[c]!));
+export function pixelDensities(
+  params: Pick<InversionParams, 'scanner' | 'base'>,
+  crosstalk: Matrix3,
+  counts: Rgb,
+): Rgb {
+  const d = [0, 1, 2].map((c) =>
+    densityAboveBase(linearise(counts[c]! / FULL_SCALE_16, params.scanner, c as 0 | 1 | 2), params.base[c]!),
+  );
   const [lo, hi] = DENSITY_RANGE;
   const dd = [clamp(d[0]!, lo, hi), clamp(d[1]!, lo, hi), clamp(d[2]!, lo, hi)];
-  return [0, 1, 2].map((r) => clamp(crosstalk[r]![0] * dd[0]! + crosstalk[r]![1] * dd[1]! + crosstalk[r]![2] * dd[2]!, lo, hi)) as Rgb;
+  return [0, 1, 2].map((r) =>
+    clamp(crosstalk[r]![0] * dd[0]! + crosstalk[r]![1] * dd[1]! + crosstalk[r]![2] * dd[2]!, lo, hi),
+  ) as Rgb;
 }
 
 /**
@@ -111,7 +140,9 @@ export function pixelDensities(params: Pick<InversionParams, 'scanner' | 'base'>
 export function relativeLogExposure(resolved: ResolvedInversion, params: InversionParams, counts: Rgb): Rgb {
   const dp = pixelDensities(params, resolved.crosstalk, counts);
   const [lo, hi] = RELATIVE_LOG_EXPOSURE_RANGE;
-  const e = [0, 1, 2].map((c) => clamp(resolved.curves[c]!.inverse(dp[c]!) + resolved.offset[c]!, lo, hi)) as Rgb;
+  const e = [0, 1, 2].map((c) =>
+    clamp(resolved.curves[c]!.inverse(dp[c]!) + resolved.offset[c]!, lo, hi),
+  ) as Rgb;
   return applySaturation(e, resolved.saturation);
 }
 
@@ -123,7 +154,11 @@ export function applySaturation(e: Rgb, saturation: number): Rgb {
   if (saturation === 1) return e;
   const mean = LUMINANCE_WEIGHTS[0] * e[0] + LUMINANCE_WEIGHTS[1] * e[1] + LUMINANCE_WEIGHTS[2] * e[2];
   const [lo, hi] = RELATIVE_LOG_EXPOSURE_RANGE;
-  return [clamp(mean + saturation * (e[0] - mean), lo, hi), clamp(mean + saturation * (e[1] - mean), lo, hi), clamp(mean + saturation * (e[2] - mean), lo, hi)];
+  return [
+    clamp(mean + saturation * (e[0] - mean), lo, hi),
+    clamp(mean + saturation * (e[1] - mean), lo, hi),
+    clamp(mean + saturation * (e[2] - mean), lo, hi),
+  ];
 }
 
 /**
@@ -131,16 +166,28 @@ export function applySaturation(e: Rgb, saturation: number): Rgb {
  * The reference the compiled fast path is checked against.
  * @example invertPixel(params, [20000, 21000, 22000]) // e.g. [141, 133, 120]
  */
-export function invertPixel(params: InversionParams, counts: Rgb, resolved: ResolvedInversion = resolveInversion(params)): Rgb {
+export function invertPixel(
+  params: InversionParams,
+  counts: Rgb,
+  resolved: ResolvedInversion = resolveInversion(params),
+): Rgb {
   const e = relativeLogExposure(resolved, params, counts);
-  return [Math.round(resolved.encode(e[0])), Math.round(resolved.encode(e[1])), Math.round(resolved.encode(e[2]))];
+  return [
+    Math.round(resolved.encode(e[0])),
+    Math.round(resolved.encode(e[1])),
+    Math.round(resolved.encode(e[2])),
+  ];
 }
 
 /**
  * Scene-linear value per channel (18 % grey at E_mid) of one pixel, no tone curve: for colour measurement.
  * @example sceneLinearPixel(params, counts) // ≈ [0.18, 0.18, 0.18] for a mid-grey patch
  */
-export function sceneLinearPixel(params: InversionParams, counts: Rgb, resolved: ResolvedInversion = resolveInversion(params)): Rgb {
+export function sceneLinearPixel(
+  params: InversionParams,
+  counts: Rgb,
+  resolved: ResolvedInversion = resolveInversion(params),
+): Rgb {
   const e = relativeLogExposure(resolved, params, counts);
   return [MID_GREY * 10 ** e[0], MID_GREY * 10 ** e[1], MID_GREY * 10 ** e[2]];
 }

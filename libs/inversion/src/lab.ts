@@ -22,7 +22,9 @@ const KAPPA = 24389 / 27;
  */
 export function xyzToLab(xyz: Rgb, white: Rgb): Rgb {
   const f = (t: number) => (t > EPSILON ? Math.cbrt(t) : (KAPPA * t + 16) / 116);
-  const fx = f(xyz[0] / white[0]), fy = f(xyz[1] / white[1]), fz = f(xyz[2] / white[2]);
+  const fx = f(xyz[0] / white[0]),
+    fy = f(xyz[1] / white[1]),
+    fz = f(xyz[2] / white[2]);
   return [116 * fy - 16, 500 * (fx - fy), 200 * (fy - fz)];
 }
 

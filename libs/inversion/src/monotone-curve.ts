@@ -19,9 +19,11 @@ export function pchipSlopes(xs: readonly number[], ys: readonly number[]): numbe
   if (n === 2) return [delta[0]!, delta[0]!];
   const d = new Array<number>(n).fill(0);
   for (let k = 1; k < n - 1; k++) {
-    const a = delta[k - 1]!, b = delta[k]!;
+    const a = delta[k - 1]!,
+      b = delta[k]!;
     if (a === 0 || b === 0 || Math.sign(a) !== Math.sign(b)) continue;
-    const w1 = 2 * h[k]! + h[k - 1]!, w2 = h[k]! + 2 * h[k - 1]!;
+    const w1 = 2 * h[k]! + h[k - 1]!,
+      w2 = h[k]! + 2 * h[k - 1]!;
     d[k] = (w1 + w2) / (w1 / a + w2 / b);
   }
   const end = (h0: number, h1: number, d0: number, d1: number) => {
@@ -47,15 +49,24 @@ export interface MonotoneCurve {
  * Monotone cubic (PCHIP) through increasing control points, with end-slope extrapolation.
  * @example createMonotoneCurve([0, 1, 2, 3, 4], [0, 1, 1, 2, 5]).evaluate(3.5) // 3.1875
  */
-export function createMonotoneCurve(xs: readonly number[], ys: readonly number[], minEndSlope = MIN_END_SLOPE): MonotoneCurve {
+export function createMonotoneCurve(
+  xs: readonly number[],
+  ys: readonly number[],
+  minEndSlope = MIN_END_SLOPE,
+): MonotoneCurve {
   const d = pchipSlopes(xs, ys);
   const n = xs.length;
-  const x0 = xs[0]!, xn = xs[n - 1]!, y0 = ys[0]!, yn = ys[n - 1]!;
-  const s0 = Math.max(d[0]!, minEndSlope), sn = Math.max(d[n - 1]!, minEndSlope);
+  const x0 = xs[0]!,
+    xn = xs[n - 1]!,
+    y0 = ys[0]!,
+    yn = ys[n - 1]!;
+  const s0 = Math.max(d[0]!, minEndSlope),
+    sn = Math.max(d[n - 1]!, minEndSlope);
   const evaluate = (x: number): number => {
     if (x <= x0) return y0 + s0 * (x - x0);
     if (x >= xn) return yn + sn * (x - xn);
-    let lo = 0, hi = n - 1;
+    let lo = 0,
+      hi = n - 1;
     while (hi - lo > 1) {
       const mid = (lo + hi) >> 1;
       if (xs[mid]! <= x) lo = mid;
@@ -63,19 +74,27 @@ export function createMonotoneCurve(xs: readonly number[], ys: readonly number[]
     }
     const h = xs[hi]! - xs[lo]!;
     const t = (x - xs[lo]!) / h;
-    const t2 = t * t, t3 = t2 * t;
-    return (2 * t3 - 3 * t2 + 1) * ys[lo]! + (t3 - 2 * t2 + t) * h * d[lo]! + (-2 * t3 + 3 * t2) * ys[hi]! + (t3 - t2) * h * d[hi]!;
+    const t2 = t * t,
+      t3 = t2 * t;
+    return (
+      (2 * t3 - 3 * t2 + 1) * ys[lo]! +
+      (t3 - 2 * t2 + t) * h * d[lo]! +
+      (-2 * t3 + 3 * t2) * ys[hi]! +
+      (t3 - t2) * h * d[hi]!
+    );
   };
   const inverse = (y: number): number => {
     if (y <= y0) return x0 + (y - y0) / s0;
     if (y >= yn) return xn + (y - yn) / sn;
-    let lo = 0, hi = n - 1;
+    let lo = 0,
+      hi = n - 1;
     while (hi - lo > 1) {
       const mid = (lo + hi) >> 1;
       if (ys[mid]! <= y) lo = mid;
       else hi = mid;
     }
-    let a = xs[lo]!, b = xs[hi]!;
+    let a = xs[lo]!,
+      b = xs[hi]!;
     // Bisection: 60 halvings reach double precision on any segment.
     for (let i = 0; i < 60 && b - a > 1e-13; i++) {
       const m = 0.5 * (a + b);

@@ -31,7 +31,11 @@ export const ZERO_BALANCE: Balance = { cyanRed: 0, magentaGreen: 0, yellowBlue: 
  */
 export function addBalances(...balances: Balance[]): Balance {
   return balances.reduce(
-    (s, b) => ({ cyanRed: s.cyanRed + b.cyanRed, magentaGreen: s.magentaGreen + b.magentaGreen, yellowBlue: s.yellowBlue + b.yellowBlue }),
+    (s, b) => ({
+      cyanRed: s.cyanRed + b.cyanRed,
+      magentaGreen: s.magentaGreen + b.magentaGreen,
+      yellowBlue: s.yellowBlue + b.yellowBlue,
+    }),
     ZERO_BALANCE,
   );
 }
@@ -43,5 +47,9 @@ export function addBalances(...balances: Balance[]): Balance {
  * @example balanceToLogExposure({ cyanRed: 12, magentaGreen: 0, yellowBlue: -4 }) // [0.3, 0, -0.1]
  */
 export function balanceToLogExposure(balance: Balance): Rgb {
-  return [pointsToLogExposure(balance.cyanRed), pointsToLogExposure(balance.magentaGreen), pointsToLogExposure(balance.yellowBlue)];
+  return [
+    pointsToLogExposure(balance.cyanRed),
+    pointsToLogExposure(balance.magentaGreen),
+    pointsToLogExposure(balance.yellowBlue),
+  ];
 }

@@ -4,18 +4,22 @@ import { describe, expect, it } from 'vitest';
 
 const here = new URL('.', import.meta.url).pathname;
 // Modules the library may import: its own files, culori (pure JS colour maths) and contract types.
-const allowed = (spec: string) => spec.startsWith('./') || spec === 'culori' || spec === '@clearbase/contracts';
+const allowed = (spec: string) =>
+  spec.startsWith('./') || spec === 'culori' || spec === '@clearbase/contracts';
 
 describe('inversion library purity', () => {
   it('imports no platform, DOM or I/O modules outside its tests', () => {
     const offenders: string[] = [];
     for (const file of readdirSync(here).filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts'))) {
       const text = readFileSync(join(here, file), 'utf8');
-      for (const m of text.matchAll(/(?:import|export)[^'"]*?from\s*['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)/g)) {
+      for (const m of text.matchAll(
+        /(?:import|export)[^'"]*?from\s*['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)/g,
+      )) {
         const spec = m[1] ?? m[2]!;
         if (!allowed(spec)) offenders.push(`${file}: ${spec}`);
       }
-      if (/\b(document|window|fetch|process|require)\s*[.(]/.test(text)) offenders.push(`${file}: uses a platform global`);
+      if (/\b(document|window|fetch|process|require)\s*[.(]/.test(text))
+        offenders.push(`${file}: uses a platform global`);
     }
     expect(offenders).toEqual([]);
   });

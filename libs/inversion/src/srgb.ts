@@ -53,7 +53,9 @@ export function multiply3(m: Matrix3, v: Rgb): Rgb {
  */
 export function invert3(m: Matrix3): Matrix3 {
   const [[a, b, c], [d, e, f], [g, h, i]] = m;
-  const A = e * i - f * h, B = -(d * i - f * g), C = d * h - e * g;
+  const A = e * i - f * h,
+    B = -(d * i - f * g),
+    C = d * h - e * g;
   const det = a * A + b * B + c * C;
   if (Math.abs(det) < 1e-12) throw new RangeError('matrix is singular');
   return [

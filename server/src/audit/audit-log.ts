@@ -39,7 +39,10 @@ export async function recordAudit(db: Kysely<Database>, event: AuditEvent): Prom
 }
 
 /** Newest first, with the total for paging. */
-export async function listAudit(db: Kysely<Database>, query: AuditQuery): Promise<{ entries: AuditEntry[]; total: number }> {
+export async function listAudit(
+  db: Kysely<Database>,
+  query: AuditQuery,
+): Promise<{ entries: AuditEntry[]; total: number }> {
   let base = db.selectFrom('audit_log');
   if (query.action) base = base.where('action', '=', query.action);
   const [rows, count] = await Promise.all([

@@ -4,7 +4,13 @@ import { listAudit } from './audit-log';
 
 export const auditRoutes: RouteModule = (api, { db }) => {
   api.define(
-    { method: 'get', path: '/api/audit', roles: ['admin'], query: auditQuerySchema, summary: 'Audit log, newest first' },
+    {
+      method: 'get',
+      path: '/api/audit',
+      roles: ['admin'],
+      query: auditQuerySchema,
+      summary: 'Audit log, newest first',
+    },
     async (_req, res, { query }) => {
       res.json(await listAudit(db, query));
     },

@@ -62,7 +62,13 @@ export function authRoutes(passport: AppPassport): RouteModule {
       async (req, res, { body }) => {
         const user = await authenticate(passport, req, res);
         if (!user) {
-          await recordAudit(db, { at: clock.now(), actor: null, action: 'sign-in-failed', target: null, details: { email: body.email } });
+          await recordAudit(db, {
+            at: clock.now(),
+            actor: null,
+            action: 'sign-in-failed',
+            target: null,
+            details: { email: body.email },
+          });
           throw new AppError('wrong-credentials', 401, wrongCredentials);
         }
         await logIn(req, user);
@@ -73,12 +79,22 @@ export function authRoutes(passport: AppPassport): RouteModule {
     );
 
     api.define(
-      { method: 'post', path: '/api/auth/logout', roles: 'public', summary: 'Sign out (harmless when signed out)' },
+      {
+        method: 'post',
+        path: '/api/auth/logout',
+        roles: 'public',
+        summary: 'Sign out (harmless when signed out)',
+      },
       async (req, res) => {
         const user = req.user;
         if (user) {
           await logOut(req);
-          await recordAudit(db, { at: clock.now(), actor: user, action: 'sign-out', target: `user:${user.id}` });
+          await recordAudit(db, {
+            at: clock.now(),
+            actor: user,
+            action: 'sign-out',
+            target: `user:${user.id}`,
+          });
         }
         await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
         res.clearCookie(sessionCookieName, { path: '/' });
@@ -86,9 +102,12 @@ export function authRoutes(passport: AppPassport): RouteModule {
       },
     );
 
-    api.define({ method: 'get', path: '/api/auth/me', roles: 'signed-in', summary: 'The signed-in user' }, (_req, res, { user }) => {
-      res.json(user);
-    });
+    api.define(
+      { method: 'get', path: '/api/auth/me', roles: 'signed-in', summary: 'The signed-in user' },
+      (_req, res, { user }) => {
+        res.json(user);
+      },
+    );
 
     api.define(
       {
@@ -110,7 +129,12 @@ export function authRoutes(passport: AppPassport): RouteModule {
         await db.transaction().execute(async (trx) => {
           await updateUser(trx, row.id, { password_hash: passwordHash, password_changed_at: now });
           await dropUserSessions(trx, row.id, req.sessionID);
-          await recordAudit(trx, { at: clock.now(), actor: user!, action: 'password-changed', target: `user:${row.id}` });
+          await recordAudit(trx, {
+            at: clock.now(),
+            actor: user!,
+            action: 'password-changed',
+            target: `user:${row.id}`,
+          });
         });
         res.status(204).end();
       },

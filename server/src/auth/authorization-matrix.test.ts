@@ -3,7 +3,14 @@ import type { Express } from 'express';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { routeRegistryOf } from '../app';
 import { declaredRoute, isAllowed, type RegisteredRoute } from '../http/define-route';
-import { addUser, client, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import {
+  addUser,
+  client,
+  createTestApp,
+  signedIn,
+  type Client,
+  type TestApp,
+} from '../test-support/test-app';
 
 interface Layer {
   route?: { path: string; methods: Record<string, boolean>; stack: { handle: unknown }[] };
@@ -18,7 +25,10 @@ function expressRoutes(app: Express): { key: string; declared: boolean }[] {
       if (layer.route) {
         const last = layer.route.stack.at(-1)?.handle as Record<symbol, unknown> | undefined;
         for (const method of Object.keys(layer.route.methods)) {
-          found.push({ key: `${method.toUpperCase()} ${layer.route.path}`, declared: Boolean(last?.[declaredRoute]) });
+          found.push({
+            key: `${method.toUpperCase()} ${layer.route.path}`,
+            declared: Boolean(last?.[declaredRoute]),
+          });
         }
       } else if (layer.handle?.stack) {
         walk(layer.handle.stack);
@@ -62,17 +72,27 @@ describe('authorization matrix', () => {
     const clientFor = async (caller: Role | 'anonymous'): Promise<Client> => {
       const known = clients.get(caller);
       if (known && (caller === 'anonymous' || (await known.get('/api/auth/me')).status === 200)) return known;
-      const fresh = caller === 'anonymous' ? await client(t.app) : await signedIn(t.app, `${caller}@lab.test`);
+      const fresh =
+        caller === 'anonymous' ? await client(t.app) : await signedIn(t.app, `${caller}@lab.test`);
       clients.set(caller, fresh);
       return fresh;
     };
     for (const route of registry) {
       for (const caller of who) {
         const c = await clientFor(caller);
-        const res = await c.send(route.method, samplePath(route.path), route.method === 'get' ? undefined : {});
-        const allowed = isAllowed(route.roles, caller === 'anonymous' ? undefined : ({ role: caller } as never));
+        const res = await c.send(
+          route.method,
+          samplePath(route.path),
+          route.method === 'get' ? undefined : {},
+        );
+        const allowed = isAllowed(
+          route.roles,
+          caller === 'anonymous' ? undefined : ({ role: caller } as never),
+        );
         const expected = allowed ? 'neither 401 nor 403' : caller === 'anonymous' ? '401' : '403';
-        const ok = allowed ? res.status !== 401 && res.status !== 403 : res.status === (caller === 'anonymous' ? 401 : 403);
+        const ok = allowed
+          ? res.status !== 401 && res.status !== 403
+          : res.status === (caller === 'anonymous' ? 401 : 403);
         if (!ok) failures.push(`${key(route)} as ${caller}: expected ${expected}, got ${res.status}`);
       }
     }
@@ -82,7 +102,13 @@ describe('authorization matrix', () => {
   it('covers the sign-in, users and audit routes', () => {
     const keys = routeRegistryOf(t.app).map(key);
     expect(keys).toEqual(
-      expect.arrayContaining(['POST /api/auth/login', 'GET /api/auth/me', 'GET /api/users', 'PATCH /api/users/:id', 'GET /api/audit']),
+      expect.arrayContaining([
+        'POST /api/auth/login',
+        'GET /api/auth/me',
+        'GET /api/users',
+        'PATCH /api/users/:id',
+        'GET /api/audit',
+      ]),
     );
   });
 });

@@ -18,7 +18,9 @@ export function createPassport(db: Kysely<Database>): AppPassport {
     new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
       (async () => {
         const row = await findUserByEmail(db, email);
-        const ok = row ? await verifyPassword(password, row.password_hash) : await burnPasswordCheck(password);
+        const ok = row
+          ? await verifyPassword(password, row.password_hash)
+          : await burnPasswordCheck(password);
         if (!row || !ok || row.disabled) return done(null, false, { message: 'wrong-credentials' });
         return done(null, toUser(row));
       })().catch(done);

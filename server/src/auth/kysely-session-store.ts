@@ -47,9 +47,14 @@ export class KyselySessionStore extends session.Store {
     this.db
       .insertInto('sessions')
       .values(row)
-      .onConflict((oc) => oc.column('sid').doUpdateSet({ user_id: row.user_id, data: row.data, expires_at: row.expires_at }))
+      .onConflict((oc) =>
+        oc.column('sid').doUpdateSet({ user_id: row.user_id, data: row.data, expires_at: row.expires_at }),
+      )
       .execute()
-      .then(() => callback?.(), (err) => callback?.(err));
+      .then(
+        () => callback?.(),
+        (err) => callback?.(err),
+      );
   }
 
   override touch(sid: string, data: session.SessionData, callback?: Callback): void {
@@ -58,7 +63,10 @@ export class KyselySessionStore extends session.Store {
       .set({ expires_at: this.expiryOf(data) })
       .where('sid', '=', sid)
       .execute()
-      .then(() => callback?.(), (err) => callback?.(err));
+      .then(
+        () => callback?.(),
+        (err) => callback?.(err),
+      );
   }
 
   override destroy(sid: string, callback?: Callback): void {
@@ -66,7 +74,10 @@ export class KyselySessionStore extends session.Store {
       .deleteFrom('sessions')
       .where('sid', '=', sid)
       .execute()
-      .then(() => callback?.(), (err) => callback?.(err));
+      .then(
+        () => callback?.(),
+        (err) => callback?.(err),
+      );
   }
 
   /** Removes expired sessions; main.ts calls it now and then. */
@@ -80,7 +91,11 @@ export class KyselySessionStore extends session.Store {
 }
 
 /** Drops every session of a user, except optionally the one making the request. */
-export async function dropUserSessions(db: Kysely<Database>, userId: number, exceptSid?: string): Promise<void> {
+export async function dropUserSessions(
+  db: Kysely<Database>,
+  userId: number,
+  exceptSid?: string,
+): Promise<void> {
   let query = db.deleteFrom('sessions').where('user_id', '=', userId);
   if (exceptSid) query = query.where('sid', '!=', exceptSid);
   await query.execute();

@@ -9,7 +9,9 @@ const keyBytes = 32;
 function derive(password: string, salt: Buffer, cost: typeof defaultCost): Promise<Buffer> {
   const options: ScryptOptions = { ...cost, maxmem: 64 * 1024 * 1024 };
   return new Promise((resolve, reject) =>
-    scrypt(password.normalize('NFKC'), salt, keyBytes, options, (err, key) => (err ? reject(err) : resolve(key))),
+    scrypt(password.normalize('NFKC'), salt, keyBytes, options, (err, key) =>
+      err ? reject(err) : resolve(key),
+    ),
   );
 }
 

@@ -1,7 +1,14 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { KyselySessionStore } from './kysely-session-store';
-import { addUser, client, createTestApp, signedIn, testPassword, type TestApp } from '../test-support/test-app';
+import {
+  addUser,
+  client,
+  createTestApp,
+  signedIn,
+  testPassword,
+  type TestApp,
+} from '../test-support/test-app';
 
 let t: TestApp;
 let secure: TestApp;
@@ -17,7 +24,10 @@ afterAll(async () => {
 });
 
 const sidOf = (res: request.Response) =>
-  ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('clearbase.sid='))?.split(';')[0];
+  ([] as string[])
+    .concat(res.headers['set-cookie'] ?? [])
+    .find((c) => c.startsWith('clearbase.sid='))
+    ?.split(';')[0];
 
 describe('sessions', () => {
   it('stores the session with the user id, so the user’s sessions can be found', async () => {
@@ -59,7 +69,9 @@ describe('sessions', () => {
       .set('X-Forwarded-Proto', 'https')
       .send({ email: 'op@lab.test', password: testPassword });
     expect(res.status).toBe(200);
-    const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((x) => x.startsWith('clearbase.sid='));
+    const cookie = ([] as string[])
+      .concat(res.headers['set-cookie'] ?? [])
+      .find((x) => x.startsWith('clearbase.sid='));
     expect(cookie).toMatch(/; Secure/i);
   });
 });

@@ -54,7 +54,22 @@ describe('clearbase synth, invert and profile validate', () => {
   let negatives: string[];
   beforeAll(async () => {
     dir = await mkdtemp(join(tmpdir(), 'clearbase-cli-'));
-    const run = await runCli(['synth', '--out', 'neg', '--frames', '3', '--stock', 'tidewater-400', '--width', '240', '--height', '160'], dir);
+    const run = await runCli(
+      [
+        'synth',
+        '--out',
+        'neg',
+        '--frames',
+        '3',
+        '--stock',
+        'tidewater-400',
+        '--width',
+        '240',
+        '--height',
+        '160',
+      ],
+      dir,
+    );
     expect(run.code).toBe(0);
     negatives = run.stdout.trim().split('\n');
   }, 60_000);
@@ -63,7 +78,11 @@ describe('clearbase synth, invert and profile validate', () => {
   });
 
   it('synth writes 16-bit TIFF negatives', async () => {
-    expect(negatives).toEqual(['neg/tidewater-400-frame-01.tif', 'neg/tidewater-400-frame-02.tif', 'neg/tidewater-400-frame-03.tif']);
+    expect(negatives).toEqual([
+      'neg/tidewater-400-frame-01.tif',
+      'neg/tidewater-400-frame-02.tif',
+      'neg/tidewater-400-frame-03.tif',
+    ]);
     const meta = await sharp(join(dir, negatives[0]!)).metadata();
     expect(meta).toMatchObject({ format: 'tiff', width: 240, height: 160, depth: 'ushort' });
   });
@@ -71,10 +90,16 @@ describe('clearbase synth, invert and profile validate', () => {
   it('inverts every frame, printing one JSON line each, and exits 0', async () => {
     const run = await runCli(['invert', ...negatives, '--out', 'pos', '--json'], dir);
     expect(run.code).toBe(0);
-    const lines = run.stdout.trim().split('\n').map((l) => JSON.parse(l) as Record<string, unknown>);
+    const lines = run.stdout
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l) as Record<string, unknown>);
     expect(lines.map((l) => l['file']).sort()).toEqual(negatives);
     for (const line of lines) {
-      expect(line).toMatchObject({ output: expect.stringMatching(/^pos\/tidewater-400-frame-0\d\.jpg$/), warnings: [] });
+      expect(line).toMatchObject({
+        output: expect.stringMatching(/^pos\/tidewater-400-frame-0\d\.jpg$/),
+        warnings: [],
+      });
       const base = line['base'] as { rgb: number[]; region: number[]; confidence: number };
       expect(base.rgb).toHaveLength(3);
       for (const v of base.rgb) {
@@ -85,14 +110,38 @@ describe('clearbase synth, invert and profile validate', () => {
       expect(base.confidence).toBeGreaterThan(0.5);
       expect(typeof line['ms']).toBe('number');
     }
-    expect((await readdir(join(dir, 'pos'))).sort()).toEqual(['tidewater-400-frame-01.jpg', 'tidewater-400-frame-02.jpg', 'tidewater-400-frame-03.jpg']);
+    expect((await readdir(join(dir, 'pos'))).sort()).toEqual([
+      'tidewater-400-frame-01.jpg',
+      'tidewater-400-frame-02.jpg',
+      'tidewater-400-frame-03.jpg',
+    ]);
   });
 
   it('writes 16-bit TIFF positives for a roll with one shared base and the profile in the metadata', async () => {
-    await writeFile(join(dir, 'stock.json'), JSON.stringify({ stock: 'Tidewater 400', version: 2, gamma: [0.58, 0.6, 0.61] }));
-    const run = await runCli(['invert', ...negatives, '--out', 'roll', '--roll', '--format', 'tiff16', '--profile', 'stock.json', '--json'], dir);
+    await writeFile(
+      join(dir, 'stock.json'),
+      JSON.stringify({ stock: 'Tidewater 400', version: 2, gamma: [0.58, 0.6, 0.61] }),
+    );
+    const run = await runCli(
+      [
+        'invert',
+        ...negatives,
+        '--out',
+        'roll',
+        '--roll',
+        '--format',
+        'tiff16',
+        '--profile',
+        'stock.json',
+        '--json',
+      ],
+      dir,
+    );
     expect(run.code).toBe(0);
-    const lines = run.stdout.trim().split('\n').map((l) => JSON.parse(l) as { base: { rgb: number[] }; output: string });
+    const lines = run.stdout
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l) as { base: { rgb: number[] }; output: string });
     expect(new Set(lines.map((l) => JSON.stringify(l.base.rgb))).size).toBe(1);
     const read = await readPositiveMetadata(join(dir, lines[0]!.output));
     expect(read.bitDepth).toBe(16);
@@ -102,16 +151,28 @@ describe('clearbase synth, invert and profile validate', () => {
   it('exits 1 when one negative is truncated, writing all the others', async () => {
     const whole = await readFile(join(dir, negatives[1]!));
     await writeFile(join(dir, 'neg', 'cut.tif'), whole.subarray(0, whole.length >> 1));
-    const run = await runCli(['invert', negatives[0]!, 'neg/cut.tif', negatives[2]!, '--out', 'mixed', '--json'], dir);
+    const run = await runCli(
+      ['invert', negatives[0]!, 'neg/cut.tif', negatives[2]!, '--out', 'mixed', '--json'],
+      dir,
+    );
     expect(run.code).toBe(1);
-    const lines = run.stdout.trim().split('\n').map((l) => JSON.parse(l) as { file: string; error?: { code: string } });
+    const lines = run.stdout
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l) as { file: string; error?: { code: string } });
     expect(lines.find((l) => l.file === 'neg/cut.tif')?.error?.code).toBe('truncated');
     expect(run.stderr).toMatch(/cut\.tif: The file starts like a TIFF image/);
-    expect((await readdir(join(dir, 'mixed'))).sort()).toEqual(['tidewater-400-frame-01.jpg', 'tidewater-400-frame-03.jpg']);
+    expect((await readdir(join(dir, 'mixed'))).sort()).toEqual([
+      'tidewater-400-frame-01.jpg',
+      'tidewater-400-frame-03.jpg',
+    ]);
   });
 
   it('samples the base from a rectangle drawn by the operator', async () => {
-    const run = await runCli(['invert', negatives[0]!, '--out', 'drawn', '--base', '10,0,50,4', '--json'], dir);
+    const run = await runCli(
+      ['invert', negatives[0]!, '--out', 'drawn', '--base', '10,0,50,4', '--json'],
+      dir,
+    );
     expect(run.code).toBe(0);
     const line = JSON.parse(run.stdout.trim()) as { base: { region: number[]; confidence: number } };
     expect(line.base.region).toEqual([10, 0, 50, 4]);
@@ -126,8 +187,14 @@ describe('clearbase synth, invert and profile validate', () => {
   });
 
   it('validates a good profile with exit 0 and lists each error of a bad one with its path', async () => {
-    await writeFile(join(dir, 'good.json'), JSON.stringify({ stock: 'Larkspur 200', gamma: [0.62, 0.6, 0.58] }));
-    await writeFile(join(dir, 'bad.json'), JSON.stringify({ stock: '', gamma: [0.6, -1, 0.6], crosstalk: [1, 0] }));
+    await writeFile(
+      join(dir, 'good.json'),
+      JSON.stringify({ stock: 'Larkspur 200', gamma: [0.62, 0.6, 0.58] }),
+    );
+    await writeFile(
+      join(dir, 'bad.json'),
+      JSON.stringify({ stock: '', gamma: [0.6, -1, 0.6], crosstalk: [1, 0] }),
+    );
     const good = await runCli(['profile', 'validate', 'good.json'], dir);
     expect(good.code).toBe(0);
     expect(good.stdout).toMatch(/valid stock profile "Larkspur 200" version 1/);

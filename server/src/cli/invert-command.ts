@@ -5,7 +5,12 @@ import type { z } from 'zod';
 import { ImageInputError, POSITIVE_EXTENSIONS, readNegative, type PositiveFormat } from '../imaging/index';
 import { createInversionPool } from '../inversion-pool/inversion-pool';
 import { runPipelined } from '../inversion-pool/run-pipelined';
-import { invertNegativeFile, measureFrame, type FrameResult, type FrameSettings } from '../inversion-pool/invert-negative-file';
+import {
+  invertNegativeFile,
+  measureFrame,
+  type FrameResult,
+  type FrameSettings,
+} from '../inversion-pool/invert-negative-file';
 import {
   LINEAR_SCANNER,
   NEUTRAL_STOCK,
@@ -45,7 +50,8 @@ export async function invertCommand(args: string[]): Promise<number> {
   if (files.length === 0) throw new UsageError('No negatives given.');
   if (!values.out) throw new UsageError('Missing --out DIR.');
   const format = values.format as PositiveFormat;
-  if (!FORMATS.includes(format)) throw new UsageError(`Expected one of ${FORMATS.join(', ')} for --format but received ${values.format}.`);
+  if (!FORMATS.includes(format))
+    throw new UsageError(`Expected one of ${FORMATS.join(', ')} for --format but received ${values.format}.`);
   if (values.render !== 'print' && values.render !== 'reference') {
     throw new UsageError(`Expected print or reference for --render but received ${values.render}.`);
   }
@@ -58,7 +64,14 @@ export async function invertCommand(args: string[]): Promise<number> {
   await mkdir(values.out, { recursive: true });
   // Each file is read once per pass; libvips' operation cache would only hold memory.
   sharp.cache(false);
-  const settings: FrameSettings = { stock, scanner, base, render: values.render, format, ...(quality ? { quality } : {}) };
+  const settings: FrameSettings = {
+    stock,
+    scanner,
+    base,
+    render: values.render,
+    format,
+    ...(quality ? { quality } : {}),
+  };
   const outputs = outputNames(files, values.out, format);
   const report = reporter(files.length, values.json);
   let failed = 0;
@@ -66,7 +79,11 @@ export async function invertCommand(args: string[]): Promise<number> {
 
   if (values.roll) {
     // First pass: each frame's base and levels; the roll base is their robust median.
-    const measured: { index: number; base: ReturnType<typeof measureFrame>['base']; levels: { shadow: Rgb; highlight: Rgb } }[] = [];
+    const measured: {
+      index: number;
+      base: ReturnType<typeof measureFrame>['base'];
+      levels: { shadow: Rgb; highlight: Rgb };
+    }[] = [];
     for (const index of [...todo]) {
       try {
         const negative = await readNegative(files[index]!);
@@ -111,7 +128,12 @@ export async function invertCommand(args: string[]): Promise<number> {
 function parseBase(raw: string): 'auto' | Region {
   if (raw === 'auto') return 'auto';
   const parts = raw.split(',').map(Number);
-  if (parts.length !== 4 || !parts.every((v) => Number.isInteger(v) && v >= 0) || parts[2] === 0 || parts[3] === 0) {
+  if (
+    parts.length !== 4 ||
+    !parts.every((v) => Number.isInteger(v) && v >= 0) ||
+    parts[2] === 0 ||
+    parts[3] === 0
+  ) {
     throw new UsageError(`Expected auto or x,y,w,h in pixels for --base but received ${raw}.`);
   }
   return parts as Region;
@@ -146,12 +168,19 @@ function reporter(total: number, json: boolean) {
       const line = {
         file: r.file,
         output: r.output,
-        base: { rgb: r.base.rgb.map((v) => Number(v.toFixed(6))), region: r.base.region, confidence: r.base.confidence },
+        base: {
+          rgb: r.base.rgb.map((v) => Number(v.toFixed(6))),
+          region: r.base.region,
+          confidence: r.base.confidence,
+        },
         warnings: r.warnings,
         ms: r.ms,
       };
       if (json) process.stdout.write(`${JSON.stringify(line)}\n`);
-      else process.stdout.write(`${r.file} -> ${r.output} (${r.ms} ms)${r.warnings.map((w) => `\n  warning: ${w}`).join('')}\n`);
+      else
+        process.stdout.write(
+          `${r.file} -> ${r.output} (${r.ms} ms)${r.warnings.map((w) => `\n  warning: ${w}`).join('')}\n`,
+        );
     },
     failure(file: string, error: unknown) {
       progress(file, 'failed');

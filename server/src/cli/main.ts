@@ -23,7 +23,9 @@ export async function main(argv: string[]): Promise<number> {
   const load = COMMANDS[name];
   try {
     if (!load) throw new UsageError(`Unknown command "${name}".`);
-    return await (await load())(rest);
+    return await (
+      await load()
+    )(rest);
   } catch (error) {
     if (error instanceof UsageError || isParseArgsError(error)) {
       process.stderr.write(`clearbase: ${(error as Error).message}\n\n${USAGE}`);

@@ -7,13 +7,16 @@ import { UsageError } from './usage-error';
 export async function profileCommand(args: string[]): Promise<number> {
   const { positionals } = parseCommandArgs(args, {});
   const [action, file, ...extra] = positionals;
-  if (action !== 'validate') throw new UsageError(action ? `Unknown profile action "${action}".` : 'Missing profile action.');
+  if (action !== 'validate')
+    throw new UsageError(action ? `Unknown profile action "${action}".` : 'Missing profile action.');
   if (!file || extra.length) throw new UsageError('profile validate takes exactly one file.');
   const result = await readDocument(file, stockProfileSchema);
   if (!result.ok) {
     for (const line of result.errors) process.stderr.write(`${line}\n`);
     return 1;
   }
-  process.stdout.write(`${file}: valid stock profile "${result.value.stock}" version ${result.value.version}\n`);
+  process.stdout.write(
+    `${file}: valid stock profile "${result.value.stock}" version ${result.value.version}\n`,
+  );
   return 0;
 }

@@ -7,7 +7,10 @@ export type DocumentResult<T> = { ok: true; value: T } | { ok: false; errors: st
  * Reads a JSON document and checks it against `schema`. Errors name the file and each field's
  * path, e.g. `lab.json: gamma.1: Too small: expected number to be >0`.
  */
-export async function readDocument<S extends z.ZodType>(path: string, schema: S): Promise<DocumentResult<z.output<S>>> {
+export async function readDocument<S extends z.ZodType>(
+  path: string,
+  schema: S,
+): Promise<DocumentResult<z.output<S>>> {
   let text: string;
   try {
     text = await readFile(path, 'utf8');
@@ -24,6 +27,8 @@ export async function readDocument<S extends z.ZodType>(path: string, schema: S)
   if (parsed.success) return { ok: true, value: parsed.data };
   return {
     ok: false,
-    errors: parsed.error.issues.map((issue) => `${path}: ${issue.path.length ? issue.path.join('.') : '(document)'}: ${issue.message}`),
+    errors: parsed.error.issues.map(
+      (issue) => `${path}: ${issue.path.length ? issue.path.join('.') : '(document)'}: ${issue.message}`,
+    ),
   };
 }

@@ -20,7 +20,8 @@ export async function synthCommand(args: string[]): Promise<number> {
   const width = integerOption('width', values.width, 16, 20000);
   const height = integerOption('height', values.height, 16, 20000);
   const stock = SYNTH_STOCKS[values.stock];
-  if (!stock) throw new UsageError(`Unknown stock "${values.stock}"; known: ${Object.keys(SYNTH_STOCKS).join(', ')}.`);
+  if (!stock)
+    throw new UsageError(`Unknown stock "${values.stock}"; known: ${Object.keys(SYNTH_STOCKS).join(', ')}.`);
   await mkdir(values.out, { recursive: true });
   for (let n = 1; n <= frames; n++) {
     // Exposures spread over ±1 stop across the roll, as a real roll varies.
@@ -34,7 +35,12 @@ export async function synthCommand(args: string[]): Promise<number> {
 }
 
 /** 16-bit deflate TIFF written under a temporary name and renamed into place. */
-export async function writeNegativeTiff(path: string, data: Uint16Array, width: number, height: number): Promise<void> {
+export async function writeNegativeTiff(
+  path: string,
+  data: Uint16Array,
+  width: number,
+  height: number,
+): Promise<void> {
   const tmp = `${path}.${process.pid}.tmp`;
   try {
     await sharp(data, { raw: { width, height, channels: 3 } })

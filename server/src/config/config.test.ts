@@ -29,7 +29,9 @@ describe('configuration from the environment', () => {
   });
 
   it('requires SESSION_SECRET in production', () => {
-    expect(() => loadConfig({ DATA_DIR: dir, NODE_ENV: 'production' })).toThrow(/SESSION_SECRET: required in production/);
+    expect(() => loadConfig({ DATA_DIR: dir, NODE_ENV: 'production' })).toThrow(
+      /SESSION_SECRET: required in production/,
+    );
   });
 
   it('generates a session secret on first start in development and keeps it', () => {

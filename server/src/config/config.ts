@@ -71,7 +71,9 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
   let sessionSecret = e.SESSION_SECRET;
   if (!sessionSecret) {
     if (e.NODE_ENV === 'production') {
-      throw new ConfigError('Invalid environment:\n  SESSION_SECRET: required in production (at least 32 characters)');
+      throw new ConfigError(
+        'Invalid environment:\n  SESSION_SECRET: required in production (at least 32 characters)',
+      );
     }
     sessionSecret = readOrCreateSecret(dataDir);
   }

@@ -1,4 +1,11 @@
-import { Migrator, NO_MIGRATIONS, type Kysely, type Migration, type MigrationProvider, type MigrationResultSet } from 'kysely';
+import {
+  Migrator,
+  NO_MIGRATIONS,
+  type Kysely,
+  type Migration,
+  type MigrationProvider,
+  type MigrationResultSet,
+} from 'kysely';
 import { readdir } from 'node:fs/promises';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -32,9 +39,12 @@ function check(result: MigrationResultSet): string[] {
   if (result.error) {
     const failed = result.results?.find((r) => r.status === 'Error');
     const what = failed ? `migration ${failed.migrationName} failed` : 'migrating failed';
-    throw new Error(`${what}: ${result.error instanceof Error ? result.error.message : String(result.error)}`, {
-      cause: result.error,
-    });
+    throw new Error(
+      `${what}: ${result.error instanceof Error ? result.error.message : String(result.error)}`,
+      {
+        cause: result.error,
+      },
+    );
   }
   return (result.results ?? []).map((r) => r.migrationName);
 }

@@ -21,7 +21,11 @@ describe('demo seed', () => {
     const users = await listUsers(empty.db);
     expect(users.map((u) => u.email).sort()).toEqual(demoUsers.map((u) => u.email).sort());
     expect(new Set(users.map((u) => u.role))).toEqual(new Set(['admin', 'manager', 'operator', 'customer']));
-    const lab = await empty.db.selectFrom('settings').select('value').where('key', '=', 'lab').executeTakeFirstOrThrow();
+    const lab = await empty.db
+      .selectFrom('settings')
+      .select('value')
+      .where('key', '=', 'lab')
+      .executeTakeFirstOrThrow();
     expect(JSON.parse(lab.value).name).toBe('Clearbase demo lab');
     const c = await client(empty.app);
     const res = await c.post('/api/auth/login', { email: 'manager@clearbase.test', password: demoPassword });

@@ -10,7 +10,11 @@ import { countUsers, insertUser } from '../users/user-repository';
 export const demoPassword = 'clearbase-demo';
 
 /** The invented lab the demo data belongs to. */
-export const demoLab = { name: 'Clearbase demo lab', town: 'Wrenmouth', address: '14 Kiln Row, Wrenmouth' } as const;
+export const demoLab = {
+  name: 'Clearbase demo lab',
+  town: 'Wrenmouth',
+  address: '14 Kiln Row, Wrenmouth',
+} as const;
 
 export const demoUsers: readonly { email: string; name: string; role: Role }[] = [
   { email: 'admin@clearbase.test', name: 'Ada Penhallow', role: 'admin' },
@@ -34,7 +38,10 @@ export interface SeedStep {
 const labStep: SeedStep = {
   name: 'lab',
   async run(db) {
-    await db.insertInto('settings').values({ key: 'lab', value: JSON.stringify(demoLab) }).execute();
+    await db
+      .insertInto('settings')
+      .values({ key: 'lab', value: JSON.stringify(demoLab) })
+      .execute();
   },
 };
 

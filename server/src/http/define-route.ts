@@ -1,14 +1,23 @@
 import type { Role, User } from '@clearbase/contracts';
-import express, { type NextFunction, type Request, type RequestHandler, type Response, type Router } from 'express';
+import express, {
+  type NextFunction,
+  type Request,
+  type RequestHandler,
+  type Response,
+  type Router,
+} from 'express';
 import type { z } from 'zod';
 import { AppError, type FieldError } from '../errors/app-error';
+
+// The API's user under another name, so the Express namespace below can extend it.
+type ApiUser = User;
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     // passport puts the signed-in user here; its shape is the API's user
     // eslint-disable-next-line @typescript-eslint/no-empty-object-type
-    interface User extends Readonly<import('@clearbase/contracts').User> {}
+    interface User extends Readonly<ApiUser> {}
   }
 }
 
@@ -63,7 +72,11 @@ export const declaredRoute = Symbol('clearbase.declaredRoute');
 
 /** A router that only accepts routes through `define`; the Express router underneath is not handed out. */
 export interface ApiRoutes {
-  define<B extends z.ZodType | undefined = undefined, Q extends z.ZodType | undefined = undefined, P extends z.ZodType | undefined = undefined>(
+  define<
+    B extends z.ZodType | undefined = undefined,
+    Q extends z.ZodType | undefined = undefined,
+    P extends z.ZodType | undefined = undefined,
+  >(
     definition: RouteDefinition & { body?: B; query?: Q; params?: P },
     handler: RouteHandler<B, Q, P>,
   ): void;
@@ -110,7 +123,8 @@ export function createApiRoutes(): { api: ApiRoutes; router: Router } {
   const api: ApiRoutes = {
     registry,
     define(definition, handler) {
-      if (!definition.path.startsWith('/api/')) throw new Error(`Route paths start with /api/, got ${definition.path}`);
+      if (!definition.path.startsWith('/api/'))
+        throw new Error(`Route paths start with /api/, got ${definition.path}`);
       const key = `${definition.method.toUpperCase()} ${definition.path}`;
       if (registry.some((r) => `${r.method.toUpperCase()} ${r.path}` === key)) {
         throw new Error(`Route ${key} is declared twice`);
@@ -142,7 +156,13 @@ export function createApiRoutes(): { api: ApiRoutes; router: Router } {
         }
       };
       Object.defineProperty(run, declaredRoute, { value: key });
-      router[definition.method](definition.path, accessCheck(definition.roles), validate, ...(definition.before ?? []), run);
+      router[definition.method](
+        definition.path,
+        accessCheck(definition.roles),
+        validate,
+        ...(definition.before ?? []),
+        run,
+      );
       registry.push({
         method: definition.method,
         path: definition.path,

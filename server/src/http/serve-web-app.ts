@@ -23,7 +23,11 @@ export function serveWebApp(app: Express, root: string): boolean {
     }),
   );
   app.use((req, res, next) => {
-    if ((req.method !== 'GET' && req.method !== 'HEAD') || req.path === '/api' || req.path.startsWith('/api/')) {
+    if (
+      (req.method !== 'GET' && req.method !== 'HEAD') ||
+      req.path === '/api' ||
+      req.path.startsWith('/api/')
+    ) {
       return next();
     }
     res.setHeader('Cache-Control', 'no-cache');

@@ -4,7 +4,14 @@ import { join } from 'node:path';
 import { crc32, deflateSync } from 'node:zlib';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ImageInputError, encodePositive, positivePipeline, readNegative, readPositiveMetadata, writePositive } from './index';
+import {
+  ImageInputError,
+  encodePositive,
+  positivePipeline,
+  readNegative,
+  readPositiveMetadata,
+  writePositive,
+} from './index';
 
 let dir: string;
 beforeAll(async () => {
@@ -27,10 +34,19 @@ function ramp16(width = W, height = H): Uint16Array {
   return d;
 }
 
-async function write16(name: string, data: Uint16Array, format: 'tiff' | 'png', channels: 1 | 3 | 4 = 3): Promise<string> {
+async function write16(
+  name: string,
+  data: Uint16Array,
+  format: 'tiff' | 'png',
+  channels: 1 | 3 | 4 = 3,
+): Promise<string> {
   const path = join(dir, name);
-  const s = sharp(data, { raw: { width: W, height: H, channels } }).toColourspace(channels === 1 ? 'grey16' : 'rgb16');
-  await (format === 'tiff' ? s.tiff({ compression: 'deflate', predictor: 'horizontal' }) : s.png()).toFile(path);
+  const s = sharp(data, { raw: { width: W, height: H, channels } }).toColourspace(
+    channels === 1 ? 'grey16' : 'rgb16',
+  );
+  await (format === 'tiff' ? s.tiff({ compression: 'deflate', predictor: 'horizontal' }) : s.png()).toFile(
+    path,
+  );
   return path;
 }
 
@@ -87,14 +103,18 @@ describe('readNegative', () => {
   it('copies the pixels into the array an allocate callback supplies', async () => {
     const data = ramp16();
     const target = new Uint16Array(new SharedArrayBuffer(data.length * 2));
-    const img = await readNegative(await write16('into.tif', data, 'tiff'), { allocate: (n) => (n === data.length ? target : new Uint16Array(n)) });
+    const img = await readNegative(await write16('into.tif', data, 'tiff'), {
+      allocate: (n) => (n === data.length ? target : new Uint16Array(n)),
+    });
     expect(img.data).toBe(target);
     expect(Array.from(target)).toEqual(Array.from(data));
   });
 
   it('reads an 8-bit file scaled to 16-bit full scale, with a warning', async () => {
     const path = join(dir, 'eight.png');
-    await sharp(new Uint8Array(W * H * 3).fill(200), { raw: { width: W, height: H, channels: 3 } }).png().toFile(path);
+    await sharp(new Uint8Array(W * H * 3).fill(200), { raw: { width: W, height: H, channels: 3 } })
+      .png()
+      .toFile(path);
     const img = await readNegative(path);
     expect(img.bitDepth).toBe(8);
     expect(img.data[0]).toBe(200 * 257);
@@ -152,7 +172,10 @@ describe('readNegative', () => {
   });
 
   it('honours a smaller configured pixel limit', async () => {
-    await expectCode(readNegative(await write16('small.tif', ramp16(), 'tiff'), { maxPixels: W * H - 1 }), 'too-many-pixels');
+    await expectCode(
+      readNegative(await write16('small.tif', ramp16(), 'tiff'), { maxPixels: W * H - 1 }),
+      'too-many-pixels',
+    );
   });
 
   it('validates maxPixels before touching the file', async () => {
@@ -163,7 +186,11 @@ describe('readNegative', () => {
 });
 
 describe('writePositive', () => {
-  const metadata = { stock: 'Larkspur 200', profileVersion: 'larkspur-200@3', adjustments: { cyanRedPoints: -2, exposureStops: 0.5 } };
+  const metadata = {
+    stock: 'Larkspur 200',
+    profileVersion: 'larkspur-200@3',
+    adjustments: { cyanRedPoints: -2, exposureStops: 0.5 },
+  };
 
   for (const format of ['tiff16', 'png16'] as const) {
     it(`keeps all 16 bits and the metadata in a ${format} round trip`, async () => {
@@ -211,9 +238,11 @@ describe('writePositive', () => {
     expect(() => positivePipeline(data, { width: W, height: H, format: 'jpeg', quality: 0 })).toThrow(
       'Expected integer between 1 and 100 for quality but received 0 of type number',
     );
-    expect(() => positivePipeline(new Uint8Array(W * H * 3), { width: W, height: H, format: 'png16' })).toThrow(
-      'Expected Uint16Array for data of a png16 positive but received Uint8Array',
+    expect(() =>
+      positivePipeline(new Uint8Array(W * H * 3), { width: W, height: H, format: 'png16' }),
+    ).toThrow('Expected Uint16Array for data of a png16 positive but received Uint8Array');
+    expect(() => positivePipeline(data, { width: W + 1, height: H, format: 'tiff16' })).toThrow(
+      /Expected 4704 samples/,
     );
-    expect(() => positivePipeline(data, { width: W + 1, height: H, format: 'tiff16' })).toThrow(/Expected 4704 samples/);
   });
 });

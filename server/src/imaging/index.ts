@@ -1,5 +1,10 @@
 export { ImageInputError, type ImageInputErrorCode } from './image-input-error';
-export { readNegative, DEFAULT_MAX_PIXELS, type NegativeImage, type ReadNegativeOptions } from './read-negative';
+export {
+  readNegative,
+  DEFAULT_MAX_PIXELS,
+  type NegativeImage,
+  type ReadNegativeOptions,
+} from './read-negative';
 export {
   writePositive,
   encodePositive,

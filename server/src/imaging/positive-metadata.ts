@@ -30,7 +30,9 @@ export function describePositive(meta: PositiveMetadata): string {
 
 /** Serialises the metadata as an XMP packet with one attribute per field. */
 export function positiveXmp(meta: PositiveMetadata): string {
-  const attrs = FIELDS.filter((k) => meta[k] !== undefined).map((k) => ` cb:${k}="${escapeXml(String(meta[k]))}"`);
+  const attrs = FIELDS.filter((k) => meta[k] !== undefined).map(
+    (k) => ` cb:${k}="${escapeXml(String(meta[k]))}"`,
+  );
   if (meta.adjustments) attrs.push(` cb:adjustments="${escapeXml(JSON.stringify(meta.adjustments))}"`);
   return (
     '<?xpacket begin="\uFEFF" id="W5M0MpCehiHzreSzNTczkc9d"?>' +
@@ -62,5 +64,9 @@ function escapeXml(s: string): string {
 }
 
 function unescapeXml(s: string): string {
-  return s.replace(/&quot;/g, '"').replace(/&gt;/g, '>').replace(/&lt;/g, '<').replace(/&amp;/g, '&');
+  return s
+    .replace(/&quot;/g, '"')
+    .replace(/&gt;/g, '>')
+    .replace(/&lt;/g, '<')
+    .replace(/&amp;/g, '&');
 }

@@ -28,7 +28,11 @@ export interface NegativeImage {
   warnings: string[];
 }
 
-const FORMAT_NAMES: Record<Exclude<SniffedFormat, 'unknown'>, string> = { tiff: 'TIFF', png: 'PNG', jpeg: 'JPEG' };
+const FORMAT_NAMES: Record<Exclude<SniffedFormat, 'unknown'>, string> = {
+  tiff: 'TIFF',
+  png: 'PNG',
+  jpeg: 'JPEG',
+};
 
 /**
  * Reads a raw negative scan as 16-bit interleaved RGB.
@@ -49,13 +53,18 @@ const FORMAT_NAMES: Record<Exclude<SniffedFormat, 'unknown'>, string> = { tiff: 
 export async function readNegative(path: string, options: ReadNegativeOptions = {}): Promise<NegativeImage> {
   const maxPixels = options.maxPixels ?? DEFAULT_MAX_PIXELS;
   if (!Number.isInteger(maxPixels) || maxPixels < 1) {
-    throw new TypeError(`Expected positive integer for maxPixels but received ${maxPixels} of type ${typeof maxPixels}`);
+    throw new TypeError(
+      `Expected positive integer for maxPixels but received ${maxPixels} of type ${typeof maxPixels}`,
+    );
   }
 
   const head = await readHead(path);
   const sniffed = sniffFormat(head);
   if (sniffed === 'unknown') {
-    throw new ImageInputError('not-an-image', 'The file is not an image: it does not start like a TIFF, PNG or JPEG file.');
+    throw new ImageInputError(
+      'not-an-image',
+      'The file is not an image: it does not start like a TIFF, PNG or JPEG file.',
+    );
   }
   const formatName = FORMAT_NAMES[sniffed];
   const damaged = (cause: unknown) =>
@@ -86,7 +95,9 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     bitDepth = 16;
   } else if (meta.depth === 'uchar') {
     bitDepth = 8;
-    warnings.push('The scan has 8 bits per channel; 16-bit scans keep more detail in the dense parts of the negative.');
+    warnings.push(
+      'The scan has 8 bits per channel; 16-bit scans keep more detail in the dense parts of the negative.',
+    );
   } else {
     throw new ImageInputError(
       'unsupported-depth',
@@ -104,11 +115,19 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     );
   }
   if (meta.hasAlpha) warnings.push('The alpha channel was dropped.');
-  if (meta.icc) warnings.push('The embedded ICC profile was ignored; the scanner profile describes how counts are encoded.');
+  if (meta.icc)
+    warnings.push(
+      'The embedded ICC profile was ignored; the scanner profile describes how counts are encoded.',
+    );
 
   let raw: { data: Buffer; info: OutputInfo };
   try {
-    raw = await sharp(path, { limitInputPixels: maxPixels, failOn: 'error', ignoreIcc: true, sequentialRead: true })
+    raw = await sharp(path, {
+      limitInputPixels: maxPixels,
+      failOn: 'error',
+      ignoreIcc: true,
+      sequentialRead: true,
+    })
       .removeAlpha()
       .toColourspace(bitDepth === 16 ? 'rgb16' : 'srgb')
       .raw({ depth: bitDepth === 16 ? 'ushort' : 'uchar' })
@@ -124,7 +143,8 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     options.allocate ??
     (options.shared ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2)) : undefined);
   const data = bitDepth === 16 ? toUint16(raw.data, allocate) : expand8(raw.data, allocate);
-  if (data.length < samples) throw new RangeError(`Expected at least ${samples} samples from allocate but received ${data.length}`);
+  if (data.length < samples)
+    throw new RangeError(`Expected at least ${samples} samples from allocate but received ${data.length}`);
   return { width, height, data, bitDepth, format: sniffed, warnings };
 }
 

@@ -10,8 +10,10 @@ const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
  */
 export function sniffFormat(head: Uint8Array): SniffedFormat {
   const at = (i: number) => head[i] ?? -1;
-  if ((at(0) === 0x49 && at(1) === 0x49 && (at(2) === 0x2a || at(2) === 0x2b) && at(3) === 0) ||
-      (at(0) === 0x4d && at(1) === 0x4d && at(2) === 0 && (at(3) === 0x2a || at(3) === 0x2b))) {
+  if (
+    (at(0) === 0x49 && at(1) === 0x49 && (at(2) === 0x2a || at(2) === 0x2b) && at(3) === 0) ||
+    (at(0) === 0x4d && at(1) === 0x4d && at(2) === 0 && (at(3) === 0x2a || at(3) === 0x2b))
+  ) {
     return 'tiff';
   }
   if (PNG_SIGNATURE.every((b, i) => at(i) === b)) return 'png';

@@ -25,7 +25,11 @@ export interface WritePositiveOptions extends EncodePositiveOptions {
 export const DEFAULT_JPEG_QUALITY = 92;
 
 /** File name extension for each output format. */
-export const POSITIVE_EXTENSIONS: Record<PositiveFormat, string> = { jpeg: '.jpg', tiff16: '.tif', png16: '.png' };
+export const POSITIVE_EXTENSIONS: Record<PositiveFormat, string> = {
+  jpeg: '.jpg',
+  tiff16: '.tif',
+  png16: '.png',
+};
 
 /**
  * Builds the sharp pipeline for a positive held as interleaved sRGB-encoded RGB.
@@ -43,7 +47,9 @@ export function positivePipeline(data: Uint8Array | Uint16Array, options: Encode
   assertInteger('width', width, 1, 1 << 20);
   assertInteger('height', height, 1, 1 << 20);
   if (data.length !== width * height * 3) {
-    throw new TypeError(`Expected ${width * height * 3} samples (width × height × 3) for data but received ${data.length}`);
+    throw new TypeError(
+      `Expected ${width * height * 3} samples (width × height × 3) for data but received ${data.length}`,
+    );
   }
   const quality = options.quality ?? DEFAULT_JPEG_QUALITY;
   assertInteger('quality', quality, 1, 100);
@@ -61,7 +67,9 @@ export function positivePipeline(data: Uint8Array | Uint16Array, options: Encode
     case 'tiff16':
     case 'png16': {
       if (!(data instanceof Uint16Array)) {
-        throw new TypeError(`Expected Uint16Array for data of a ${format} positive but received ${data.constructor.name}`);
+        throw new TypeError(
+          `Expected Uint16Array for data of a ${format} positive but received ${data.constructor.name}`,
+        );
       }
       const pipeline = sharp(data, { raw }).toColourspace('rgb16').withXmp(positiveXmp(meta));
       // sharp's default TIFF compression is JPEG, which silently reduces the file to 8 bits.
@@ -70,12 +78,17 @@ export function positivePipeline(data: Uint8Array | Uint16Array, options: Encode
         : pipeline.png({ compressionLevel: 6 });
     }
     default:
-      throw new TypeError(`Expected one of jpeg, tiff16, png16 for format but received ${String(format)} of type ${typeof format}`);
+      throw new TypeError(
+        `Expected one of jpeg, tiff16, png16 for format but received ${String(format)} of type ${typeof format}`,
+      );
   }
 }
 
 /** Encodes a positive into memory. See `positivePipeline` for formats and errors. */
-export async function encodePositive(data: Uint8Array | Uint16Array, options: EncodePositiveOptions): Promise<Buffer> {
+export async function encodePositive(
+  data: Uint8Array | Uint16Array,
+  options: EncodePositiveOptions,
+): Promise<Buffer> {
   return positivePipeline(data, options).toBuffer();
 }
 
@@ -111,6 +124,8 @@ function to8Bit(data: Uint16Array): Uint8Array {
 
 function assertInteger(name: string, value: number, min: number, max: number): void {
   if (!Number.isInteger(value) || value < min || value > max) {
-    throw new TypeError(`Expected integer between ${min} and ${max} for ${name} but received ${value} of type ${typeof value}`);
+    throw new TypeError(
+      `Expected integer between ${min} and ${max} for ${name} but received ${value} of type ${typeof value}`,
+    );
   }
 }

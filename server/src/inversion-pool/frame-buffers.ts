@@ -14,7 +14,10 @@ export interface FrameBuffers {
 /** A free list of shared buffers; keeps at most `keep` idle buffers (default 6). */
 export function createFrameBuffers(keep = 6): FrameBuffers {
   const free: (Uint8Array | Uint16Array)[] = [];
-  function acquire(kind: Uint8ArrayConstructor | Uint16ArrayConstructor, length: number): Uint8Array | Uint16Array {
+  function acquire(
+    kind: Uint8ArrayConstructor | Uint16ArrayConstructor,
+    length: number,
+  ): Uint8Array | Uint16Array {
     const i = free.findIndex((a) => a.constructor === kind && a.length === length);
     if (i >= 0) return free.splice(i, 1)[0]!;
     const buffer = new SharedArrayBuffer(length * kind.BYTES_PER_ELEMENT);

@@ -26,15 +26,29 @@ function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: 
   input.set(neg.data);
   const base = detectFilmBase(neg);
   const stock = { ...NEUTRAL_STOCK, ...(crosstalk ? { crosstalk } : {}) };
-  const params: Omit<InversionParams, 'levels'> = { stock, scanner: LINEAR_SCANNER, base: base.rgb, render: 'print', output };
-  const levels = densityLevels(compileInversion({ ...params, levels: { shadow: [0, 0, 0], highlight: [1, 1, 1] } }), neg.data);
+  const params: Omit<InversionParams, 'levels'> = {
+    stock,
+    scanner: LINEAR_SCANNER,
+    base: base.rgb,
+    render: 'print',
+    output,
+  };
+  const levels = densityLevels(
+    compileInversion({ ...params, levels: { shadow: [0, 0, 0], highlight: [1, 1, 1] } }),
+    neg.data,
+  );
   return { neg, input, plan: compileInversion({ ...params, levels }) };
 }
 
 describe('inversion pool', () => {
   for (const output of ['u8', 'u16'] as const) {
     it(`gives exactly the single-thread result (${output} output)`, async () => {
-      const { neg, input, plan } = frame(331, 217, output, [1.05, -0.03, -0.02, -0.04, 1.06, -0.02, -0.01, -0.05, 1.06]);
+      const { neg, input, plan } = frame(
+        331,
+        217,
+        output,
+        [1.05, -0.03, -0.02, -0.04, 1.06, -0.02, -0.01, -0.05, 1.06],
+      );
       const kind = output === 'u8' ? Uint8Array : Uint16Array;
       const single = new kind(neg.data.length);
       applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
@@ -61,6 +75,8 @@ describe('inversion pool', () => {
   });
 
   it('validates its size with a message of the usual shape', () => {
-    expect(() => createInversionPool({ threads: 0 })).toThrow('Expected integer between 1 and 256 for threads but received 0 of type number');
+    expect(() => createInversionPool({ threads: 0 })).toThrow(
+      'Expected integer between 1 and 256 for threads but received 0 of type number',
+    );
   });
 });

@@ -62,7 +62,9 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
   const threads = options.threads ?? availableParallelism();
   const slicesPerThread = options.slicesPerThread ?? 2;
   if (!Number.isInteger(threads) || threads < 1 || threads > 256) {
-    throw new TypeError(`Expected integer between 1 and 256 for threads but received ${threads} of type ${typeof threads}`);
+    throw new TypeError(
+      `Expected integer between 1 and 256 for threads but received ${threads} of type ${typeof threads}`,
+    );
   }
   if (!Number.isInteger(slicesPerThread) || slicesPerThread < 1 || slicesPerThread > 64) {
     throw new TypeError(
@@ -85,7 +87,9 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
     async invertFrame(plan, input, output, width, height) {
       const pixels = width * height;
       if (input.length < pixels * 3 || output.length < pixels * 3) {
-        throw new TypeError(`Expected at least ${pixels * 3} samples for input and output but received ${input.length} and ${output.length}`);
+        throw new TypeError(
+          `Expected at least ${pixels * 3} samples for input and output but received ${input.length} and ${output.length}`,
+        );
       }
       if (!(input.buffer instanceof SharedArrayBuffer) || !(output.buffer instanceof SharedArrayBuffer)) {
         throw new TypeError('Expected input and output backed by a SharedArrayBuffer');
@@ -96,7 +100,9 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
       const tasks: Promise<number>[] = [];
       for (let row = 0; row < height; row += rowsPerSlice) {
         const rows = Math.min(rowsPerSlice, height - row);
-        tasks.push(piscina.run({ plan: shared, input, output, firstPixel: row * width, pixelCount: rows * width }));
+        tasks.push(
+          piscina.run({ plan: shared, input, output, firstPixel: row * width, pixelCount: rows * width }),
+        );
       }
       await Promise.all(tasks);
     },
@@ -109,8 +115,14 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
 /** A zeroed typed array of `length` elements on a SharedArrayBuffer, for `invertFrame`. */
 export function sharedArray(kind: Uint8ArrayConstructor, length: number): Uint8Array;
 export function sharedArray(kind: Uint16ArrayConstructor, length: number): Uint16Array;
-export function sharedArray(kind: Uint8ArrayConstructor | Uint16ArrayConstructor, length: number): Uint8Array | Uint16Array;
-export function sharedArray(kind: Uint8ArrayConstructor | Uint16ArrayConstructor, length: number): Uint8Array | Uint16Array {
+export function sharedArray(
+  kind: Uint8ArrayConstructor | Uint16ArrayConstructor,
+  length: number,
+): Uint8Array | Uint16Array;
+export function sharedArray(
+  kind: Uint8ArrayConstructor | Uint16ArrayConstructor,
+  length: number,
+): Uint8Array | Uint16Array {
   const buffer = new SharedArrayBuffer(length * kind.BYTES_PER_ELEMENT);
   return kind === Uint8Array ? new Uint8Array(buffer) : new Uint16Array(buffer);
 }

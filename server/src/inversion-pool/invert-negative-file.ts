@@ -95,7 +95,13 @@ export async function invertNegativeFile(
   try {
     measured = measureFrame(negative, settings);
     const plan = compileInversion(
-      paramsFor(settings, measured.base, settings.levels ?? measured.levels, outKind === Uint8Array ? 'u8' : 'u16', settings.render),
+      paramsFor(
+        settings,
+        measured.base,
+        settings.levels ?? measured.levels,
+        outKind === Uint8Array ? 'u8' : 'u16',
+        settings.render,
+      ),
       measured.density,
     );
     await pool.invertFrame(plan, negative.data, pixels, negative.width, negative.height);

@@ -10,7 +10,9 @@ export function sharePlan<T>(plan: T): T {
 function shareValue(value: unknown): unknown {
   if (ArrayBuffer.isView(value) && !(value instanceof DataView)) {
     if (value.buffer instanceof SharedArrayBuffer) return value;
-    const kind = value.constructor as new (buffer: SharedArrayBuffer) => ArrayBufferView & { set(a: ArrayLike<number>): void };
+    const kind = value.constructor as new (
+      buffer: SharedArrayBuffer,
+    ) => ArrayBufferView & { set(a: ArrayLike<number>): void };
     const copy = new kind(new SharedArrayBuffer(value.byteLength));
     copy.set(value as unknown as ArrayLike<number>);
     return copy;

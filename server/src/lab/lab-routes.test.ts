@@ -26,12 +26,20 @@ describe('GET /api/lab', () => {
   it('lets an admin rename the lab, and records the change', async () => {
     await addUser(t.db, 'admin', 'boss@lab.test');
     const admin = await signedIn(t.app, 'boss@lab.test');
-    const next = { name: 'Harbour Street Film Lab', town: 'Wrenmouth', address: '2 Harbour Street, Wrenmouth' };
+    const next = {
+      name: 'Harbour Street Film Lab',
+      town: 'Wrenmouth',
+      address: '2 Harbour Street, Wrenmouth',
+    };
     const res = await admin.send('put', '/api/lab', next);
     expect(res.status).toBe(200);
     expect((await request(t.app).get('/api/lab')).body).toEqual(next);
     const audit = await admin.get('/api/audit?action=settings-changed');
-    expect(audit.body.entries[0]).toMatchObject({ actorEmail: 'boss@lab.test', target: 'lab', details: { after: next } });
+    expect(audit.body.entries[0]).toMatchObject({
+      actorEmail: 'boss@lab.test',
+      target: 'lab',
+      details: { after: next },
+    });
   });
 
   it('refuses an empty lab name, naming the field', async () => {

@@ -20,12 +20,21 @@ export async function readLab(db: Kysely<Database>): Promise<Lab> {
 }
 
 export const labRoutes: RouteModule = (api, { db, clock }) => {
-  api.define({ method: 'get', path: '/api/lab', roles: 'public', summary: 'The lab’s name and address' }, async (_req, res) => {
-    res.json(await readLab(db));
-  });
+  api.define(
+    { method: 'get', path: '/api/lab', roles: 'public', summary: 'The lab’s name and address' },
+    async (_req, res) => {
+      res.json(await readLab(db));
+    },
+  );
 
   api.define(
-    { method: 'put', path: '/api/lab', roles: ['admin'], body: labSchema, summary: 'Rename the lab or change its address' },
+    {
+      method: 'put',
+      path: '/api/lab',
+      roles: ['admin'],
+      body: labSchema,
+      summary: 'Rename the lab or change its address',
+    },
     async (_req, res, { body, user }) => {
       const before = await readLab(db);
       await db.transaction().execute(async (trx) => {
@@ -34,7 +43,13 @@ export const labRoutes: RouteModule = (api, { db, clock }) => {
           .values({ key: 'lab', value: JSON.stringify(body) })
           .onConflict((oc) => oc.column('key').doUpdateSet({ value: JSON.stringify(body) }))
           .execute();
-        await recordAudit(trx, { at: clock.now(), actor: user!, action: 'settings-changed', target: 'lab', details: { before, after: body } });
+        await recordAudit(trx, {
+          at: clock.now(),
+          actor: user!,
+          action: 'settings-changed',
+          target: 'lab',
+          details: { before, after: body },
+        });
       });
       res.json(body);
     },

@@ -27,14 +27,29 @@ export interface TestApp {
 }
 
 /** A fresh app over a fresh migrated database in a temporary folder. */
-export async function createTestApp(env: Record<string, string> = {}, extra: Partial<AppDeps> = {}): Promise<TestApp> {
+export async function createTestApp(
+  env: Record<string, string> = {},
+  extra: Partial<AppDeps> = {},
+): Promise<TestApp> {
   const dataDir = mkdtempSync(join(tmpdir(), 'clearbase-test-'));
-  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, SESSION_SECRET: 'test-secret-'.padEnd(40, 'x'), ...env });
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    DATA_DIR: dataDir,
+    SESSION_SECRET: 'test-secret-'.padEnd(40, 'x'),
+    ...env,
+  });
   const db = openDatabase(join(dataDir, 'test.sqlite'));
   await migrateToLatest(db);
   let now = new Date('2026-03-02T09:00:00Z');
   const clock = { now: () => new Date(now), set: (at: Date) => (now = at) };
-  const app = createApp({ db, config, clock, logger: pino({ level: 'silent' }), webRoot: join(dataDir, 'no-web'), ...extra });
+  const app = createApp({
+    db,
+    config,
+    clock,
+    logger: pino({ level: 'silent' }),
+    webRoot: join(dataDir, 'no-web'),
+    ...extra,
+  });
   return {
     app,
     db,
@@ -50,7 +65,12 @@ export async function createTestApp(env: Record<string, string> = {}, extra: Par
 export const testPassword = 'correct-horse-battery';
 
 /** Adds a user with `testPassword`; returns its id. */
-export async function addUser(db: Kysely<Database>, role: Role, email = `${role}@lab.test`, disabled = false): Promise<number> {
+export async function addUser(
+  db: Kysely<Database>,
+  role: Role,
+  email = `${role}@lab.test`,
+  disabled = false,
+): Promise<number> {
   const row = await insertUser(db, {
     email,
     name: `Test ${role}`,

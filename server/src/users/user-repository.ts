@@ -3,7 +3,11 @@ import type { Kysely } from 'kysely';
 import type { Database, NewUserRow, UserRow, UserRowUpdate } from '../db/database';
 
 export function findUserByEmail(db: Kysely<Database>, email: string): Promise<UserRow | undefined> {
-  return db.selectFrom('users').selectAll().where('email', '=', email.trim().toLowerCase()).executeTakeFirst();
+  return db
+    .selectFrom('users')
+    .selectAll()
+    .where('email', '=', email.trim().toLowerCase())
+    .executeTakeFirst();
 }
 
 export function findUserById(db: Kysely<Database>, id: number): Promise<UserRow | undefined> {
@@ -22,12 +26,19 @@ export async function insertUser(db: Kysely<Database>, row: NewUserRow): Promise
     .executeTakeFirstOrThrow();
 }
 
-export async function updateUser(db: Kysely<Database>, id: number, changes: UserRowUpdate): Promise<UserRow | undefined> {
+export async function updateUser(
+  db: Kysely<Database>,
+  id: number,
+  changes: UserRowUpdate,
+): Promise<UserRow | undefined> {
   return db.updateTable('users').set(changes).where('id', '=', id).returningAll().executeTakeFirst();
 }
 
 export async function countUsers(db: Kysely<Database>): Promise<number> {
-  const { n } = await db.selectFrom('users').select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
+  const { n } = await db
+    .selectFrom('users')
+    .select((eb) => eb.fn.countAll<number>().as('n'))
+    .executeTakeFirstOrThrow();
   return Number(n);
 }
 
@@ -36,5 +47,10 @@ export function toUser(row: UserRow): User {
 }
 
 export function toUserRecord(row: UserRow): UserRecord {
-  return { ...toUser(row), disabled: row.disabled === 1, createdAt: row.created_at, lastSignInAt: row.last_sign_in_at };
+  return {
+    ...toUser(row),
+    disabled: row.disabled === 1,
+    createdAt: row.created_at,
+    lastSignInAt: row.last_sign_in_at,
+  };
 }

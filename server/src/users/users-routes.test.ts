@@ -1,5 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addUser, client, createTestApp, signedIn, testPassword, type Client, type TestApp } from '../test-support/test-app';
+import {
+  addUser,
+  client,
+  createTestApp,
+  signedIn,
+  testPassword,
+  type Client,
+  type TestApp,
+} from '../test-support/test-app';
 
 let t: TestApp;
 let admin: Client;
@@ -16,17 +24,37 @@ describe('users, for admins', () => {
     const res = await admin.get('/api/users');
     expect(res.status).toBe(200);
     expect(res.body.users).toEqual([
-      { id: adminId, email: 'admin@lab.test', name: 'Test admin', role: 'admin', disabled: false, createdAt: expect.any(String), lastSignInAt: '2026-03-02T09:00:00.000Z' },
+      {
+        id: adminId,
+        email: 'admin@lab.test',
+        name: 'Test admin',
+        role: 'admin',
+        disabled: false,
+        createdAt: expect.any(String),
+        lastSignInAt: '2026-03-02T09:00:00.000Z',
+      },
     ]);
   });
 
   it('creates a user with a given password, who can then sign in', async () => {
-    const res = await admin.post('/api/users', { email: 'Ana@Lab.test', name: 'Ana Vell', role: 'operator', password: 'a-long-password' });
+    const res = await admin.post('/api/users', {
+      email: 'Ana@Lab.test',
+      name: 'Ana Vell',
+      role: 'operator',
+      password: 'a-long-password',
+    });
     expect(res.status).toBe(201);
-    expect(res.body.user).toMatchObject({ email: 'ana@lab.test', name: 'Ana Vell', role: 'operator', disabled: false });
+    expect(res.body.user).toMatchObject({
+      email: 'ana@lab.test',
+      name: 'Ana Vell',
+      role: 'operator',
+      disabled: false,
+    });
     expect(res.body.temporaryPassword).toBeUndefined();
     const c = await client(t.app);
-    expect((await c.post('/api/auth/login', { email: 'ana@lab.test', password: 'a-long-password' })).status).toBe(200);
+    expect(
+      (await c.post('/api/auth/login', { email: 'ana@lab.test', password: 'a-long-password' })).status,
+    ).toBe(200);
   });
 
   it('creates a user without a password and returns a temporary one that works', async () => {
@@ -34,7 +62,10 @@ describe('users, for admins', () => {
     expect(res.status).toBe(201);
     expect(res.body.temporaryPassword).toMatch(/^[A-Za-z0-9_-]{20}$/);
     const c = await client(t.app);
-    expect((await c.post('/api/auth/login', { email: 'bo@lab.test', password: res.body.temporaryPassword })).status).toBe(200);
+    expect(
+      (await c.post('/api/auth/login', { email: 'bo@lab.test', password: res.body.temporaryPassword }))
+        .status,
+    ).toBe(200);
   });
 
   it('refuses a duplicate e-mail with 409', async () => {
@@ -56,7 +87,9 @@ describe('users, for admins', () => {
     expect((await cal.get('/api/auth/me')).status).toBe(401);
     expect((await again.get('/api/auth/me')).status).toBe(401);
     const c = await client(t.app);
-    expect((await c.post('/api/auth/login', { email: 'cal@lab.test', password: testPassword })).status).toBe(401);
+    expect((await c.post('/api/auth/login', { email: 'cal@lab.test', password: testPassword })).status).toBe(
+      401,
+    );
   });
 
   it('refuses to let an admin disable or demote themself (409)', async () => {
@@ -80,23 +113,45 @@ describe('audit log', () => {
   it('records sign-ins, failed sign-ins, sign-outs, creations, role changes, disabling and password changes', async () => {
     const c = await client(t.app);
     await c.post('/api/auth/login', { email: 'admin@lab.test', password: 'wrong-one' });
-    const dee = await admin.post('/api/users', { email: 'dee@lab.test', name: 'Dee', role: 'customer', password: 'dee-password-1' });
+    const dee = await admin.post('/api/users', {
+      email: 'dee@lab.test',
+      name: 'Dee',
+      role: 'customer',
+      password: 'dee-password-1',
+    });
     await admin.patch(`/api/users/${dee.body.user.id}`, { role: 'operator' });
     const deeClient = await client(t.app);
     await deeClient.post('/api/auth/login', { email: 'dee@lab.test', password: 'dee-password-1' });
-    await deeClient.post('/api/auth/password', { currentPassword: 'dee-password-1', newPassword: 'dee-password-2' });
+    await deeClient.post('/api/auth/password', {
+      currentPassword: 'dee-password-1',
+      newPassword: 'dee-password-2',
+    });
     await deeClient.post('/api/auth/logout');
     await admin.patch(`/api/users/${dee.body.user.id}`, { disabled: true });
 
     const res = await admin.get('/api/audit?limit=500');
     expect(res.status).toBe(200);
     const actions = new Set(res.body.entries.map((e: { action: string }) => e.action));
-    for (const a of ['sign-in', 'sign-in-failed', 'sign-out', 'user-created', 'user-role-changed', 'user-disabled', 'password-changed']) {
+    for (const a of [
+      'sign-in',
+      'sign-in-failed',
+      'sign-out',
+      'user-created',
+      'user-role-changed',
+      'user-disabled',
+      'password-changed',
+    ]) {
       expect(actions).toContain(a);
     }
     expect(res.body.total).toBe(res.body.entries.length);
-    const role = res.body.entries.find((e: { action: string; target: string | null }) => e.action === 'user-role-changed' && e.target === `user:${dee.body.user.id}`);
-    expect(role).toMatchObject({ actorEmail: 'admin@lab.test', details: { from: 'customer', to: 'operator' } });
+    const role = res.body.entries.find(
+      (e: { action: string; target: string | null }) =>
+        e.action === 'user-role-changed' && e.target === `user:${dee.body.user.id}`,
+    );
+    expect(role).toMatchObject({
+      actorEmail: 'admin@lab.test',
+      details: { from: 'customer', to: 'operator' },
+    });
   });
 
   it('filters by action and pages with limit and offset', async () => {

@@ -6,21 +6,39 @@ import { generateTemporaryPassword, hashPassword } from '../auth/password-hash';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import type { UserRowUpdate } from '../db/database';
-import { findUserByEmail, findUserById, insertUser, listUsers, toUserRecord, updateUser } from './user-repository';
+import {
+  findUserByEmail,
+  findUserById,
+  insertUser,
+  listUsers,
+  toUserRecord,
+  updateUser,
+} from './user-repository';
 
 const userIdParams = z.object({ id: z.coerce.number().int().positive('Expected a positive user id') });
 
 function isUniqueViolation(err: unknown): boolean {
-  return typeof err === 'object' && err !== null && (err as { code?: string }).code === 'SQLITE_CONSTRAINT_UNIQUE';
+  return (
+    typeof err === 'object' && err !== null && (err as { code?: string }).code === 'SQLITE_CONSTRAINT_UNIQUE'
+  );
 }
 
 export const usersRoutes: RouteModule = (api, { db, clock }) => {
-  api.define({ method: 'get', path: '/api/users', roles: ['admin'], summary: 'All accounts' }, async (_req, res) => {
-    res.json({ users: (await listUsers(db)).map(toUserRecord) });
-  });
+  api.define(
+    { method: 'get', path: '/api/users', roles: ['admin'], summary: 'All accounts' },
+    async (_req, res) => {
+      res.json({ users: (await listUsers(db)).map(toUserRecord) });
+    },
+  );
 
   api.define(
-    { method: 'post', path: '/api/users', roles: ['admin'], body: createUserRequestSchema, summary: 'Create an account' },
+    {
+      method: 'post',
+      path: '/api/users',
+      roles: ['admin'],
+      body: createUserRequestSchema,
+      summary: 'Create an account',
+    },
     async (_req, res, { body, user: actor }) => {
       if (await findUserByEmail(db, body.email)) {
         throw new AppError('email-taken', 409, `An account with the e-mail ${body.email} already exists.`);
@@ -68,9 +86,14 @@ export const usersRoutes: RouteModule = (api, { db, clock }) => {
       const existing = await findUserById(db, params.id);
       if (!existing) throw new AppError('user-not-found', 404, `No user with id ${params.id}.`);
       if (existing.id === actor!.id) {
-        if (body.disabled === true) throw new AppError('cannot-disable-self', 409, 'You cannot disable your own account.');
+        if (body.disabled === true)
+          throw new AppError('cannot-disable-self', 409, 'You cannot disable your own account.');
         if (body.role && body.role !== existing.role) {
-          throw new AppError('cannot-change-own-role', 409, 'You cannot change your own role; ask another admin.');
+          throw new AppError(
+            'cannot-change-own-role',
+            409,
+            'You cannot change your own role; ask another admin.',
+          );
         }
       }
       const changes: UserRowUpdate = {};
@@ -87,13 +110,31 @@ export const usersRoutes: RouteModule = (api, { db, clock }) => {
         const target = `user:${existing.id}`;
         const at = clock.now();
         if (changes.name !== undefined) {
-          await recordAudit(trx, { at, actor: actor!, action: 'user-renamed', target, details: { from: existing.name, to: row.name } });
+          await recordAudit(trx, {
+            at,
+            actor: actor!,
+            action: 'user-renamed',
+            target,
+            details: { from: existing.name, to: row.name },
+          });
         }
         if (changes.role !== undefined) {
-          await recordAudit(trx, { at, actor: actor!, action: 'user-role-changed', target, details: { from: existing.role, to: row.role } });
+          await recordAudit(trx, {
+            at,
+            actor: actor!,
+            action: 'user-role-changed',
+            target,
+            details: { from: existing.role, to: row.role },
+          });
         }
         if (changes.disabled !== undefined) {
-          await recordAudit(trx, { at, actor: actor!, action: row.disabled ? 'user-disabled' : 'user-enabled', target, details: { email: row.email } });
+          await recordAudit(trx, {
+            at,
+            actor: actor!,
+            action: row.disabled ? 'user-disabled' : 'user-enabled',
+            target,
+            details: { email: row.email },
+          });
         }
         // a disabled account, or one whose role changed, signs in again
         if (changes.disabled === 1 || changes.role !== undefined) await dropUserSessions(trx, existing.id);

@@ -19,5 +19,8 @@ export const auditQuerySchema = z.object({
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
 
-export const auditListResponseSchema = z.object({ entries: z.array(auditEntrySchema), total: z.number().int() });
+export const auditListResponseSchema = z.object({
+  entries: z.array(auditEntrySchema),
+  total: z.number().int(),
+});
 export type AuditListResponse = z.infer<typeof auditListResponseSchema>;

@@ -33,9 +33,17 @@ export const channelCurveSchema = z
       const a = curve.points[i - 1]!;
       const b = curve.points[i]!;
       if (!(b.logExposure > a.logExposure))
-        ctx.addIssue({ code: 'custom', path: ['points', i, 'logExposure'], message: 'log exposure must increase from point to point' });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['points', i, 'logExposure'],
+          message: 'log exposure must increase from point to point',
+        });
       if (!(b.density > a.density))
-        ctx.addIssue({ code: 'custom', path: ['points', i, 'density'], message: 'density must increase from point to point' });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['points', i, 'density'],
+          message: 'density must increase from point to point',
+        });
     }
   });
 export type ChannelCurve = z.infer<typeof channelCurveSchema>;
@@ -50,8 +58,15 @@ export type Balance = z.infer<typeof balanceSchema>;
 
 /** Print-like tone curve: contrast (1 = as scene), black and white points in scene-linear units. */
 export const toneSchema = z
-  .strictObject({ contrast: z.number().positive().max(4), blackPoint: z.number().min(0).max(0.5), whitePoint: z.number().positive().max(16) })
-  .refine((t) => t.whitePoint > t.blackPoint, { message: 'white point must be above black point', path: ['whitePoint'] });
+  .strictObject({
+    contrast: z.number().positive().max(4),
+    blackPoint: z.number().min(0).max(0.5),
+    whitePoint: z.number().positive().max(16),
+  })
+  .refine((t) => t.whitePoint > t.blackPoint, {
+    message: 'white point must be above black point',
+    path: ['whitePoint'],
+  });
 export type Tone = z.infer<typeof toneSchema>;
 
 /** A versioned stock profile: everything needed to invert one film stock. */
@@ -94,18 +109,28 @@ function formatPath(path: readonly PropertyKey[]): string {
  * Validates an untrusted profile document.
  * @example validateProfileDocument(JSON.parse(text)) // { ok: true, value } or { ok: false, errors: [{ path: 'curves.red.points[2].density', message }] }
  */
-export function validateProfileDocument(json: unknown): { ok: true; value: ProfileDocument } | { ok: false; errors: ProfileFieldError[] } {
+export function validateProfileDocument(
+  json: unknown,
+): { ok: true; value: ProfileDocument } | { ok: false; errors: ProfileFieldError[] } {
   const result = profileDocumentSchema.safeParse(json);
   if (result.success) return { ok: true, value: result.data };
-  return { ok: false, errors: result.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })) };
+  return {
+    ok: false,
+    errors: result.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })),
+  };
 }
 
 /**
  * Validates an untrusted scanner profile.
  * @example validateScannerProfile({ name: 'A', encoding: 'linear', gamma: 1, blackLevel: [0, 0, 0], gains: [1, 1, 1] }).ok // true
  */
-export function validateScannerProfile(json: unknown): { ok: true; value: ScannerProfile } | { ok: false; errors: ProfileFieldError[] } {
+export function validateScannerProfile(
+  json: unknown,
+): { ok: true; value: ScannerProfile } | { ok: false; errors: ProfileFieldError[] } {
   const result = scannerProfileSchema.safeParse(json);
   if (result.success) return { ok: true, value: result.data };
-  return { ok: false, errors: result.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })) };
+  return {
+    ok: false,
+    errors: result.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })),
+  };
 }

@@ -15,11 +15,15 @@ const SAMPLES = 1 << 18;
  * Shadow and highlight densities (above base, after crosstalk) of a frame, per channel, from a
  * histogram of about 262 000 sampled pixels.
  */
-export function densityLevels(plan: Pick<InversionPlan, 'densityLut' | 'crosstalk'>, data: Uint16Array): { shadow: Rgb; highlight: Rgb } {
+export function densityLevels(
+  plan: Pick<InversionPlan, 'densityLut' | 'crosstalk'>,
+  data: Uint16Array,
+): { shadow: Rgb; highlight: Rgb } {
   const pixels = data.length / 3;
   const step = Math.max(1, Math.floor(pixels / SAMPLES));
   const hist = new Uint32Array(3 * BINS);
-  const d = plan.densityLut, m = plan.crosstalk;
+  const d = plan.densityLut,
+    m = plan.crosstalk;
   const scale = (BINS - 1) / (D_MAX - D_MIN);
   const bin = (x: number) => {
     const q = ((x - D_MIN) * scale + 0.5) | 0;
@@ -28,12 +32,15 @@ export function densityLevels(plan: Pick<InversionPlan, 'densityLut' | 'crosstal
   let n = 0;
   for (let p = 0; p < pixels; p += step, n++) {
     const i = p * 3;
-    const r = d[data[i]!]!, g = d[65536 + data[i + 1]!]!, b = d[131072 + data[i + 2]!]!;
+    const r = d[data[i]!]!,
+      g = d[65536 + data[i + 1]!]!,
+      b = d[131072 + data[i + 2]!]!;
     hist[bin(m ? m[0]! * r + m[1]! * g + m[2]! * b : r)]!++;
     hist[BINS + bin(m ? m[3]! * r + m[4]! * g + m[5]! * b : g)]!++;
     hist[2 * BINS + bin(m ? m[6]! * r + m[7]! * g + m[8]! * b : b)]!++;
   }
-  const shadow = [0, 0, 0] as Rgb, highlight = [0, 0, 0] as Rgb;
+  const shadow = [0, 0, 0] as Rgb,
+    highlight = [0, 0, 0] as Rgb;
   for (let c = 0; c < 3; c++) {
     // Thin negative = deep shadow; dense negative = highlight.
     shadow[c] = D_MIN + percentileBin(hist, c * BINS, n, LOW) / scale;

@@ -24,8 +24,14 @@ const EVEN = 0.03;
 
 function linear(code: number, scanner: ScannerProfile): number {
   const x = code / 65535;
-  const v = scanner.encoding === 'srgb' ? (x <= 0.04045 ? x / 12.92 : ((x + 0.055) / 1.055) ** 2.4) // IEC 61966-2-1
-    : scanner.encoding === 'gamma' ? x ** scanner.gamma : x;
+  const v =
+    scanner.encoding === 'srgb'
+      ? x <= 0.04045
+        ? x / 12.92
+        : ((x + 0.055) / 1.055) ** 2.4 // IEC 61966-2-1
+      : scanner.encoding === 'gamma'
+        ? x ** scanner.gamma
+        : x;
   return (v - scanner.blackLevel) / (1 - scanner.blackLevel);
 }
 
@@ -35,10 +41,16 @@ function medianOf(values: number[]): number {
 }
 
 /** Per-channel median of a rectangle, in linear light. Pixels of bare light are left out. */
-export function baseFromRegion(image: RgbImage, region: Region, scanner: ScannerProfile = LINEAR_SCANNER): FilmBase {
+export function baseFromRegion(
+  image: RgbImage,
+  region: Region,
+  scanner: ScannerProfile = LINEAR_SCANNER,
+): FilmBase {
   const [x0, y0, w, h] = region;
   if (x0 < 0 || y0 < 0 || w < 1 || h < 1 || x0 + w > image.width || y0 + h > image.height) {
-    throw new RangeError(`Expected a region inside the ${image.width} × ${image.height} image but received ${region.join(',')}`);
+    throw new RangeError(
+      `Expected a region inside the ${image.width} × ${image.height} image but received ${region.join(',')}`,
+    );
   }
   const step = Math.max(1, Math.floor(Math.sqrt((w * h) / 20000)));
   const ch: number[][] = [[], [], []];
@@ -46,9 +58,16 @@ export function baseFromRegion(image: RgbImage, region: Region, scanner: Scanner
   for (let y = y0; y < y0 + h; y += step) {
     for (let x = x0; x < x0 + w; x += step) {
       const i = (y * image.width + x) * 3;
-      const r = image.data[i]!, g = image.data[i + 1]!, b = image.data[i + 2]!;
-      if (r >= CLIP || g >= CLIP || b >= CLIP) { clipped++; continue; }
-      ch[0]!.push(r); ch[1]!.push(g); ch[2]!.push(b);
+      const r = image.data[i]!,
+        g = image.data[i + 1]!,
+        b = image.data[i + 2]!;
+      if (r >= CLIP || g >= CLIP || b >= CLIP) {
+        clipped++;
+        continue;
+      }
+      ch[0]!.push(r);
+      ch[1]!.push(g);
+      ch[2]!.push(b);
     }
   }
   const total = clipped + ch[0]!.length;
@@ -67,14 +86,24 @@ export function detectFilmBase(image: RgbImage, scanner: ScannerProfile = LINEAR
   const means: number[] = [];
   for (let by = 0; by + block <= image.height; by += block) {
     for (let bx = 0; bx + block <= image.width; bx += block) {
-      let n = 0, sum = 0, sum2 = 0, clipped = false;
+      let n = 0,
+        sum = 0,
+        sum2 = 0,
+        clipped = false;
       for (let y = by; y < by + block && !clipped; y += step) {
         for (let x = bx; x < bx + block; x += step) {
           const i = (y * image.width + x) * 3;
-          const r = image.data[i]!, g = image.data[i + 1]!, b = image.data[i + 2]!;
-          if (r >= CLIP || g >= CLIP || b >= CLIP) { clipped = true; break; }
+          const r = image.data[i]!,
+            g = image.data[i + 1]!,
+            b = image.data[i + 2]!;
+          if (r >= CLIP || g >= CLIP || b >= CLIP) {
+            clipped = true;
+            break;
+          }
           const l = r + g + b;
-          n++; sum += l; sum2 += l * l;
+          n++;
+          sum += l;
+          sum2 += l * l;
         }
       }
       if (clipped || n === 0) continue;
@@ -89,7 +118,11 @@ export function detectFilmBase(image: RgbImage, scanner: ScannerProfile = LINEAR
   // Confident when the patch is even and clearly brighter (thinner) than the typical frame area.
   const separation = Math.min(1, Math.max(0, (best.mean / (medianOf(means) || 1) - 1) / 0.3));
   const evenness = 1 - best.cv / EVEN;
-  return { ...base, confidence: Math.round(Math.min(base.confidence, 0.5 + 0.5 * separation) * (0.7 + 0.3 * evenness) * 1000) / 1000 };
+  return {
+    ...base,
+    confidence:
+      Math.round(Math.min(base.confidence, 0.5 + 0.5 * separation) * (0.7 + 0.3 * evenness) * 1000) / 1000,
+  };
 }
 
 /** Roll base: per-channel median of the frames' bases, leaving out frames with confidence below 0.3. */

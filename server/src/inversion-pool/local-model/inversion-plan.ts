@@ -45,7 +45,8 @@ const WHITE = 0.9;
 
 function linearise(v: number, scanner: ScannerProfile): number {
   let x = v;
-  if (scanner.encoding === 'srgb') x = x <= 0.04045 ? x / 12.92 : ((x + 0.055) / 1.055) ** 2.4; // IEC 61966-2-1
+  if (scanner.encoding === 'srgb')
+    x = x <= 0.04045 ? x / 12.92 : ((x + 0.055) / 1.055) ** 2.4; // IEC 61966-2-1
   else if (scanner.encoding === 'gamma') x = x ** scanner.gamma;
   return (x - scanner.blackLevel) / (1 - scanner.blackLevel);
 }
@@ -85,7 +86,10 @@ export function compileDensity(params: Pick<InversionParams, 'base' | 'scanner' 
  * Compiles the parameters of one frame into lookup tables. Pass `density` when it was already
  * compiled for the same base, scanner and stock.
  */
-export function compileInversion(params: InversionParams, density: DensityStage = compileDensity(params)): InversionPlan {
+export function compileInversion(
+  params: InversionParams,
+  density: DensityStage = compileDensity(params),
+): InversionPlan {
   const { densityLut, crosstalk } = density;
   const outputLut = new Uint16Array(3 * OUT_SIZE);
   const full = params.output === 'u8' ? 255 : 65535;
@@ -122,11 +126,22 @@ export function compileInversion(params: InversionParams, density: DensityStage 
     directLut = new Uint16Array(3 * 65536);
     for (let c = 0; c < 3; c++) {
       for (let code = 0; code < 65536; code++) {
-        directLut[c * 65536 + code] = outputLut[c * OUT_SIZE + quantiseDensity(densityLut[c * 65536 + code]!, DENSITY_MIN, densityScale)]!;
+        directLut[c * 65536 + code] =
+          outputLut[
+            c * OUT_SIZE + quantiseDensity(densityLut[c * 65536 + code]!, DENSITY_MIN, densityScale)
+          ]!;
       }
     }
   }
-  return { output: params.output, densityLut, crosstalk, outputLut, directLut, densityMin: DENSITY_MIN, densityScale };
+  return {
+    output: params.output,
+    densityLut,
+    crosstalk,
+    outputLut,
+    directLut,
+    densityMin: DENSITY_MIN,
+    densityScale,
+  };
 }
 
 function quantiseDensity(x: number, densityMin: number, densityScale: number): number {

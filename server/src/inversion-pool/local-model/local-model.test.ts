@@ -38,7 +38,11 @@ describe('film base', () => {
   });
 
   it('takes the roll base as the median of confident frames', () => {
-    const f = (g: number, confidence: number) => ({ rgb: [g, g, g] as [number, number, number], region: [0, 0, 1, 1] as [number, number, number, number], confidence });
+    const f = (g: number, confidence: number) => ({
+      rgb: [g, g, g] as [number, number, number],
+      region: [0, 0, 1, 1] as [number, number, number, number],
+      confidence,
+    });
     expect(rollBase([f(0.5, 0.9), f(0.6, 0.9), f(0.55, 0.8), f(0.1, 0.1)]).rgb).toEqual([0.55, 0.55, 0.55]);
   });
 });
@@ -47,8 +51,17 @@ describe('inversion plan', () => {
   it('turns the negative grey ramp into a positive that gets lighter left to right', () => {
     const neg = synthesizeNegative({ width: 400, height: 200, stock, seed: 5 });
     const base = detectFilmBase(neg);
-    const params = { stock: { ...NEUTRAL_STOCK, gamma: stock.gamma }, scanner: LINEAR_SCANNER, base: base.rgb, render: 'reference' as const, output: 'u8' as const };
-    const levels = densityLevels(compileInversion({ ...params, levels: { shadow: [0, 0, 0], highlight: [1, 1, 1] } }), neg.data);
+    const params = {
+      stock: { ...NEUTRAL_STOCK, gamma: stock.gamma },
+      scanner: LINEAR_SCANNER,
+      base: base.rgb,
+      render: 'reference' as const,
+      output: 'u8' as const,
+    };
+    const levels = densityLevels(
+      compileInversion({ ...params, levels: { shadow: [0, 0, 0], highlight: [1, 1, 1] } }),
+      neg.data,
+    );
     const plan = compileInversion({ ...params, levels });
     const out = new Uint8Array(neg.data.length);
     applyInversion(plan, neg.data, out, 0, 400 * 200);
@@ -63,7 +76,14 @@ describe('inversion plan', () => {
   });
 
   it('plans are structured-cloneable', () => {
-    const plan = compileInversion({ stock: NEUTRAL_STOCK, scanner: LINEAR_SCANNER, base: [0.9, 0.9, 0.9], levels: { shadow: [0.1, 0.1, 0.1], highlight: [1.5, 1.5, 1.5] }, render: 'print', output: 'u16' });
+    const plan = compileInversion({
+      stock: NEUTRAL_STOCK,
+      scanner: LINEAR_SCANNER,
+      base: [0.9, 0.9, 0.9],
+      levels: { shadow: [0.1, 0.1, 0.1], highlight: [1.5, 1.5, 1.5] },
+      render: 'print',
+      output: 'u16',
+    });
     expect(structuredClone(plan)).toEqual(plan);
   });
 });
@@ -71,7 +91,14 @@ describe('inversion plan', () => {
 describe('per-channel shortcut', () => {
   it('gives the same pixels as the density path when there is no crosstalk', () => {
     const neg = synthesizeNegative({ width: 120, height: 80, stock, seed: 9 });
-    const plan = compileInversion({ stock: NEUTRAL_STOCK, scanner: LINEAR_SCANNER, base: neg.base, levels: { shadow: [0.05, 0.05, 0.05], highlight: [1.2, 1.3, 1.4] }, render: 'print', output: 'u16' });
+    const plan = compileInversion({
+      stock: NEUTRAL_STOCK,
+      scanner: LINEAR_SCANNER,
+      base: neg.base,
+      levels: { shadow: [0.05, 0.05, 0.05], highlight: [1.2, 1.3, 1.4] },
+      render: 'print',
+      output: 'u16',
+    });
     expect(plan.directLut).not.toBeNull();
     const fast = new Uint16Array(neg.data.length);
     const slow = new Uint16Array(neg.data.length);

@@ -63,8 +63,13 @@ export function synthesizeNegative(options: SynthOptions): SynthNegative {
   const exposure = (options.exposureStops ?? 0) * Math.log10(2);
   const base = [0, 1, 2].map((c) => LAMP[c]! * 10 ** -stock.baseDensity[c]!) as Rgb;
   // Patch colours of the scene (reflectances), drawn once per negative.
-  const cols = 6, rows = 3;
-  const patches = Array.from({ length: cols * rows }, () => [0.03 + 0.8 * rand(), 0.03 + 0.8 * rand(), 0.03 + 0.8 * rand()]);
+  const cols = 6,
+    rows = 3;
+  const patches = Array.from({ length: cols * rows }, () => [
+    0.03 + 0.8 * rand(),
+    0.03 + 0.8 * rand(),
+    0.03 + 0.8 * rand(),
+  ]);
   // Density for each channel and reflectance level, tabulated so large frames are quick to make.
   const levels = 4096;
   const table = new Float32Array(3 * levels);
@@ -78,10 +83,15 @@ export function synthesizeNegative(options: SynthOptions): SynthNegative {
   }
   const holeW = Math.max(2, Math.round(rebateH * 0.5));
   const holePitch = holeW * 3;
-  const sceneTop = rebateH, sceneBottom = height - rebateH;
+  const sceneTop = rebateH,
+    sceneBottom = height - rebateH;
   for (let y = 0; y < height; y++) {
     const inRebate = y < sceneTop || y >= sceneBottom;
-    const holeRow = inRebate && (y < sceneTop ? y > rebateH * 0.3 && y < rebateH * 0.75 : y > sceneBottom + rebateH * 0.25 && y < sceneBottom + rebateH * 0.7);
+    const holeRow =
+      inRebate &&
+      (y < sceneTop
+        ? y > rebateH * 0.3 && y < rebateH * 0.75
+        : y > sceneBottom + rebateH * 0.25 && y < sceneBottom + rebateH * 0.7);
     const v = (y - sceneTop) / (sceneBottom - sceneTop);
     for (let x = 0; x < width; x++) {
       const i = (y * width + x) * 3;
@@ -95,9 +105,13 @@ export function synthesizeNegative(options: SynthOptions): SynthNegative {
         if (inRebate) {
           light = base[c]!;
         } else {
-          const reflectance = v < 0.6
-            ? patches[Math.min(rows - 1, Math.floor((v / 0.6) * rows)) * cols + Math.min(cols - 1, Math.floor(u * cols))]![c]!
-            : 0.01 + 0.89 * u * u; // grey ramp, dark to light
+          const reflectance =
+            v < 0.6
+              ? patches[
+                  Math.min(rows - 1, Math.floor((v / 0.6) * rows)) * cols +
+                    Math.min(cols - 1, Math.floor(u * cols))
+                ]![c]!
+              : 0.01 + 0.89 * u * u; // grey ramp, dark to light
           light = table[c * levels + Math.round(((reflectance - 0.0005) / 0.9995) * (levels - 1))]!;
         }
         // Grain and scanner noise: about 0.6 % of the signal plus a small floor; from memory.

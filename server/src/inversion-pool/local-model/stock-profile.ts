@@ -30,5 +30,15 @@ export const scannerProfileSchema = z.strictObject({
 export type ScannerProfile = z.infer<typeof scannerProfileSchema>;
 
 // Colour negative films have gamma around 0.5–0.7 (design notes; common practice of the trade).
-export const NEUTRAL_STOCK: StockProfile = { stock: 'neutral', version: 1, gamma: [0.6, 0.6, 0.6], balancePoints: [0, 0, 0] };
-export const LINEAR_SCANNER: ScannerProfile = { name: 'linear', encoding: 'linear', gamma: 2.2, blackLevel: 0 };
+export const NEUTRAL_STOCK: StockProfile = {
+  stock: 'neutral',
+  version: 1,
+  gamma: [0.6, 0.6, 0.6],
+  balancePoints: [0, 0, 0],
+};
+export const LINEAR_SCANNER: ScannerProfile = {
+  name: 'linear',
+  encoding: 'linear',
+  gamma: 2.2,
+  blackLevel: 0,
+};
