@@ -2,16 +2,15 @@ import { existsSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
-import { writeNegativeTiff } from '../server/src/cli/synth-command';
-import { SYNTH_STOCKS, synthesizeNegative } from '../server/src/inversion-pool/inversion-kernel';
-import { LINEAR_SCANNER, NEUTRAL_STOCK } from '../server/src/inversion-pool/inversion-kernel';
+import { LINEAR_SCANNER, profileForStock, TINTLINE_400 } from '@clearbase/inversion';
+import { demoNegative, writeNegativeTiff } from '../server/src/cli/synth-command';
 import type { FrameSettings } from '../server/src/inversion-pool/invert-negative-file';
 
 export const OUT_DIR = fileURLToPath(new URL('./out/', import.meta.url));
 
-/** The settings every benchmark case inverts with: neutral stock, linear scanner, detected base, JPEG. */
+/** The settings every benchmark case inverts with: the stock's own profile, linear scanner, detected base, JPEG. */
 export const BENCH_SETTINGS: FrameSettings = {
-  stock: { ...NEUTRAL_STOCK, gamma: SYNTH_STOCKS['tidewater-400']!.gamma },
+  profile: profileForStock(TINTLINE_400),
   scanner: LINEAR_SCANNER,
   base: 'auto',
   render: 'print',
@@ -21,10 +20,10 @@ export const BENCH_SETTINGS: FrameSettings = {
 /** A 16-bit TIFF negative of the given size from the forward model, made once in bench/out/. */
 export async function benchNegative(width: number, height: number): Promise<string> {
   await mkdir(OUT_DIR, { recursive: true });
-  const path = join(OUT_DIR, `negative-${width}x${height}.tif`);
+  const path = join(OUT_DIR, `tintline-negative-${width}x${height}.tif`);
   if (!existsSync(path)) {
-    const neg = synthesizeNegative({ width, height, stock: SYNTH_STOCKS['tidewater-400']!, seed: 11 });
-    await writeNegativeTiff(path, neg.data, width, height);
+    const neg = demoNegative({ width, height, stock: TINTLINE_400, seed: 11 });
+    await writeNegativeTiff(path, neg.data, neg.width, neg.height);
   }
   return path;
 }

@@ -1,28 +1,27 @@
 import { mkdir } from 'node:fs/promises';
 import { basename, extname, join } from 'node:path';
 import sharp from 'sharp';
-import type { z } from 'zod';
+import {
+  validateProfileDocument,
+  validateScannerProfile,
+  type ProfileDocument,
+  type ScannerProfile,
+} from '@clearbase/contracts';
+import { LINEAR_SCANNER, rollBase, rollLevels, type FrameLevels, type Region } from '@clearbase/inversion';
 import { ImageInputError, POSITIVE_EXTENSIONS, readNegative, type PositiveFormat } from '../imaging/index';
 import { createInversionPool } from '../inversion-pool/inversion-pool';
 import { runPipelined } from '../inversion-pool/run-pipelined';
 import {
+  FilmBaseError,
   invertNegativeFile,
-  measureFrame,
+  measureBase,
+  measureLevels,
+  NEUTRAL_PROFILE,
   type FrameResult,
   type FrameSettings,
 } from '../inversion-pool/invert-negative-file';
-import {
-  LINEAR_SCANNER,
-  NEUTRAL_STOCK,
-  rollBase,
-  rollLevels,
-  scannerProfileSchema,
-  stockProfileSchema,
-  type Region,
-  type Rgb,
-} from '../inversion-pool/inversion-kernel';
 import { parseCommandArgs } from './parse-command-args';
-import { readDocument } from './profile-document';
+import { readDocument, type DocumentValidator } from './profile-document';
 import { integerOption } from './synth-command';
 import { UsageError } from './usage-error';
 
@@ -58,14 +57,18 @@ export async function invertCommand(args: string[]): Promise<number> {
   const base = parseBase(values.base);
   const threads = values.threads === undefined ? undefined : integerOption('threads', values.threads, 1, 256);
   const quality = values.quality === undefined ? undefined : integerOption('quality', values.quality, 1, 100);
-  const stock = values.profile ? await loadDocument(values.profile, stockProfileSchema) : NEUTRAL_STOCK;
-  const scanner = values.scanner ? await loadDocument(values.scanner, scannerProfileSchema) : LINEAR_SCANNER;
+  const profile: ProfileDocument = values.profile
+    ? await loadDocument(values.profile, validateProfileDocument)
+    : NEUTRAL_PROFILE;
+  const scanner: ScannerProfile = values.scanner
+    ? await loadDocument(values.scanner, validateScannerProfile)
+    : LINEAR_SCANNER;
 
   await mkdir(values.out, { recursive: true });
   // Each file is read once per pass; libvips' operation cache would only hold memory.
   sharp.cache(false);
   const settings: FrameSettings = {
-    stock,
+    profile,
     scanner,
     base,
     render: values.render,
@@ -78,33 +81,34 @@ export async function invertCommand(args: string[]): Promise<number> {
   const todo = [...files.keys()];
 
   if (values.roll) {
-    // First pass: each frame's base and levels; the roll base is their robust median.
-    const measured: {
-      index: number;
-      base: ReturnType<typeof measureFrame>['base'];
-      levels: { shadow: Rgb; highlight: Rgb };
-    }[] = [];
+    // First pass: each frame's base; the roll base is their robust median.
+    const bases: ReturnType<typeof measureBase>['base'][] = [];
+    const fail = (index: number, error: unknown) => {
+      if (!(error instanceof ImageInputError || error instanceof FilmBaseError)) throw error;
+      failed++;
+      todo.splice(todo.indexOf(index), 1);
+      report.failure(files[index]!, error);
+    };
     for (const index of [...todo]) {
       try {
-        const negative = await readNegative(files[index]!);
-        const m = measureFrame(negative, settings);
-        measured.push({ index, base: m.base, levels: m.levels });
+        bases.push(measureBase(await readNegative(files[index]!), settings).base);
       } catch (error) {
-        failed++;
-        todo.splice(todo.indexOf(index), 1);
-        report.failure(files[index]!, error);
+        fail(index, error);
       }
     }
-    if (measured.length) {
-      const roll = rollBase(measured.map((m) => m.base));
-      // D = log10(B / L): moving from a frame's base to the roll base shifts its densities by log10(B_roll / B_frame).
-      const shifted = measured.map((m) => {
-        const shift = [0, 1, 2].map((c) => Math.log10(roll.rgb[c]! / m.base.rgb[c]!)) as Rgb;
-        const add = (v: Rgb) => v.map((x, c) => x + shift[c]!) as Rgb;
-        return { shadow: add(m.levels.shadow), highlight: add(m.levels.highlight) };
-      });
+    if (bases.length) {
+      const roll = rollBase(bases);
       settings.base = roll;
-      settings.levels = rollLevels(shifted);
+      // Second pass: every frame's levels against the roll base; one roll-wide E_mid, balance and tone.
+      const levels: FrameLevels[] = [];
+      for (const index of [...todo]) {
+        try {
+          levels.push(measureLevels(await readNegative(files[index]!), settings, roll));
+        } catch (error) {
+          fail(index, error);
+        }
+      }
+      if (levels.length) settings.levels = rollLevels(levels).roll;
     }
   }
 
@@ -114,7 +118,7 @@ export async function invertCommand(args: string[]): Promise<number> {
       try {
         report.success(await invertNegativeFile(pool, files[index]!, outputs[index]!, settings));
       } catch (error) {
-        if (!(error instanceof ImageInputError)) throw error;
+        if (!(error instanceof ImageInputError || error instanceof FilmBaseError)) throw error;
         failed++;
         report.failure(files[index]!, error);
       }
@@ -139,8 +143,8 @@ function parseBase(raw: string): 'auto' | Region {
   return parts as Region;
 }
 
-async function loadDocument<S extends z.ZodType>(path: string, schema: S): Promise<z.output<S>> {
-  const result = await readDocument(path, schema);
+async function loadDocument<T>(path: string, validate: DocumentValidator<T>): Promise<T> {
+  const result = await readDocument(path, validate);
   if (!result.ok) throw new UsageError(`Invalid document:\n  ${result.errors.join('\n  ')}`);
   return result.value;
 }
@@ -184,7 +188,7 @@ function reporter(total: number, json: boolean) {
     },
     failure(file: string, error: unknown) {
       progress(file, 'failed');
-      const code = error instanceof ImageInputError ? error.code : 'failed';
+      const code = error instanceof ImageInputError || error instanceof FilmBaseError ? error.code : 'failed';
       const message = error instanceof Error ? error.message : String(error);
       if (json) process.stdout.write(`${JSON.stringify({ file, error: { code, message } })}\n`);
       process.stderr.write(`clearbase: ${file}: ${message}\n`);

@@ -1,4 +1,4 @@
-import { stockProfileSchema } from '../inversion-pool/inversion-kernel';
+import { validateProfileDocument } from '@clearbase/contracts';
 import { parseCommandArgs } from './parse-command-args';
 import { readDocument } from './profile-document';
 import { UsageError } from './usage-error';
@@ -10,13 +10,13 @@ export async function profileCommand(args: string[]): Promise<number> {
   if (action !== 'validate')
     throw new UsageError(action ? `Unknown profile action "${action}".` : 'Missing profile action.');
   if (!file || extra.length) throw new UsageError('profile validate takes exactly one file.');
-  const result = await readDocument(file, stockProfileSchema);
+  const result = await readDocument(file, validateProfileDocument);
   if (!result.ok) {
     for (const line of result.errors) process.stderr.write(`${line}\n`);
     return 1;
   }
   process.stdout.write(
-    `${file}: valid stock profile "${result.value.stock}" version ${result.value.version}\n`,
+    `${file}: valid stock profile "${result.value.stock.name}" (${result.value.id}) version ${result.value.version}\n`,
   );
   return 0;
 }

@@ -1,16 +1,21 @@
 import { readFile } from 'node:fs/promises';
-import type { z } from 'zod';
+import type { ProfileFieldError } from '@clearbase/contracts';
 
 export type DocumentResult<T> = { ok: true; value: T } | { ok: false; errors: string[] };
 
+/** A validator of an untrusted document, e.g. `validateProfileDocument`. */
+export type DocumentValidator<T> = (
+  json: unknown,
+) => { ok: true; value: T } | { ok: false; errors: ProfileFieldError[] };
+
 /**
- * Reads a JSON document and checks it against `schema`. Errors name the file and each field's
- * path, e.g. `lab.json: gamma.1: Too small: expected number to be >0`.
+ * Reads a JSON document and checks it with `validate`. Errors name the file and each field's
+ * path, e.g. `p.json: curves.red.points[2].density: density must increase from point to point`.
  */
-export async function readDocument<S extends z.ZodType>(
+export async function readDocument<T>(
   path: string,
-  schema: S,
-): Promise<DocumentResult<z.output<S>>> {
+  validate: DocumentValidator<T>,
+): Promise<DocumentResult<T>> {
   let text: string;
   try {
     text = await readFile(path, 'utf8');
@@ -23,12 +28,10 @@ export async function readDocument<S extends z.ZodType>(
   } catch (error) {
     return { ok: false, errors: [`${path}: not valid JSON (${(error as Error).message})`] };
   }
-  const parsed = schema.safeParse(json);
-  if (parsed.success) return { ok: true, value: parsed.data };
+  const result = validate(json);
+  if (result.ok) return { ok: true, value: result.value };
   return {
     ok: false,
-    errors: parsed.error.issues.map(
-      (issue) => `${path}: ${issue.path.length ? issue.path.join('.') : '(document)'}: ${issue.message}`,
-    ),
+    errors: result.errors.map((e) => `${path}: ${e.path || '(document)'}: ${e.message}`),
   };
 }

@@ -1,16 +1,59 @@
 import { mkdir, rename, unlink } from 'node:fs/promises';
 import { join } from 'node:path';
 import sharp from 'sharp';
-import { SYNTH_STOCKS, synthesizeNegative } from '../inversion-pool/inversion-kernel';
+import {
+  DEMO_STOCKS,
+  exposeNegative,
+  LINEAR_SCANNER,
+  outdoorScene,
+  type FilmStock,
+} from '@clearbase/inversion';
 import { parseCommandArgs } from './parse-command-args';
 import { UsageError } from './usage-error';
+
+/** The forward model's demo stocks by command-line name: the kebab-case of the stock's name. */
+export const SYNTH_STOCKS: Readonly<Record<string, FilmStock>> = Object.fromEntries(
+  DEMO_STOCKS.map((stock) => [stockKey(stock), stock]),
+);
+
+/** Kebab-case of a stock's name, e.g. 'clearbase-polyclear-200' (also the id of `profileForStock`). */
+export function stockKey(stock: FilmStock): string {
+  return stock.name.toLowerCase().replace(/[^a-z0-9]+/g, '-');
+}
+
+/** Rebate strips above and below the frame, as a fraction of the scan's height (invented, typical of 35 mm). */
+const REBATE_FRACTION = 0.06;
+
+/**
+ * One demo negative of `width` × `height` pixels: the outdoor scene between unexposed rebate strips
+ * with sprocket holes, light grain and a little dust.
+ */
+export function demoNegative(options: {
+  width: number;
+  height: number;
+  stock: FilmStock;
+  exposureStops?: number;
+  seed?: number;
+}): ReturnType<typeof exposeNegative> {
+  const rebate = Math.max(4, Math.round(REBATE_FRACTION * options.height));
+  return exposeNegative(outdoorScene(options.width, Math.max(1, options.height - 2 * rebate)), {
+    stock: options.stock,
+    scanner: LINEAR_SCANNER,
+    exposureStops: options.exposureStops ?? 0,
+    grain: 0.004,
+    seed: options.seed ?? 1,
+    rebate,
+    sprocketHoles: true,
+    dust: 3,
+  });
+}
 
 /** `clearbase synth --out DIR [--frames N] [--stock NAME]`: demo negatives from the forward model, 16-bit TIFF. */
 export async function synthCommand(args: string[]): Promise<number> {
   const { values, positionals } = parseCommandArgs(args, {
     out: { type: 'string' },
     frames: { type: 'string', default: '6' },
-    stock: { type: 'string', default: 'larkspur-200' },
+    stock: { type: 'string', default: 'clearbase-polyclear-200' },
     width: { type: 'string', default: '1200' },
     height: { type: 'string', default: '800' },
   });
@@ -26,9 +69,9 @@ export async function synthCommand(args: string[]): Promise<number> {
   for (let n = 1; n <= frames; n++) {
     // Exposures spread over ±1 stop across the roll, as a real roll varies.
     const exposureStops = frames === 1 ? 0 : -1 + (2 * (n - 1)) / (frames - 1);
-    const neg = synthesizeNegative({ width, height, stock, exposureStops, seed: n });
+    const neg = demoNegative({ width, height, stock, exposureStops, seed: n });
     const path = join(values.out, `${values.stock}-frame-${String(n).padStart(2, '0')}.tif`);
-    await writeNegativeTiff(path, neg.data, width, height);
+    await writeNegativeTiff(path, neg.data, neg.width, neg.height);
     process.stdout.write(`${path}\n`);
   }
   return 0;

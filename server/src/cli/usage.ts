@@ -12,7 +12,8 @@ export const USAGE = `Usage:
       --json                     print one JSON line per frame on stdout
 
   clearbase synth --out DIR [--frames N] [--stock NAME] [--width W] [--height H]
-      Writes demo negatives (16-bit TIFF) made with the forward film model.
+      Writes demo negatives (16-bit TIFF) made with the forward film model. Stocks:
+      clearbase-polyclear-200 (default), clearbase-tintline-400, clearbase-ambermask-100.
 
   clearbase profile validate P.json
       Checks a stock profile document and prints each error with its path.

@@ -3,14 +3,14 @@ import { createInversionPool, sharedArray, type InversionPool } from './inversio
 import {
   applyInversion,
   compileInversion,
-  densityLevels,
-  detectFilmBase,
+  exposeNegative,
   LINEAR_SCANNER,
-  NEUTRAL_STOCK,
-  SYNTH_STOCKS,
-  synthesizeNegative,
-  type InversionParams,
-} from './inversion-kernel';
+  measureFrameLevels,
+  outdoorScene,
+  profileForStock,
+  TINTLINE_400,
+  type Matrix3,
+} from '@clearbase/inversion';
 
 let pool: InversionPool;
 beforeAll(() => {
@@ -20,35 +20,37 @@ afterAll(async () => {
   await pool.close();
 });
 
-function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: number[]) {
-  const neg = synthesizeNegative({ width, height, stock: SYNTH_STOCKS['tidewater-400']!, seed: 7 });
+function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: Matrix3) {
+  const neg = exposeNegative(outdoorScene(width, height), {
+    stock: TINTLINE_400,
+    scanner: LINEAR_SCANNER,
+    grain: 0.01,
+    seed: 7,
+    rebate: 2,
+  });
   const input = sharedArray(Uint16Array, neg.data.length);
   input.set(neg.data);
-  const base = detectFilmBase(neg);
-  const stock = { ...NEUTRAL_STOCK, ...(crosstalk ? { crosstalk } : {}) };
-  const params: Omit<InversionParams, 'levels'> = {
-    stock,
+  const stock = profileForStock(TINTLINE_400);
+  const profile = { ...stock, saturation: 1.2, ...(crosstalk ? { crosstalk } : {}) };
+  const params = {
+    profile,
     scanner: LINEAR_SCANNER,
-    base: base.rgb,
-    render: 'print',
-    output,
+    base: neg.truth.base,
+    render: 'print' as const,
+    outputBits: output === 'u8' ? (8 as const) : (16 as const),
   };
-  const levels = densityLevels(
-    compileInversion({ ...params, levels: { shadow: [0, 0, 0], highlight: [1, 1, 1] } }),
-    neg.data,
-  );
-  return { neg, input, plan: compileInversion({ ...params, levels }) };
+  const levels = measureFrameLevels(params, neg);
+  return { neg, input, plan: compileInversion({ ...params, midLogExposure: levels.midLogExposure }) };
 }
 
 describe('inversion pool', () => {
   for (const output of ['u8', 'u16'] as const) {
     it(`gives exactly the single-thread result (${output} output)`, async () => {
-      const { neg, input, plan } = frame(
-        331,
-        217,
-        output,
-        [1.05, -0.03, -0.02, -0.04, 1.06, -0.02, -0.01, -0.05, 1.06],
-      );
+      const { neg, input, plan } = frame(331, 217, output, [
+        [1.05, -0.03, -0.02],
+        [-0.04, 1.06, -0.02],
+        [-0.01, -0.05, 1.06],
+      ]);
       const kind = output === 'u8' ? Uint8Array : Uint16Array;
       const single = new kind(neg.data.length);
       applyInversion(plan, neg.data, single, 0, neg.width * neg.height);

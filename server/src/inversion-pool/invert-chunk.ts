@@ -1,10 +1,10 @@
-import { applyInversion } from './inversion-kernel';
+import { applyInversion, type InversionPlan } from '@clearbase/inversion';
 
 /** One slice of a frame for a worker: pixels [firstPixel, firstPixel + pixelCount) of shared buffers. */
 export interface InvertChunkTask {
-  plan: Parameters<typeof applyInversion>[0];
+  plan: InversionPlan;
   input: Uint16Array;
-  output: Parameters<typeof applyInversion>[2];
+  output: Uint8Array | Uint16Array;
   firstPixel: number;
   pixelCount: number;
 }

@@ -1,31 +1,56 @@
 import { performance } from 'node:perf_hooks';
-import { readNegative, writePositive, type PositiveFormat } from '../imaging/index';
-import type { InversionPool } from './inversion-pool';
+import type { ProfileDocument, ScannerProfile } from '@clearbase/contracts';
 import {
   baseFromRegion,
-  compileDensity,
   compileInversion,
-  densityLevels,
-  type DensityStage,
   detectFilmBase,
+  levelsToTone,
+  measureFrameLevels,
+  neutralBalance,
   type FilmBase,
+  type FrameLevels,
   type InversionParams,
   type Region,
-  type Rgb,
-  type ScannerProfile,
-  type StockProfile,
-} from './inversion-kernel';
+  type RgbImage,
+} from '@clearbase/inversion';
+import { readNegative, writePositive, type PositiveFormat } from '../imaging/index';
+import type { InversionPool } from './inversion-pool';
 
 // Below this a detected base is not trusted; the frame is flagged for QC; from memory.
 export const MIN_BASE_CONFIDENCE = 0.3;
 
+/** Default profile: the same straight line (gamma 0.6, common practice of the trade) on every channel. */
+export const NEUTRAL_PROFILE: ProfileDocument = (() => {
+  const line = { points: [-4, 2].map((logExposure) => ({ logExposure, density: 0.6 * (logExposure + 4) })) };
+  return {
+    schemaVersion: 1,
+    id: 'neutral',
+    version: 1,
+    stock: { name: 'Neutral', process: 'C-41', base: 'clear', iso: 100 },
+    curves: { red: line, green: line, blue: line },
+    crosstalk: [
+      [1, 0, 0],
+      [0, 1, 0],
+      [0, 0, 1],
+    ],
+    balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
+    tone: { contrast: 1, blackPoint: 0, whitePoint: 1 },
+    saturation: 1,
+  };
+})();
+
+/** A frame whose film base cannot be used (none found, or a drawn rectangle holding no film). */
+export class FilmBaseError extends Error {
+  readonly code = 'no-base';
+}
+
 export interface FrameSettings {
-  stock: StockProfile;
+  profile: ProfileDocument;
   scanner: ScannerProfile;
   /** Detect the base, sample a rectangle, or use a known base (a roll base). */
   base: 'auto' | Region | FilmBase;
-  /** Roll-wide shadow and highlight densities measured against `base`; per frame when absent. */
-  levels?: { shadow: Rgb; highlight: Rgb };
+  /** Roll-wide levels measured against `base`; per frame when absent. */
+  levels?: FrameLevels;
   render: 'print' | 'reference';
   format: PositiveFormat;
   quality?: number;
@@ -40,43 +65,74 @@ export interface FrameResult {
   ms: number;
 }
 
-/**
- * Measures a negative's film base the way `settings.base` asks, and the frame's own levels
- * against that base. Used by roll processing (first pass) and by `invertNegativeFile`.
- */
-export function measureFrame(
-  negative: { width: number; height: number; data: Uint16Array },
-  settings: Pick<FrameSettings, 'base' | 'stock' | 'scanner'>,
-): { base: FilmBase; levels: { shadow: Rgb; highlight: Rgb }; density: DensityStage; warnings: string[] } {
+/** Measures a negative's film base the way `settings.base` asks. Throws FilmBaseError for an unusable base. */
+export function measureBase(
+  negative: RgbImage,
+  settings: Pick<FrameSettings, 'base' | 'scanner'>,
+): { base: FilmBase; warnings: string[] } {
   const warnings: string[] = [];
   const base =
     settings.base === 'auto'
       ? detectFilmBase(negative, settings.scanner)
       : Array.isArray(settings.base)
-        ? baseFromRegion(negative, settings.base, settings.scanner)
+        ? baseFromRegion(negative, settings.scanner, settings.base)
         : settings.base;
+  if (!base.rgb.every((v) => v > 0 && v <= 1))
+    throw new FilmBaseError(
+      'No usable film base found; draw the base region by hand (--base x,y,w,h) over unexposed film.',
+    );
   if (base.confidence < MIN_BASE_CONFIDENCE) {
     warnings.push(
-      `No reliable film base found (confidence ${base.confidence}); check the frame, or draw the base region by hand.`,
+      `No reliable film base found (confidence ${base.confidence.toFixed(2)}); check the frame, or draw the base region by hand.`,
     );
   }
-  const density = compileDensity({ base: base.rgb, scanner: settings.scanner, stock: settings.stock });
-  return { base, levels: densityLevels(density, negative.data), density, warnings };
+  return { base, warnings };
 }
 
-function paramsFor(
-  settings: Pick<FrameSettings, 'stock' | 'scanner'>,
+/** The frame's own levels (E_mid, channel means, black and white points) against `base`. */
+export function measureLevels(
+  negative: RgbImage,
+  settings: Pick<FrameSettings, 'profile' | 'scanner' | 'render'>,
   base: FilmBase,
-  levels: InversionParams['levels'],
-  output: InversionParams['output'],
-  render: InversionParams['render'],
+): FrameLevels {
+  return measureFrameLevels(
+    {
+      profile: settings.profile,
+      scanner: settings.scanner,
+      base: base.rgb,
+      render: settings.render,
+      outputBits: 8,
+    },
+    negative,
+  );
+}
+
+/**
+ * Inversion parameters from levels: E_mid, a neutral (grey-world) balance and the tone's black and
+ * white points, the profile's contrast kept.
+ */
+export function inversionParams(
+  settings: Pick<FrameSettings, 'profile' | 'scanner' | 'render'>,
+  base: FilmBase,
+  levels: FrameLevels,
+  outputBits: 8 | 16,
 ): InversionParams {
-  return { stock: settings.stock, scanner: settings.scanner, base: base.rgb, levels, render, output };
+  const { profile } = settings;
+  return {
+    profile: { ...profile, tone: levelsToTone(levels, profile.tone.contrast) },
+    scanner: settings.scanner,
+    base: base.rgb,
+    balances: [neutralBalance(levels)],
+    midLogExposure: levels.midLogExposure,
+    render: settings.render,
+    outputBits,
+  };
 }
 
 /**
  * Reads one negative, inverts it on the pool and writes the positive atomically to `output`.
- * Throws `ImageInputError` for an unreadable negative (nothing is written then).
+ * Throws `ImageInputError` for an unreadable negative and `FilmBaseError` for an unusable base
+ * (nothing is written then).
  */
 export async function invertNegativeFile(
   pool: InversionPool,
@@ -91,18 +147,12 @@ export async function invertNegativeFile(
   });
   const outKind = settings.format === 'jpeg' ? Uint8Array : Uint16Array;
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
-  let measured: ReturnType<typeof measureFrame>;
+  let measured: ReturnType<typeof measureBase>;
   try {
-    measured = measureFrame(negative, settings);
+    measured = measureBase(negative, settings);
+    const levels = settings.levels ?? measureLevels(negative, settings, measured.base);
     const plan = compileInversion(
-      paramsFor(
-        settings,
-        measured.base,
-        settings.levels ?? measured.levels,
-        outKind === Uint8Array ? 'u8' : 'u16',
-        settings.render,
-      ),
-      measured.density,
+      inversionParams(settings, measured.base, levels, outKind === Uint8Array ? 8 : 16),
     );
     await pool.invertFrame(plan, negative.data, pixels, negative.width, negative.height);
     await writePositive(pixels, {
@@ -112,8 +162,8 @@ export async function invertNegativeFile(
       format: settings.format,
       ...(settings.quality ? { quality: settings.quality } : {}),
       metadata: {
-        stock: settings.stock.stock,
-        profileVersion: `${settings.stock.stock}@${settings.stock.version}`,
+        stock: settings.profile.stock.name,
+        profileVersion: `${settings.profile.id}@${settings.profile.version}`,
         scanner: settings.scanner.name,
         adjustments: { render: settings.render, base: measured.base.rgb.map((v) => Number(v.toFixed(5))) },
         sourceFile: file.split(/[\\/]/).pop() ?? file,
