@@ -7,10 +7,12 @@ import {
   validateProfileDocument,
   type ProfileDiff,
   type ProfileDocument,
+  type User,
 } from '@clearbase/contracts';
 import { randomUUID } from 'node:crypto';
 import { z } from 'zod';
-import type { ProfileVersionRow } from '../db/database';
+import type { Kysely, Updateable } from 'kysely';
+import type { Database, ProfileVersionRow } from '../db/database';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import { findScannerById } from '../scanners/scanner-repository';
@@ -37,6 +39,32 @@ const positiveId = (what: string) => z.coerce.number().int().positive(`Expected 
 const idParams = z.object({ id: positiveId('version') });
 const profileIdParams = z.object({ id: positiveId('profile') });
 const diffParams = z.object({ a: positiveId('version'), b: positiveId('version') });
+
+/** Moves a version on to its next status and audits the change with the summaries before and after. */
+async function changeVersionStatus(
+  trx: Kysely<Database>,
+  row: ProfileVersionRow,
+  action: 'profile-version-published' | 'profile-version-retired',
+  actor: User,
+  at: Date,
+  set: Updateable<Database['profile_versions']>,
+) {
+  const updated = await trx
+    .updateTable('profile_versions')
+    .set(set)
+    .where('id', '=', row.id)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  await recordCatalogueAudit(trx, {
+    at,
+    actor,
+    action,
+    target: `profile-version:${row.id}`,
+    before: toVersionSummary(row),
+    after: toVersionSummary(updated),
+  });
+  return toVersion(updated);
+}
 
 function versionNotFound(id: number): AppError {
   return new AppError('profile-version-not-found', 404, `No profile version with id ${id}.`);
@@ -323,27 +351,13 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
             `Version ${row.version} is already ${row.status}.`,
           );
         const at = clock.now().toISOString();
-        const updated = await trx
-          .updateTable('profile_versions')
-          .set({
-            status: 'published',
-            changelog: body.changelog,
-            published_at: at,
-            published_by: user!.id,
-            updated_at: at,
-          })
-          .where('id', '=', row.id)
-          .returningAll()
-          .executeTakeFirstOrThrow();
-        await recordCatalogueAudit(trx, {
-          at: clock.now(),
-          actor: user!,
-          action: 'profile-version-published',
-          target: `profile-version:${row.id}`,
-          before: toVersionSummary(row),
-          after: toVersionSummary(updated),
+        return changeVersionStatus(trx, row, 'profile-version-published', user!, clock.now(), {
+          status: 'published',
+          changelog: body.changelog,
+          published_at: at,
+          published_by: user!.id,
+          updated_at: at,
         });
-        return toVersion(updated);
       });
       res.json({ version });
     },
@@ -369,21 +383,11 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
           );
         }
         const at = clock.now().toISOString();
-        const updated = await trx
-          .updateTable('profile_versions')
-          .set({ status: 'retired', retired_at: at, updated_at: at })
-          .where('id', '=', row.id)
-          .returningAll()
-          .executeTakeFirstOrThrow();
-        await recordCatalogueAudit(trx, {
-          at: clock.now(),
-          actor: user!,
-          action: 'profile-version-retired',
-          target: `profile-version:${row.id}`,
-          before: toVersionSummary(row),
-          after: toVersionSummary(updated),
+        return changeVersionStatus(trx, row, 'profile-version-retired', user!, clock.now(), {
+          status: 'retired',
+          retired_at: at,
+          updated_at: at,
         });
-        return toVersion(updated);
       });
       res.json({ version });
     },
