@@ -47,3 +47,34 @@ describe('configuration from the environment', () => {
     expect(config.publicUrl).toBe('https://lab.example.test');
   });
 });
+
+describe('mail and payment settings', () => {
+  it('runs the local fakes by default outside production, with stand-in payment keys', () => {
+    const config = loadConfig({ DATA_DIR: dir });
+    expect(config.localFakes).toBe(true);
+    expect(config.smtp).toMatchObject({ host: '127.0.0.1', port: 0, secure: false });
+    expect(config.payment.apiBase).toBeNull();
+    expect(config.payment.secretKey).toMatch(/^sk_test_/);
+  });
+
+  it('names every provider setting missing when the local fakes are off', () => {
+    expect(() => loadConfig({ DATA_DIR: dir, LOCAL_FAKES: 'false' })).toThrow(
+      /PAYMENT_API_BASE: required when LOCAL_FAKES is false[\s\S]*SMTP_PORT: required/,
+    );
+  });
+
+  it('points at the hosted services by configuration alone', () => {
+    const config = loadConfig({
+      DATA_DIR: dir,
+      LOCAL_FAKES: 'false',
+      SMTP_HOST: 'mail.lab.test',
+      SMTP_PORT: '587',
+      PAYMENT_API_BASE: 'https://payments.example.test/',
+      PAYMENT_SECRET_KEY: 'sk_live_abcdefgh',
+      PAYMENT_WEBHOOK_SECRET: 'whsec_abcdefgh',
+    });
+    expect(config.localFakes).toBe(false);
+    expect(config.smtp).toMatchObject({ host: 'mail.lab.test', port: 587 });
+    expect(config.payment.apiBase).toBe('https://payments.example.test');
+  });
+});

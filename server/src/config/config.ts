@@ -24,6 +24,23 @@ const envSchema = z.object({
   WEB_ROOT: z.string().min(1).default('dist/web/browser'),
   SEED_DEMO: z.enum(['true', 'false']).default('true'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  // local stand-ins for the mail server and the payment provider; on by default except in production (our choice)
+  LOCAL_FAKES: z.enum(['true', 'false']).optional(),
+  SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  // 0 with local fakes: the mail catcher takes any free port and the outbox sends there (our choice)
+  SMTP_PORT: intFromEnv(0, 65535).default(0),
+  SMTP_SECURE: z.enum(['true', 'false']).default('false'),
+  SMTP_USER: z.string().min(1).optional(),
+  SMTP_PASSWORD: z.string().min(1).optional(),
+  MAIL_FROM: z.email('Enter an e-mail address').default('no-reply@clearbase.invalid'),
+  PAYMENT_API_BASE: z.url().optional(),
+  PAYMENT_SECRET_KEY: z.string().min(8).optional(),
+  PAYMENT_WEBHOOK_SECRET: z.string().min(8).optional(),
+  // 0: the payment fake takes any free port (our choice)
+  PAYMENT_FAKE_PORT: intFromEnv(0, 65535).default(0),
+  // 5 sign-ups per hour per address: enough for a family at one counter, little for a script (our choice)
+  SIGNUP_RATE_LIMIT_MAX: intFromEnv(1, 10_000).default(5),
+  SIGNUP_RATE_LIMIT_WINDOW_MINUTES: intFromEnv(1, 24 * 60).default(60),
 });
 
 /** The server's settings, validated from the environment once at start-up. */
@@ -43,7 +60,34 @@ export interface Config {
   webRoot: string;
   seedDemo: boolean;
   logLevel: string;
+  /** True when the mail catcher and the payment fake run inside this server instead of the hosted services. */
+  localFakes: boolean;
+  smtp: SmtpSettings;
+  payment: PaymentSettings;
+  signupRateLimit: { max: number; windowMs: number };
 }
+
+/** Where the outbox hands mail over. With local fakes, port 0 means "the port the catcher got". */
+export interface SmtpSettings {
+  host: string;
+  port: number;
+  secure: boolean;
+  user?: string;
+  password?: string;
+  from: string;
+}
+
+/** The payment provider's API. With local fakes, apiBase is filled in once the fake listens. */
+export interface PaymentSettings {
+  apiBase: string | null;
+  secretKey: string;
+  webhookSecret: string;
+  fakePort: number;
+}
+
+// Stand-in keys for the local payment fake only; they open nothing anywhere else (our choice)
+const localPaymentSecretKey = 'sk_test_clearbase_local';
+const localWebhookSecret = 'whsec_clearbase_local';
 
 /** Thrown when an environment variable has a bad value; the message names the variable. */
 export class ConfigError extends Error {
@@ -77,6 +121,20 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     }
     sessionSecret = readOrCreateSecret(dataDir);
   }
+  const localFakes = e.LOCAL_FAKES ? e.LOCAL_FAKES === 'true' : e.NODE_ENV !== 'production';
+  if (!localFakes) {
+    const missing: string[] = (
+      ['PAYMENT_API_BASE', 'PAYMENT_SECRET_KEY', 'PAYMENT_WEBHOOK_SECRET'] as const
+    ).filter((name) => !e[name]);
+    if (e.SMTP_PORT === 0) missing.push('SMTP_PORT');
+    if (missing.length) {
+      throw new ConfigError(
+        `Invalid environment:\n  ${missing
+          .map((name) => `${name}: required when LOCAL_FAKES is false`)
+          .join('\n  ')}`,
+      );
+    }
+  }
   const publicUrl = (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, '');
   return {
     nodeEnv: e.NODE_ENV,
@@ -92,6 +150,25 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     webRoot: resolve(e.WEB_ROOT),
     seedDemo: e.SEED_DEMO === 'true',
     logLevel: e.LOG_LEVEL,
+    localFakes,
+    smtp: {
+      host: e.SMTP_HOST,
+      port: e.SMTP_PORT,
+      secure: e.SMTP_SECURE === 'true',
+      ...(e.SMTP_USER ? { user: e.SMTP_USER } : {}),
+      ...(e.SMTP_PASSWORD ? { password: e.SMTP_PASSWORD } : {}),
+      from: e.MAIL_FROM,
+    },
+    payment: {
+      apiBase: e.PAYMENT_API_BASE ? e.PAYMENT_API_BASE.replace(/\/$/, '') : null,
+      secretKey: e.PAYMENT_SECRET_KEY ?? localPaymentSecretKey,
+      webhookSecret: e.PAYMENT_WEBHOOK_SECRET ?? localWebhookSecret,
+      fakePort: e.PAYMENT_FAKE_PORT,
+    },
+    signupRateLimit: {
+      max: e.SIGNUP_RATE_LIMIT_MAX,
+      windowMs: e.SIGNUP_RATE_LIMIT_WINDOW_MINUTES * 60_000,
+    },
   };
 }
 
