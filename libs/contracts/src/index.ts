@@ -6,3 +6,4 @@ export * from './lab/lab';
 export * from './profile/profile-document';
 export * from './stocks/stock';
 export * from './profiles/profile';
+export * from './orders/index';

@@ -1,0 +1,5 @@
+export * from './order';
+export * from './roll';
+export * from './frame';
+export * from './job';
+export * from './order-detail';

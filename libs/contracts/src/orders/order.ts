@@ -1,0 +1,89 @@
+import { z } from 'zod';
+
+const positiveId = z.int('Expected a whole id').positive('Expected a positive id');
+/** Ids in paths and query strings arrive as text. */
+export const idText = (what: string) => z.coerce.number().int().positive(`Expected a positive ${what} id`);
+
+/** Where an order stands, in the order it moves; cancelled can end it from any open status. */
+export const orderStatuses = [
+  'received',
+  'developing',
+  'scanning',
+  'tuning',
+  'ready',
+  'delivered',
+  'cancelled',
+] as const;
+export const orderStatusSchema = z.enum(orderStatuses);
+export type OrderStatus = z.infer<typeof orderStatusSchema>;
+
+/** Finished file formats a customer can ask for: 8-bit JPEG, 16-bit TIFF, 16-bit PNG. */
+export const outputFormats = ['jpeg', 'tiff16', 'png16'] as const;
+export const outputFormatSchema = z.enum(outputFormats);
+export type OutputFormat = z.infer<typeof outputFormatSchema>;
+
+/** Scan sizes on offer, by the long edge of the delivered file. */
+export const scanSizes = ['standard', 'large', 'full'] as const;
+export const scanSizeSchema = z.enum(scanSizes);
+export type ScanSize = z.infer<typeof scanSizeSchema>;
+
+/**
+ * Long edge in pixels of each scan size; `full` keeps the scan as made.
+ * 3000 and 6000 px: typical lab scan sizes for 35 mm, common practice of the trade, from memory.
+ */
+export const scanSizeLongEdge: Readonly<Record<ScanSize, number | null>> = {
+  standard: 3000,
+  large: 6000,
+  full: null,
+};
+
+/** An order as the API returns it. */
+export const orderSchema = z.object({
+  id: z.number().int().positive(),
+  customerId: z.number().int().positive(),
+  customerName: z.string(),
+  status: orderStatusSchema,
+  notes: z.string(),
+  outputFormats: z.array(outputFormatSchema),
+  scanSize: scanSizeSchema,
+  rollCount: z.number().int().min(0),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type Order = z.infer<typeof orderSchema>;
+
+/** What a customer sends to place an order; staff placing one for a customer name them with customerId. */
+export const createOrderRequestSchema = z.strictObject({
+  customerId: positiveId.optional(),
+  notes: z.string().trim().max(4000).default(''),
+  outputFormats: z
+    .array(outputFormatSchema)
+    .min(1, 'Choose at least one file format')
+    .max(outputFormats.length)
+    .refine((f) => new Set(f).size === f.length, 'List each format once')
+    .default(['jpeg']),
+  scanSize: scanSizeSchema.default('standard'),
+});
+export type CreateOrderRequest = z.infer<typeof createOrderRequestSchema>;
+
+/** Filters of the order list; staff see every order, customers only their own. */
+export const orderQuerySchema = z.strictObject({
+  status: orderStatusSchema.optional(),
+  customerId: idText('customer').optional(),
+  limit: z.coerce.number().int().min(1).max(500).default(100),
+  offset: z.coerce.number().int().min(0).default(0),
+});
+export type OrderQuery = z.infer<typeof orderQuerySchema>;
+
+export const orderListResponseSchema = z.object({
+  orders: z.array(orderSchema),
+  total: z.number().int().min(0),
+});
+export type OrderListResponse = z.infer<typeof orderListResponseSchema>;
+
+/** Staff move an order on (or cancel it). */
+export const updateOrderStatusRequestSchema = z.strictObject({ status: orderStatusSchema });
+export type UpdateOrderStatusRequest = z.infer<typeof updateOrderStatusRequestSchema>;
+
+export const idParamsSchema = z.object({ id: idText('whole') });
+export type IdParams = z.infer<typeof idParamsSchema>;

@@ -1,0 +1,111 @@
+import { z } from 'zod';
+import { balanceSchema } from '../profile/profile-document';
+
+const positiveId = z.int('Expected a whole id').positive('Expected a positive id');
+
+/** A rectangle in pixels of the negative scan, top-left origin. */
+export const pixelRegionSchema = z.strictObject({
+  x: z.int('Expected whole pixels').min(0),
+  y: z.int('Expected whole pixels').min(0),
+  width: z.int('Expected whole pixels').min(1, 'Expected a width of at least 1 pixel'),
+  height: z.int('Expected whole pixels').min(1, 'Expected a height of at least 1 pixel'),
+});
+export type PixelRegion = z.infer<typeof pixelRegionSchema>;
+
+/**
+ * Tuning of a roll or of one frame. Balance in printer points on the positive's axes (a frame's adds to its roll's,
+ * which adds to the profile's); exposure in stops (they add); contrast replaces the profile's when set.
+ */
+export const adjustmentsSchema = z.strictObject({
+  balance: balanceSchema.default({ cyanRed: 0, magentaGreen: 0, yellowBlue: 0 }),
+  // ±5 stops spans any correction a printed negative takes: common practice of the trade, from memory
+  exposureStops: z.number().min(-5).max(5).default(0),
+  contrast: z.number().positive().max(4).nullable().default(null),
+});
+export type Adjustments = z.infer<typeof adjustmentsSchema>;
+
+/** Adjustments that change nothing. */
+export const neutralAdjustments: Adjustments = {
+  balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
+  exposureStops: 0,
+  contrast: null,
+};
+
+/** Where a roll stands on the way from scans to finished positives. */
+export const rollStatuses = [
+  'awaiting-scans',
+  'scanned',
+  'inverting',
+  'inverted',
+  'needs-attention',
+] as const;
+export const rollStatusSchema = z.enum(rollStatuses);
+export type RollStatus = z.infer<typeof rollStatusSchema>;
+
+/** A measured film base: linear light per channel (0..1 of full scale), the region it came from and how sure. */
+export const measuredBaseSchema = z.object({
+  rgb: z.tuple([z.number(), z.number(), z.number()]),
+  region: pixelRegionSchema.nullable(),
+  confidence: z.number().min(0).max(1),
+});
+export type MeasuredBase = z.infer<typeof measuredBaseSchema>;
+
+/** A roll's base: found automatically (median of its frames) or sampled from a rectangle on one frame (the leader). */
+export const rollBaseSchema = z.object({
+  mode: z.enum(['auto', 'region']),
+  frameId: z.number().int().positive().nullable(),
+  region: pixelRegionSchema.nullable(),
+  measured: measuredBaseSchema.nullable(),
+});
+export type RollBase = z.infer<typeof rollBaseSchema>;
+
+/** A roll as the API returns it (without frames). */
+export const rollSchema = z.object({
+  id: z.number().int().positive(),
+  orderId: z.number().int().positive(),
+  stockId: z.number().int().positive(),
+  stockName: z.string(),
+  ei: z.number().int().positive(),
+  pushPull: z.number(),
+  format: z.string(),
+  scannerId: z.number().int().positive().nullable(),
+  profileVersionId: z.number().int().positive(),
+  profileVersion: z.number().int().positive(),
+  status: rollStatusSchema,
+  base: rollBaseSchema,
+  adjustments: adjustmentsSchema,
+  frameCount: z.number().int().min(0),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type Roll = z.infer<typeof rollSchema>;
+
+/** Adds a roll to an order; the stock's current published profile version is pinned. */
+export const createRollRequestSchema = z.strictObject({
+  stockId: positiveId,
+  // EI 3 to 25600: any speed a colour negative is rated at, common practice of the trade, from memory
+  ei: z.int('Expected a whole EI').min(3).max(25600),
+  // −3 to +3 stops in half stops: the range labs develop C-41 push and pull, common practice, from memory
+  pushPull: z
+    .number()
+    .min(-3)
+    .max(3)
+    .refine((v) => Number.isInteger(v * 2), 'Expected push or pull in half stops')
+    .default(0),
+  format: z.string().trim().min(1, 'Name the frame format, e.g. 135-36').max(40),
+  scannerId: positiveId.nullable().default(null),
+});
+export type CreateRollRequest = z.infer<typeof createRollRequestSchema>;
+
+/** Sets a roll's base: automatic, or a rectangle drawn on one of its frames (a leader or rebate). */
+export const rollBaseRequestSchema = z.discriminatedUnion('mode', [
+  z.strictObject({ mode: z.literal('auto') }),
+  z.strictObject({ mode: z.literal('region'), frameId: positiveId, region: pixelRegionSchema }),
+]);
+export type RollBaseRequest = z.infer<typeof rollBaseRequestSchema>;
+
+/** Which frames an inversion job renders: those not done yet, or every frame again. */
+export const invertRollRequestSchema = z.strictObject({
+  frames: z.enum(['pending', 'all']).default('pending'),
+});
+export type InvertRollRequest = z.infer<typeof invertRollRequestSchema>;
