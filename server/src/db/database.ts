@@ -1,5 +1,6 @@
 import type { Role } from '@clearbase/contracts';
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
+import type { OutboxTable } from '../mail/outbox-table';
 
 /** Times are ISO-8601 UTC text; booleans are 0/1 integers (SQLite has no boolean type). */
 export interface UsersTable {
@@ -51,6 +52,15 @@ export interface StocksTable {
   /** JSON array of frame format names */
   frame_formats: string;
   notes: ColumnType<string, string | undefined, string>;
+  /** null: rate at the box speed */
+  recommended_ei: ColumnType<number | null, number | null | undefined, number | null>;
+  /** null: not stated */
+  latitude_under_stops: ColumnType<number | null, number | null | undefined, number | null>;
+  latitude_over_stops: ColumnType<number | null, number | null | undefined, number | null>;
+  push_pull_notes: ColumnType<string, string | undefined, string>;
+  /** p of t_corrected = t_metered^p */
+  reciprocity_exponent: ColumnType<number, number | undefined, number>;
+  handling_notes: ColumnType<string, string | undefined, string>;
   created_at: ColumnType<string, string, never>;
 }
 
@@ -104,6 +114,7 @@ export interface Database {
   scanners: ScannersTable;
   profiles: ProfilesTable;
   profile_versions: ProfileVersionsTable;
+  outbox: OutboxTable;
 }
 
 export type UserRow = Selectable<UsersTable>;

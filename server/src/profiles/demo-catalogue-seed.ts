@@ -29,6 +29,14 @@ export const demoStocks: readonly DemoStock[] = [
       frameFormats: ['135-24', '135-36'],
       notes:
         'Unmasked colour negative on a thin tinted polyester base. Rate at EI 400; takes one stop of push well.',
+      // invented demo sheet
+      recommendedEi: 400,
+      latitudeUnderStops: 1,
+      latitudeOverStops: 3,
+      pushPullNotes: 'One stop of push (EI 800) keeps good colour; pulling is not advised.',
+      reciprocityExponent: 1.3,
+      handlingNotes:
+        'The thin polyester base is stiff and slippery: cameras that load and wind the film themselves may misfeed it; load by hand where you can, and cut the leader square.',
     },
     gammas: [0.58, 0.61, 0.66],
     crosstalk: -0.06,
@@ -44,6 +52,14 @@ export const demoStocks: readonly DemoStock[] = [
       baseMaterial: 'clear polyester',
       frameFormats: ['135-36', '120'],
       notes: 'Unmasked colour negative on a clear polyester base; fine grain, high saturation.',
+      // invented demo sheet
+      recommendedEi: 160,
+      latitudeUnderStops: 1,
+      latitudeOverStops: 2,
+      pushPullNotes: 'Rated a third of a stop slow for denser shadows; pushing raises contrast sharply.',
+      reciprocityExponent: 1.35,
+      handlingNotes:
+        'Thin clear polyester: automatic loading in some cameras fails to catch it; the clear base also pipes light, so load in subdued light.',
     },
     gammas: [0.6, 0.62, 0.64],
     crosstalk: -0.05,
@@ -59,6 +75,13 @@ export const demoStocks: readonly DemoStock[] = [
       baseMaterial: 'acetate with integral orange mask',
       frameFormats: ['120', '4x5'],
       notes: 'Conventional masked colour negative, kept for comparison with the unmasked stocks.',
+      // invented demo sheet
+      recommendedEi: 160,
+      latitudeUnderStops: 2,
+      latitudeOverStops: 3,
+      pushPullNotes: 'Push or pull one stop with little loss.',
+      reciprocityExponent: 1.3,
+      handlingNotes: 'A conventional acetate base: loads in any camera.',
     },
     gammas: [0.55, 0.56, 0.57],
     crosstalk: -0.02,

@@ -1,4 +1,10 @@
-import type { CreateStockRequest, FilmProcess, Stock, StockQuery } from '@clearbase/contracts';
+import {
+  defaultReciprocityExponent,
+  type CreateStockRequest,
+  type FilmProcess,
+  type Stock,
+  type StockQuery,
+} from '@clearbase/contracts';
 import { sql, type Kysely } from 'kysely';
 import type { Database, StockRow } from '../db/database';
 
@@ -37,6 +43,12 @@ export function insertStock(db: Kysely<Database>, stock: CreateStockRequest, at:
       base_material: stock.baseMaterial,
       frame_formats: JSON.stringify(stock.frameFormats),
       notes: stock.notes,
+      recommended_ei: stock.recommendedEi ?? null,
+      latitude_under_stops: stock.latitudeUnderStops ?? null,
+      latitude_over_stops: stock.latitudeOverStops ?? null,
+      push_pull_notes: stock.pushPullNotes ?? '',
+      reciprocity_exponent: stock.reciprocityExponent ?? defaultReciprocityExponent,
+      handling_notes: stock.handlingNotes ?? '',
       created_at: at.toISOString(),
     })
     .returningAll()
@@ -54,6 +66,12 @@ export function toStock(row: StockRow): Stock {
     baseMaterial: row.base_material,
     frameFormats: JSON.parse(row.frame_formats) as string[],
     notes: row.notes,
+    recommendedEi: row.recommended_ei,
+    latitudeUnderStops: row.latitude_under_stops,
+    latitudeOverStops: row.latitude_over_stops,
+    pushPullNotes: row.push_pull_notes,
+    reciprocityExponent: row.reciprocity_exponent,
+    handlingNotes: row.handling_notes,
     createdAt: row.created_at,
   };
 }

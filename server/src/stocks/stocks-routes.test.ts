@@ -94,6 +94,52 @@ describe('catalogue filters', () => {
   });
 });
 
+describe('stock sheet', () => {
+  it('gives a stock added without sheet fields the box speed, no stated latitude and p = 1.3', async () => {
+    const [stock] = (await customer.get('/api/stocks?q=tealine')).body.stocks;
+    expect(stock).toMatchObject({
+      recommendedEi: null,
+      latitudeUnderStops: null,
+      latitudeOverStops: null,
+      pushPullNotes: '',
+      // p = 1.3 for many films: common practice of the trade
+      reciprocityExponent: 1.3,
+      handlingNotes: '',
+    });
+  });
+
+  it('keeps the EI, latitude, notes and reciprocity exponent a manager gives a new stock', async () => {
+    const sheet = {
+      recommendedEi: 320,
+      latitudeUnderStops: 1,
+      latitudeOverStops: 3,
+      pushPullNotes: 'Pushes one stop cleanly.',
+      reciprocityExponent: 1.35,
+      handlingNotes: 'Thin polyester base: load by hand in cameras that load themselves.',
+    };
+    const created = await manager.post('/api/stocks', { ...tealLine, name: 'Sheeted 400', ...sheet });
+    expect(created.status).toBe(201);
+    const page = await customer.get(`/api/stocks/${created.body.stock.id}`);
+    expect(page.body.stock).toMatchObject(sheet);
+  });
+
+  it('names each out-of-range sheet field', async () => {
+    const res = await manager.post('/api/stocks', {
+      ...tealLine,
+      name: 'Out of range',
+      recommendedEi: 3,
+      latitudeOverStops: -1,
+      reciprocityExponent: 0.5,
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.errors.map((e: { path: string }) => e.path).sort()).toEqual([
+      'body.latitudeOverStops',
+      'body.reciprocityExponent',
+      'body.recommendedEi',
+    ]);
+  });
+});
+
 describe('scanners', () => {
   const rig = {
     name: 'Copy stand one',

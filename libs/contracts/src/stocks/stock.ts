@@ -17,21 +17,62 @@ export const stockSchema = z.object({
   baseMaterial: z.string(),
   frameFormats: z.array(z.string()),
   notes: z.string(),
+  /** The EI the lab recommends rating the stock at; null means its box speed. */
+  recommendedEi: z.number().int().positive().nullable(),
+  /** Stops of underexposure the stock still prints well from; null when not stated. */
+  latitudeUnderStops: z.number().nonnegative().nullable(),
+  /** Stops of overexposure the stock still prints well from; null when not stated. */
+  latitudeOverStops: z.number().nonnegative().nullable(),
+  pushPullNotes: z.string(),
+  /** p of the reciprocity correction t_corrected = t_metered^p (seconds). */
+  reciprocityExponent: z.number().positive(),
+  /** Loading and handling advice, such as what a thin polyester base does in a camera. */
+  handlingNotes: z.string(),
   createdAt: z.string(),
 });
 export type Stock = z.infer<typeof stockSchema>;
+
+// ISO 6 to 25600 spans the speeds film is sold and rated at: common practice of the trade, from memory
+const filmSpeed = (what: string) =>
+  z
+    .int(`Expected a whole ${what}`)
+    .min(6, `Expected ${what} 6 or more`)
+    .max(25600, `Expected ${what} at most 25600`);
+// 10 stops either way is beyond any negative film's latitude: common practice of the trade, from memory
+const latitudeStops = z
+  .number('Expected a number of stops')
+  .min(0, 'Expected 0 stops or more')
+  .max(10, 'Expected at most 10 stops');
+
+/**
+ * Bounds of the reciprocity exponent p: 1 means no correction, and films published with a power law stay well
+ * under 2 (common practice of the trade, from memory).
+ */
+export const reciprocityExponentRange = { min: 1, max: 2 } as const;
+
+// p = 1.3 suits many films: common practice of the trade, from memory
+export const defaultReciprocityExponent = 1.3;
 
 /** What a manager sends to add a stock. */
 export const createStockRequestSchema = z.strictObject({
   name: z.string().trim().min(1, 'Enter the stock’s name').max(120),
   maker: z.string().trim().min(1, 'Enter the maker').max(120),
-  // ISO 6 to 25600 spans the speeds film is sold at: common practice of the trade, from memory
-  iso: z.int('Expected a whole ISO speed').min(6).max(25600),
+  iso: filmSpeed('ISO speed'),
   process: filmProcessSchema,
   masked: z.boolean(),
   baseMaterial: z.string().trim().min(1, 'Enter the base material').max(120),
   frameFormats: z.array(z.string().trim().min(1).max(40)).min(1, 'List at least one frame format').max(20),
   notes: z.string().max(4000).default(''),
+  recommendedEi: filmSpeed('EI').nullable().optional(),
+  latitudeUnderStops: latitudeStops.nullable().optional(),
+  latitudeOverStops: latitudeStops.nullable().optional(),
+  pushPullNotes: z.string().max(4000).optional(),
+  reciprocityExponent: z
+    .number('Expected a number')
+    .min(reciprocityExponentRange.min, `Expected p of ${reciprocityExponentRange.min} or more`)
+    .max(reciprocityExponentRange.max, `Expected p of at most ${reciprocityExponentRange.max}`)
+    .optional(),
+  handlingNotes: z.string().max(4000).optional(),
 });
 export type CreateStockRequest = z.infer<typeof createStockRequestSchema>;
 
