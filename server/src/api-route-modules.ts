@@ -3,6 +3,7 @@ import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
 import { labRoutes } from './lab/lab-routes';
 import { profilesRoutes } from './profiles/profiles-routes';
+import { referenceFrameRoutes } from './profiles/reference-frame-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
 import { stocksRoutes } from './stocks/stocks-routes';
 import { usersRoutes } from './users/users-routes';
@@ -19,4 +20,5 @@ export const apiRouteModules: readonly RouteModule[] = [
   stocksRoutes,
   scannersRoutes,
   profilesRoutes,
+  referenceFrameRoutes,
 ];

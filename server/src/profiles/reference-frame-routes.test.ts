@@ -1,0 +1,110 @@
+import { profileForStock, sceneLinearPixel, type Rgb } from '@clearbase/inversion';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { StockRow } from '../db/database';
+import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { createReferenceNegativeCache, filmStockFor, makeReferenceNegative } from './demo-reference-frames';
+
+let t: TestApp;
+let operator: Client;
+let customer: Client;
+let draftId: number;
+
+beforeAll(async () => {
+  t = await createTestApp();
+  for (const role of ['manager', 'operator', 'customer'] as const) await addUser(t.db, role);
+  const manager = await signedIn(t.app, 'manager@lab.test');
+  operator = await signedIn(t.app, 'operator@lab.test');
+  customer = await signedIn(t.app, 'customer@lab.test');
+  const stock = await manager.post('/api/stocks', {
+    name: 'Glasswing 400',
+    maker: 'Harrowgate Emulsions',
+    iso: 400,
+    process: 'C-41',
+    masked: false,
+    baseMaterial: 'tinted polyester',
+    frameFormats: ['135-36'],
+  });
+  const created = await operator.post('/api/profiles', { stockId: stock.body.stock.id, name: 'House' });
+  draftId = created.body.version.id;
+});
+afterAll(() => t.close());
+
+const tinted: Pick<StockRow, 'name' | 'iso' | 'masked' | 'base_material'> = {
+  name: 'Glasswing 400',
+  iso: 400,
+  masked: 0,
+  base_material: 'tinted polyester',
+};
+
+describe('reference negatives for the profile editor', () => {
+  it('answers staff with raw 16-bit RGB of the version’s stock, its size and film base in headers', async () => {
+    const res = await operator.agent
+      .get(`/api/profile-versions/${draftId}/reference-negative`)
+      .buffer(true)
+      .parse((r, done) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('application/octet-stream');
+    const width = Number(res.headers['x-negative-width']);
+    const height = Number(res.headers['x-negative-height']);
+    expect(width * height).toBeLessThanOrEqual(1_500_000);
+    expect(width * height).toBeGreaterThan(1_000_000);
+    expect((res.body as Buffer).length).toBe(width * height * 3 * 2);
+    const base = String(res.headers['x-film-base']).split(',').map(Number);
+    expect(base).toHaveLength(3);
+    for (const b of base) expect(b).toBeGreaterThan(0);
+    for (const b of base) expect(b).toBeLessThanOrEqual(1);
+    expect(res.headers['x-scanner-encoding']).toBe('linear');
+  });
+
+  it('refuses customers with 403 and visitors with 401, as problem documents', async () => {
+    const asCustomer = await customer.get(`/api/profile-versions/${draftId}/reference-negative`);
+    expect(asCustomer.status).toBe(403);
+    expect(asCustomer.headers['content-type']).toMatch(/^application\/problem\+json/);
+    const anonymous = await request(t.app).get(`/api/profile-versions/${draftId}/reference-negative`);
+    expect(anonymous.status).toBe(401);
+  });
+
+  it('answers 404 for a version that does not exist', async () => {
+    const res = await operator.get('/api/profile-versions/99999/reference-negative');
+    expect(res.status).toBe(404);
+    expect(res.body.code).toBe('profile-version-not-found');
+  });
+
+  it('makes each stock’s negative once and the same bytes every time', () => {
+    const size = { width: 44, height: 20 };
+    const referenceFor = createReferenceNegativeCache(size);
+    const row = { ...tinted, id: 1 } as StockRow;
+    expect(referenceFor(row)).toBe(referenceFor(row));
+    expect(makeReferenceNegative(tinted, size).data).toEqual(referenceFor(row).data);
+  });
+
+  it('holds a neutral wedge that the stock’s matching profile renders grey', () => {
+    const size = { width: 220, height: 100 };
+    const negative = makeReferenceNegative(tinted, size);
+    const profile = profileForStock(filmStockFor(tinted));
+    // the middle of the wedge's sixth step (of eleven), bottom tenth of the frame
+    const x = 5 * 20 + 10,
+      y = 95;
+    const i = (y * negative.width + x) * 3;
+    const counts: Rgb = [negative.data[i]!, negative.data[i + 1]!, negative.data[i + 2]!];
+    const linear = sceneLinearPixel(
+      {
+        profile,
+        scanner: negative.scanner,
+        base: negative.base,
+        midLogExposure: Math.log10(0.18),
+        render: 'reference',
+        outputBits: 8,
+      },
+      counts,
+    );
+    // neutral within 3 % between channels (grain of 0.004 D is about 1 %)
+    const mean = (linear[0] + linear[1] + linear[2]) / 3;
+    for (const v of linear) expect(Math.abs(v / mean - 1)).toBeLessThan(0.03);
+  });
+});

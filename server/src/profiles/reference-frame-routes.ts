@@ -1,0 +1,61 @@
+import { staffRoles } from '@clearbase/contracts';
+import { endianness } from 'node:os';
+import { z } from 'zod';
+import { AppError } from '../errors/app-error';
+import type { RouteModule } from '../http/route-module';
+import { findStockById } from '../stocks/stock-repository';
+import { createReferenceNegativeCache } from './demo-reference-frames';
+import { findProfileById, findVersionById } from './profile-repository';
+
+const idParams = z.object({ id: z.coerce.number().int().positive('Expected a positive version id') });
+
+/** Header names of the reference negative's description; the body is the pixels alone. */
+export const referenceNegativeHeaders = {
+  width: 'X-Negative-Width',
+  height: 'X-Negative-Height',
+  /** Film base as linear light 0..1, three comma-separated numbers, red green blue. */
+  base: 'X-Film-Base',
+  /** The scanner encoding of the counts (always linear: black level 0, gains 1). */
+  encoding: 'X-Scanner-Encoding',
+} as const;
+
+/**
+ * The reference negative a profile version previews on: raw little-endian 16-bit RGB, interleaved, row by row, with
+ * its size and film base in headers.
+ */
+export const referenceFrameRoutes: RouteModule = (api, { db }) => {
+  const referenceFor = createReferenceNegativeCache();
+
+  api.define(
+    {
+      method: 'get',
+      path: '/api/profile-versions/:id/reference-negative',
+      roles: staffRoles,
+      params: idParams,
+      summary: 'A 16-bit reference negative of the version’s stock, for previews',
+    },
+    async (_req, res, { params }) => {
+      const version = await findVersionById(db, params.id);
+      if (!version)
+        throw new AppError('profile-version-not-found', 404, `No profile version with id ${params.id}.`);
+      const profile = await findProfileById(db, version.profile_id);
+      const stock = profile && (await findStockById(db, profile.stock_id));
+      if (!stock) throw new AppError('stock-not-found', 404, `The stock of version ${params.id} is gone.`);
+      const negative = referenceFor(stock);
+      const body = Buffer.from(negative.data.buffer, negative.data.byteOffset, negative.data.byteLength);
+      // the pixels are promised little-endian; a big-endian host swaps a copy
+      const wire = endianness() === 'LE' ? body : Buffer.from(body).swap16();
+      res
+        .status(200)
+        .set({
+          'Content-Type': 'application/octet-stream',
+          'Cache-Control': 'private, max-age=3600',
+          [referenceNegativeHeaders.width]: String(negative.width),
+          [referenceNegativeHeaders.height]: String(negative.height),
+          [referenceNegativeHeaders.base]: negative.base.map((b) => b.toPrecision(9)).join(','),
+          [referenceNegativeHeaders.encoding]: negative.scanner.encoding,
+        })
+        .end(wire);
+    },
+  );
+};
