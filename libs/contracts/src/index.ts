@@ -7,3 +7,4 @@ export * from './profile/profile-document';
 export * from './stocks/stock';
 export * from './profiles/profile';
 export * from './orders/index';
+export * from './customers/index';

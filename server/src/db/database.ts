@@ -1,5 +1,6 @@
 import type { Role } from '@clearbase/contracts';
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
+import type { OrderTables } from '../orders/order-tables';
 import type { OutboxTable } from '../mail/outbox-table';
 
 /** Times are ISO-8601 UTC text; booleans are 0/1 integers (SQLite has no boolean type). */
@@ -115,6 +116,12 @@ export interface Database {
   profiles: ProfilesTable;
   profile_versions: ProfileVersionsTable;
   outbox: OutboxTable;
+  files: OrderTables['files'];
+  orders: OrderTables['orders'];
+  rolls: OrderTables['rolls'];
+  frames: OrderTables['frames'];
+  frame_outputs: OrderTables['frame_outputs'];
+  jobs: OrderTables['jobs'];
 }
 
 export type UserRow = Selectable<UsersTable>;
