@@ -1,0 +1,88 @@
+import type { Kysely } from 'kysely';
+import type { Database } from '../db/database';
+import { readLab } from '../lab/lab-routes';
+import type { MailMessage } from './mail-message';
+import { renderMail, type MailKind, type MailTemplateData } from './mail-templates';
+import type { OutboxRow } from './outbox-table';
+
+/**
+ * Puts a message in the outbox. Call it with the transaction of the change the message tells of, so the two are
+ * committed together or not at all; the sender delivers it afterwards.
+ *
+ * @example
+ * await db.transaction().execute(async (trx) => { ...; await enqueueMail(trx, message, clock.now()); });
+ */
+export async function enqueueMail(db: Kysely<Database>, message: MailMessage, now: Date): Promise<number> {
+  const at = now.toISOString();
+  const row = await db
+    .insertInto('outbox')
+    .values({
+      to_address: message.to,
+      subject: message.subject,
+      text_body: message.text,
+      html_body: message.html,
+      kind: message.kind,
+      next_attempt_at: at,
+      last_error: null,
+      created_at: at,
+      sent_at: null,
+    })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  return row.id;
+}
+
+/** Renders a template in the lab's name (read in the same transaction) and puts it in the outbox. */
+export async function enqueueTemplatedMail<K extends MailKind>(
+  db: Kysely<Database>,
+  to: string,
+  kind: K,
+  data: MailTemplateData[K],
+  now: Date,
+): Promise<number> {
+  return enqueueMail(db, renderMail(await readLab(db), to, kind, data), now);
+}
+
+/** Pending messages whose next attempt is due, oldest first. */
+export function findDueMail(db: Kysely<Database>, now: Date, limit: number): Promise<OutboxRow[]> {
+  return db
+    .selectFrom('outbox')
+    .selectAll()
+    .where('state', '=', 'pending')
+    .where('next_attempt_at', '<=', now.toISOString())
+    .orderBy('next_attempt_at')
+    .orderBy('id')
+    .limit(limit)
+    .execute();
+}
+
+export async function markMailSent(
+  db: Kysely<Database>,
+  id: number,
+  attempts: number,
+  now: Date,
+): Promise<void> {
+  await db
+    .updateTable('outbox')
+    .set({ state: 'sent', attempts, sent_at: now.toISOString(), last_error: null })
+    .where('id', '=', id)
+    .execute();
+}
+
+export async function markMailAttemptFailed(
+  db: Kysely<Database>,
+  id: number,
+  change: { attempts: number; error: string; nextAttemptAt: Date | null },
+): Promise<void> {
+  await db
+    .updateTable('outbox')
+    .set({
+      attempts: change.attempts,
+      last_error: change.error.slice(0, 1000),
+      ...(change.nextAttemptAt
+        ? { next_attempt_at: change.nextAttemptAt.toISOString() }
+        : { state: 'failed' as const }),
+    })
+    .where('id', '=', id)
+    .execute();
+}
