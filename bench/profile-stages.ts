@@ -1,0 +1,50 @@
+// Times each stage of one inversion in process: `tsx bench/profile-stages.ts [--quick]`.
+import { performance } from 'node:perf_hooks';
+import { parseArgs } from 'node:util';
+import { join } from 'node:path';
+import sharp from 'sharp';
+import { compileInversion } from '@clearbase/inversion';
+import { readNegative, writePositive } from '../server/src/imaging/index';
+import { createInversionPool } from '../server/src/inversion-pool/inversion-pool';
+import {
+  inversionParams,
+  measureBase,
+  measureLevels,
+} from '../server/src/inversion-pool/invert-negative-file';
+import { BENCH_SETTINGS, OUT_DIR, benchNegative } from './bench-negative';
+
+const { values } = parseArgs({ options: { quick: { type: 'boolean', default: false } } });
+// 6000 × 4000 = 24 MP as in run.ts; 1500 × 1000 with --quick.
+const [width, height] = values.quick ? [1500, 1000] : [6000, 4000];
+sharp.cache(false);
+const spans: [string, number][] = [];
+async function span<T>(name: string, work: () => T | Promise<T>): Promise<T> {
+  const start = performance.now();
+  const result = await work();
+  spans.push([name, performance.now() - start]);
+  return result;
+}
+const file = await span('make negative (once)', () => benchNegative(width, height));
+const pool = await span('start pool', () => createInversionPool());
+for (let round = 0; round < 2; round++) {
+  const negative = await span('read + decode 16-bit', () =>
+    readNegative(file, { allocate: (n) => pool.buffers.acquire(Uint16Array, n) }),
+  );
+  const measured = await span('detect film base', () => measureBase(negative, BENCH_SETTINGS));
+  const levels = await span('frame levels', () => measureLevels(negative, BENCH_SETTINGS, measured.base));
+  const plan = await span('compile plan', () =>
+    compileInversion(inversionParams(BENCH_SETTINGS, measured.base, levels, 8)),
+  );
+  const out = pool.buffers.acquire(Uint8Array, negative.data.length);
+  await span('invert on pool', () =>
+    pool.invertFrame(plan, negative.data, out, negative.width, negative.height),
+  );
+  await span('encode JPEG + write', () =>
+    writePositive(out, { path: join(OUT_DIR, 'profile.jpg'), width, height, format: 'jpeg' }),
+  );
+  pool.buffers.release(negative.data);
+  pool.buffers.release(out);
+}
+await pool.close();
+for (const [name, ms] of spans) process.stdout.write(`${name.padEnd(28)} ${ms.toFixed(0).padStart(7)} ms\n`);
+process.stdout.write(`peak RSS ${Math.round(process.resourceUsage().maxRSS / 1024)} MB\n`);
