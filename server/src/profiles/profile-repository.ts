@@ -1,6 +1,44 @@
 import type { Profile, ProfileDocument, ProfileVersion, ProfileVersionSummary } from '@clearbase/contracts';
-import type { Kysely } from 'kysely';
+import type { Kysely, Updateable } from 'kysely';
 import type { Database, ProfileRow, ProfileVersionRow } from '../db/database';
+import { AppError } from '../errors/app-error';
+
+// The RAISE messages of the triggers that guard versions (migrations ..._freeze_published_profile_versions,
+// ..._forbid_reopening_profile_versions, ..._freeze_published_changelog).
+const frozenVersionMessages = [
+  'published profile versions are immutable',
+  'profile versions move only from draft to published to retired',
+];
+
+/**
+ * True when SQLite refused a change to a profile version because one of the version triggers raised: the row was
+ * published or retired by someone else between our read and our write.
+ */
+export function isFrozenVersionViolation(err: unknown): boolean {
+  if (typeof err !== 'object' || err === null) return false;
+  const { code, message } = err as { code?: unknown; message?: unknown };
+  return (
+    code === 'SQLITE_CONSTRAINT_TRIGGER' &&
+    typeof message === 'string' &&
+    frozenVersionMessages.some((m) => message.includes(m))
+  );
+}
+
+/** Runs a write on a version; a trigger's refusal becomes the 409 problem the API promises. */
+async function guardFrozen<T>(versionId: number, write: () => Promise<T>): Promise<T> {
+  try {
+    return await write();
+  } catch (err) {
+    if (isFrozenVersionViolation(err)) {
+      throw new AppError(
+        'profile-version-immutable',
+        409,
+        `Profile version ${versionId} was published or retired meanwhile and cannot change; reload it and make a new draft from it instead.`,
+      );
+    }
+    throw err;
+  }
+}
 
 export function findProfileById(db: Kysely<Database>, id: number): Promise<ProfileRow | undefined> {
   return db.selectFrom('profiles').selectAll().where('id', '=', id).executeTakeFirst();
@@ -33,6 +71,54 @@ export function listVersionsOfProfiles(
 
 export function findVersionById(db: Kysely<Database>, id: number): Promise<ProfileVersionRow | undefined> {
   return db.selectFrom('profile_versions').selectAll().where('id', '=', id).executeTakeFirst();
+}
+
+/** The version with the given number of a profile, if it has one. */
+export function findVersionOfProfile(
+  db: Kysely<Database>,
+  profileId: number,
+  version: number,
+): Promise<ProfileVersionRow | undefined> {
+  return db
+    .selectFrom('profile_versions')
+    .selectAll()
+    .where('profile_id', '=', profileId)
+    .where('version', '=', version)
+    .executeTakeFirst();
+}
+
+/**
+ * Replaces a draft's parameters. Throws AppError 409 (profile-version-immutable) when the database refuses because
+ * the version is no longer a draft.
+ */
+export function updateDraftParameters(
+  db: Kysely<Database>,
+  id: number,
+  parameters: ProfileDocument,
+  at: Date,
+): Promise<ProfileVersionRow> {
+  return guardFrozen(id, () =>
+    db
+      .updateTable('profile_versions')
+      .set({ parameters: JSON.stringify(parameters), updated_at: at.toISOString() })
+      .where('id', '=', id)
+      .returningAll()
+      .executeTakeFirstOrThrow(),
+  );
+}
+
+/**
+ * Moves a version to a new status with the columns that go with it (changelog, who and when). Throws AppError 409
+ * (profile-version-immutable) when the database refuses the move.
+ */
+export function updateVersionStatus(
+  db: Kysely<Database>,
+  id: number,
+  set: Updateable<Database['profile_versions']>,
+): Promise<ProfileVersionRow> {
+  return guardFrozen(id, () =>
+    db.updateTable('profile_versions').set(set).where('id', '=', id).returningAll().executeTakeFirstOrThrow(),
+  );
 }
 
 export async function nextVersionNumber(db: Kysely<Database>, profileId: number): Promise<number> {

@@ -24,12 +24,15 @@ import {
   findProfileByDocumentId,
   findProfileById,
   findVersionById,
+  findVersionOfProfile,
   insertDraft,
   insertProfile,
   stamped,
   toProfile,
   toVersion,
   toVersionSummary,
+  updateDraftParameters,
+  updateVersionStatus,
 } from './profile-repository';
 import { recordCatalogueAudit } from './record-catalogue-audit';
 
@@ -49,12 +52,7 @@ async function changeVersionStatus(
   at: Date,
   set: Updateable<Database['profile_versions']>,
 ) {
-  const updated = await trx
-    .updateTable('profile_versions')
-    .set(set)
-    .where('id', '=', row.id)
-    .returningAll()
-    .executeTakeFirstOrThrow();
+  const updated = await updateVersionStatus(trx, row.id, set);
   await recordCatalogueAudit(trx, {
     at,
     actor,
@@ -174,12 +172,7 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
         const at = clock.now();
         const existing = await findProfileByDocumentId(trx, document.id);
         if (existing) {
-          const parent = await trx
-            .selectFrom('profile_versions')
-            .select('id')
-            .where('profile_id', '=', existing.id)
-            .where('version', '=', document.version)
-            .executeTakeFirst();
+          const parent = await findVersionOfProfile(trx, existing.id, document.version);
           const draft = await insertDraft(trx, {
             profile: existing,
             parentVersionId: parent?.id ?? null,
@@ -311,12 +304,7 @@ export const profilesRoutes: RouteModule = (api, { db, clock }) => {
         const before = JSON.parse(row.parameters) as ProfileDocument;
         const after = stamped(body.parameters, profile.document_id, row.version);
         const at = clock.now();
-        const updated = await trx
-          .updateTable('profile_versions')
-          .set({ parameters: JSON.stringify(after), updated_at: at.toISOString() })
-          .where('id', '=', row.id)
-          .returningAll()
-          .executeTakeFirstOrThrow();
+        const updated = await updateDraftParameters(trx, row.id, after, at);
         await recordCatalogueAudit(trx, {
           at,
           actor: user!,
