@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { join, resolve } from 'node:path';
 import { z } from 'zod';
 
@@ -23,6 +24,14 @@ const envSchema = z.object({
   // the Angular build's output folder (angular.json outputPath + /browser)
   WEB_ROOT: z.string().min(1).default('dist/web/browser'),
   SEED_DEMO: z.enum(['true', 'false']).default('true'),
+  // 1 GiB: a 16-bit RGB scan of a 6x7 frame at 4000 ppi is about 630 MB uncompressed (our arithmetic, with room)
+  UPLOAD_MAX_FILE_BYTES: intFromEnv(1024, 8 * 1024 ** 3).default(1024 ** 3),
+  // 100 files: a 36-exposure roll with leader, ends and retakes, with room (our choice)
+  UPLOAD_MAX_FILES: intFromEnv(1, 1000).default(100),
+  // 120 MP: a 6x7 frame at 4000 ppi is about 105 MP, common practice of the trade, from memory
+  UPLOAD_MAX_PIXELS: intFromEnv(1, 1_000_000_000).default(120_000_000),
+  // frames inverted at once; default one per core so the worker pool stays busy (our choice)
+  JOB_CONCURRENCY: intFromEnv(1, 256).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   // local stand-ins for the mail server and the payment provider; on by default except in production (our choice)
   LOCAL_FAKES: z.enum(['true', 'false']).optional(),
@@ -60,6 +69,10 @@ export interface Config {
   webRoot: string;
   seedDemo: boolean;
   logLevel: string;
+  /** Limits of one upload request of negative scans. */
+  uploads: { maxFileBytes: number; maxFiles: number; maxPixels: number };
+  /** Frames the inversion queue works on at once. */
+  jobConcurrency: number;
   /** True when the mail catcher and the payment fake run inside this server instead of the hosted services. */
   localFakes: boolean;
   smtp: SmtpSettings;
@@ -150,6 +163,12 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     webRoot: resolve(e.WEB_ROOT),
     seedDemo: e.SEED_DEMO === 'true',
     logLevel: e.LOG_LEVEL,
+    uploads: {
+      maxFileBytes: e.UPLOAD_MAX_FILE_BYTES,
+      maxFiles: e.UPLOAD_MAX_FILES,
+      maxPixels: e.UPLOAD_MAX_PIXELS,
+    },
+    jobConcurrency: e.JOB_CONCURRENCY ?? availableParallelism(),
     localFakes,
     smtp: {
       host: e.SMTP_HOST,
