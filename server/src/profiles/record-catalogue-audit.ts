@@ -6,6 +6,7 @@ import type { Database } from '../db/database';
 export type CatalogueAuditAction =
   | 'stock-created'
   | 'scanner-created'
+  | 'scanner-updated'
   | 'profile-created'
   | 'profile-imported'
   | 'profile-version-created'

@@ -1,4 +1,10 @@
-import type { CreateScannerRequest, Scanner, ScannerKind, ScannerProfile } from '@clearbase/contracts';
+import type {
+  CreateScannerRequest,
+  Scanner,
+  ScannerKind,
+  ScannerProfile,
+  UpdateScannerRequest,
+} from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database, ScannerRow } from '../db/database';
 
@@ -25,6 +31,20 @@ export function insertScanner(
     })
     .returningAll()
     .executeTakeFirstOrThrow();
+}
+
+/** Replaces a scanner's name, kind and input profile; undefined when there is no such scanner. */
+export function updateScanner(
+  db: Kysely<Database>,
+  id: number,
+  scanner: UpdateScannerRequest,
+): Promise<ScannerRow | undefined> {
+  return db
+    .updateTable('scanners')
+    .set({ name: scanner.name, kind: scanner.kind, input_profile: JSON.stringify(scanner.inputProfile) })
+    .where('id', '=', id)
+    .returningAll()
+    .executeTakeFirst();
 }
 
 export function toScanner(row: ScannerRow): Scanner {

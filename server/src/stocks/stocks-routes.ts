@@ -43,7 +43,9 @@ export const stocksRoutes: RouteModule = (api, { db, clock }) => {
           row = await insertStock(trx, body, clock.now());
         } catch (err) {
           if (isUniqueViolation(err))
-            throw new AppError('stock-name-taken', 409, `A stock named ${body.name} already exists.`);
+            throw new AppError('stock-name-taken', 409, `A stock named ${body.name} already exists.`, [
+              { path: 'body.name', message: 'Another stock has this name' },
+            ]);
           throw err;
         }
         const created = toStock(row);

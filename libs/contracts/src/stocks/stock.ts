@@ -99,6 +99,10 @@ export const createScannerRequestSchema = z.strictObject({
 });
 export type CreateScannerRequest = z.infer<typeof createScannerRequestSchema>;
 
+/** What a manager sends to change a scanner: its whole record, as when adding it. */
+export const updateScannerRequestSchema = createScannerRequestSchema;
+export type UpdateScannerRequest = z.infer<typeof updateScannerRequestSchema>;
+
 /** Filters of the stock catalogue; all optional. `q` matches name or maker, ignoring case. */
 export const stockQuerySchema = z.strictObject({
   q: z.string().trim().max(120).optional(),
