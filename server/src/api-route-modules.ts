@@ -1,10 +1,12 @@
 import { auditRoutes } from './audit/audit-routes';
+import { devMailboxRoutes } from './dev-mailbox/dev-mailbox-routes';
 import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
 import { labRoutes } from './lab/lab-routes';
 import { profilesRoutes } from './profiles/profiles-routes';
 import { referenceFrameRoutes } from './profiles/reference-frame-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
+import { signupRoutes } from './signup/signup-routes';
 import { stocksRoutes } from './stocks/stocks-routes';
 import { usersRoutes } from './users/users-routes';
 
@@ -21,4 +23,6 @@ export const apiRouteModules: readonly RouteModule[] = [
   scannersRoutes,
   profilesRoutes,
   referenceFrameRoutes,
+  signupRoutes,
+  devMailboxRoutes,
 ];

@@ -2,6 +2,7 @@ import type { Role } from '@clearbase/contracts';
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
 import type { OrderTables } from '../orders/order-tables';
 import type { OutboxTable } from '../mail/outbox-table';
+import type { PasswordTokensTable, PendingSignupsTable } from '../signup/signup-tables';
 
 /** Times are ISO-8601 UTC text; booleans are 0/1 integers (SQLite has no boolean type). */
 export interface UsersTable {
@@ -116,6 +117,8 @@ export interface Database {
   profiles: ProfilesTable;
   profile_versions: ProfileVersionsTable;
   outbox: OutboxTable;
+  pending_signups: PendingSignupsTable;
+  password_tokens: PasswordTokensTable;
   files: OrderTables['files'];
   orders: OrderTables['orders'];
   rolls: OrderTables['rolls'];

@@ -1,1 +1,2 @@
 export * from './caught-mail';
+export * from './signup';
