@@ -1,0 +1,13 @@
+// Building a stock profile from a calibration roll: grey bracket, colour chart, film base.
+export * from './chart-reference';
+export * from './homography';
+export * from './chart-grid';
+export * from './sample-region';
+export * from './isotonic-regression';
+export * from './characteristic-curve-fit';
+export * from './speed-point';
+export * from './bracket-balance';
+export * from './crosstalk-fit';
+export * from './calibration-warning';
+export * from './build-calibration';
+export * from './calibration-roll';
