@@ -10,6 +10,7 @@ import { migrateToLatest } from './db/migrate';
 import { openDatabase } from './db/open-database';
 import { demoPassword, demoUsers, seedDemo } from './demo/seed';
 import { createLogger } from './logging/create-logger';
+import { mailServices } from './mail/mail-services';
 
 // hourly: expired sessions are refused on read anyway; pruning only keeps the table small (our choice)
 const sessionPruneIntervalMs = 3600_000;
@@ -55,6 +56,7 @@ const services: BackgroundService[] = [
     },
   },
 ];
+services.push(...mailServices(config, { db, clock: systemClock, logger }));
 
 const started: BackgroundService[] = [];
 for (const service of services) {
