@@ -37,7 +37,7 @@ export interface SpeedPoint {
  * offset in stops is (log H_M + 0.759) / log10 2 and EI = ISO × 2^(−offset).
  *
  * Worked arithmetic: green at −1.20, red −1.10, blue −1.15 → H_S red, log H_M = −1.15;
- * offset = (−1.15 + 0.759) / 0.30103 = −1.30 stops; an ISO 200 film rates at EI 200 × 2^1.30 = 492.
+ * offset = (−1.15 + 0.7593) / 0.30103 = −1.298 stops; an ISO 200 film rates at EI 200 × 2^1.298 = 492.
  * @example speedPoint([red, green, blue], 200).ei // e.g. 492
  */
 export function speedPoint(
