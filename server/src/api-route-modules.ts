@@ -3,6 +3,7 @@ import { devMailboxRoutes } from './dev-mailbox/dev-mailbox-routes';
 import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
 import { labRoutes } from './lab/lab-routes';
+import { pricesRoutes } from './prices/prices-routes';
 import { profilesRoutes } from './profiles/profiles-routes';
 import { referenceFrameRoutes } from './profiles/reference-frame-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
@@ -25,4 +26,5 @@ export const apiRouteModules: readonly RouteModule[] = [
   referenceFrameRoutes,
   signupRoutes,
   devMailboxRoutes,
+  pricesRoutes,
 ];

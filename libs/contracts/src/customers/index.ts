@@ -1,2 +1,3 @@
 export * from './caught-mail';
 export * from './signup';
+export * from './price-list';
