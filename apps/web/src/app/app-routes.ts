@@ -27,6 +27,13 @@ export const appRoutes: Routes = [
         loadComponent: () => import('./account/account-page').then((m) => m.AccountPage),
       },
       {
+        path: 'catalogue/versions/:versionId',
+        canActivateChild: [roleGuard],
+        data: { roles: ['operator', 'manager', 'admin'] },
+        loadChildren: () =>
+          import('./profile-editor/profile-editor-routes').then((m) => m.profileEditorRoutes),
+      },
+      {
         path: 'admin',
         canActivateChild: [roleGuard],
         data: { roles: ['admin'] },
