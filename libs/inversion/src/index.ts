@@ -12,3 +12,4 @@ export * from './invert-pixel';
 export * from './compile-inversion';
 export * from './forward-model';
 export * from './frame-levels';
+export * from './calibration/index';
