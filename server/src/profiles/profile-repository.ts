@@ -69,6 +69,17 @@ export function listVersionsOfProfiles(
     .execute();
 }
 
+/** The names of the given users by id, for saying who made and published versions; unknown ids are left out. */
+export async function userNamesById(
+  db: Kysely<Database>,
+  ids: readonly (number | null)[],
+): Promise<Map<number, string>> {
+  const wanted = [...new Set(ids.filter((id): id is number => id !== null))];
+  if (wanted.length === 0) return new Map();
+  const rows = await db.selectFrom('users').select(['id', 'name']).where('id', 'in', wanted).execute();
+  return new Map(rows.map((r) => [r.id, r.name]));
+}
+
 export function findVersionById(db: Kysely<Database>, id: number): Promise<ProfileVersionRow | undefined> {
   return db.selectFrom('profile_versions').selectAll().where('id', '=', id).executeTakeFirst();
 }

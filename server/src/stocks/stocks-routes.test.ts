@@ -140,6 +140,25 @@ describe('stock sheet', () => {
   });
 });
 
+describe('a stock page', () => {
+  it('names who made and who published each version', async () => {
+    const [stock] = (await customer.get('/api/stocks?q=tealine')).body.stocks;
+    const made = await operator.post('/api/profiles', { stockId: stock.id, name: 'House profile' });
+    expect(made.status).toBe(201);
+    const versionId = made.body.version.id;
+    expect(
+      (await manager.post(`/api/profile-versions/${versionId}/publish`, { changelog: 'First release' }))
+        .status,
+    ).toBe(200);
+    const page = await operator.get(`/api/stocks/${stock.id}`);
+    expect(page.body.profiles[0].versions[0]).toMatchObject({
+      id: versionId,
+      createdByName: 'Test operator',
+      publishedByName: 'Test manager',
+    });
+  });
+});
+
 describe('scanners', () => {
   const rig = {
     name: 'Copy stand one',

@@ -7,6 +7,7 @@ import {
   listVersionsOfProfiles,
   toProfile,
   toVersionSummary,
+  userNamesById,
 } from '../profiles/profile-repository';
 import { recordCatalogueAudit } from '../profiles/record-catalogue-audit';
 import { isUniqueViolation } from './is-unique-violation';
@@ -79,11 +80,22 @@ export const stocksRoutes: RouteModule = (api, { db, clock }) => {
         db,
         profiles.map((p) => p.id),
       );
+      const names = await userNamesById(
+        db,
+        versions.flatMap((v) => [v.created_by, v.published_by]),
+      );
+      const nameOf = (id: number | null) => (id === null ? null : (names.get(id) ?? null));
       const detail: StockDetail = {
         stock: toStock(row),
         profiles: profiles.map((p) => ({
           ...toProfile(p),
-          versions: versions.filter((v) => v.profile_id === p.id).map(toVersionSummary),
+          versions: versions
+            .filter((v) => v.profile_id === p.id)
+            .map((v) => ({
+              ...toVersionSummary(v),
+              createdByName: nameOf(v.created_by),
+              publishedByName: nameOf(v.published_by),
+            })),
         })),
       };
       res.json(detail);

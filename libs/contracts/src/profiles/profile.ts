@@ -21,6 +21,9 @@ export const profileVersionSummarySchema = z.object({
   publishedAt: z.string().nullable(),
   publishedBy: z.number().int().nullable(),
   retiredAt: z.string().nullable(),
+  /** Names of who made and who published the version, where the answer includes them (a stock's page does). */
+  createdByName: z.string().nullable().optional(),
+  publishedByName: z.string().nullable().optional(),
 });
 export type ProfileVersionSummary = z.infer<typeof profileVersionSummarySchema>;
 
@@ -81,3 +84,11 @@ export const profileDiffSchema = z.object({
   changes: z.array(parameterChangeSchema),
 });
 export type ProfileDiff = z.infer<typeof profileDiffSchema>;
+
+/** What an import made: a new profile with its version 1 draft, or a new draft of the profile the document names. */
+export const importProfileResponseSchema = z.object({
+  created: z.enum(['profile', 'draft']),
+  profile: profileSchema,
+  version: profileVersionSchema,
+});
+export type ImportProfileResponse = z.infer<typeof importProfileResponseSchema>;
