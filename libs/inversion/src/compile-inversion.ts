@@ -5,18 +5,19 @@ import {
   resolveInversion,
   type InversionParams,
 } from './invert-pixel';
-import { densityAboveBase } from './density';
-import { linearise, FULL_SCALE_16 } from './scanner-input';
+import { densityTable, exposureTable, EXPOSURE_TABLE_SIZE } from './inversion-tables';
 
-/** Entries of the density → log exposure table: 32768 over 5 D is 0.00015 D a step, linearly interpolated (sized by the equality test). */
-const EXPOSURE_LUT_SIZE = 32768;
-/** Entries of the log exposure → output table: 262144 over 9 log units, linearly interpolated; fine enough that the
- * kink at the white clip stays within one 16-bit code (sized by the equality test). */
-const OUTPUT_LUT_SIZE = 262144;
+/**
+ * Entries of the log exposure → output table over the 9 log units of the relative range (0.0011 log E a step).
+ * The table holds the unclipped, smooth output curve and codes are clipped after interpolation, so there is no
+ * kink to resolve: the interpolation error stays under 0.01 of a 16-bit code (sized by the equality test).
+ */
+const OUTPUT_LUT_SIZE = 8192;
 
 /**
  * A compiled inversion: plain data and typed arrays only, so it survives structuredClone / postMessage.
- * Per pixel: D = densityLut[c·65536 + count]; D' = M·D; e = interp(exposureLut, D'); saturation; code = interp(outputLut, e).
+ * Per pixel: D = densityLut[c·65536 + count]; D' = M·D; e = interp(exposureLut, D'); saturation;
+ * code = clip(interp(outputLut, e), 0, max code).
  */
 export interface InversionPlan {
   outputBits: 8 | 16;
@@ -32,7 +33,10 @@ export interface InversionPlan {
   /** Saturation factor in log exposure around the luminance-weighted mean; 1 = none. */
   saturation: number;
   weights: [number, number, number];
-  /** outputLutSize output code values (not rounded) over relativeMin…relativeMax. */
+  /**
+   * outputLutSize output code values (not rounded) over relativeMin…relativeMax. They may run past 0…max code
+   * (the smooth curve beyond black and white): `applyInversion` clips after interpolating.
+   */
   outputLut: Float32Array;
   outputLutSize: number;
   relativeMin: number;
@@ -42,42 +46,25 @@ export interface InversionPlan {
 }
 
 /**
- * Compiles params into lookup tables for `applyInversion`.
+ * Compiles params into lookup tables for `applyInversion`: about 0.3 million table entries, a few milliseconds.
+ * Throws a RangeError (see `assertInversionParams`) before any work on invalid params.
  * @example const plan = compileInversion(params); applyInversion(plan, input, output, 0, width * height);
  */
 export function compileInversion(params: InversionParams): InversionPlan {
   const resolved = resolveInversion(params);
   const [dMin, dMax] = DENSITY_RANGE;
   const [rMin, rMax] = RELATIVE_LOG_EXPOSURE_RANGE;
-  const densityLut = new Float32Array(3 * 65536);
-  for (let c = 0; c < 3; c++) {
-    for (let v = 0; v < 65536; v++) {
-      const d = densityAboveBase(
-        linearise(v / FULL_SCALE_16, params.scanner, c as 0 | 1 | 2),
-        params.base[c]!,
-      );
-      densityLut[c * 65536 + v] = d < dMin ? dMin : d > dMax ? dMax : d;
-    }
-  }
   const m = resolved.crosstalk;
   const identity = m.every((row, r) => row.every((x, k) => x === (r === k ? 1 : 0)));
-  const exposureLut = new Float32Array(3 * EXPOSURE_LUT_SIZE);
-  for (let c = 0; c < 3; c++) {
-    for (let i = 0; i < EXPOSURE_LUT_SIZE; i++) {
-      const d = dMin + ((dMax - dMin) * i) / (EXPOSURE_LUT_SIZE - 1);
-      const e = resolved.curves[c]!.inverse(d) + resolved.offset[c]!;
-      exposureLut[c * EXPOSURE_LUT_SIZE + i] = e < rMin ? rMin : e > rMax ? rMax : e;
-    }
-  }
   const outputLut = new Float32Array(OUTPUT_LUT_SIZE);
   for (let i = 0; i < OUTPUT_LUT_SIZE; i++)
-    outputLut[i] = resolved.encode(rMin + ((rMax - rMin) * i) / (OUTPUT_LUT_SIZE - 1));
+    outputLut[i] = resolved.encodeUnclipped(rMin + ((rMax - rMin) * i) / (OUTPUT_LUT_SIZE - 1));
   const plan: InversionPlan = {
     outputBits: params.outputBits,
-    densityLut,
+    densityLut: densityTable(params.scanner, params.base),
     crosstalk: identity ? null : Float32Array.from(m.flat()),
-    exposureLut,
-    exposureLutSize: EXPOSURE_LUT_SIZE,
+    exposureLut: exposureTable(resolved),
+    exposureLutSize: EXPOSURE_TABLE_SIZE,
     densityMin: dMin,
     densityMax: dMax,
     saturation: resolved.saturation,
@@ -91,15 +78,17 @@ export function compileInversion(params: InversionParams): InversionPlan {
   if (identity && resolved.saturation === 1) {
     // Every stage is per channel: fold the whole chain into one table per channel, through the same tables.
     const direct = new Uint16Array(3 * 65536);
-    const e = new Float64Array(3);
-    for (let v = 0; v < 65536; v++) {
-      e[0] = densityLut[v]!;
-      e[1] = densityLut[65536 + v]!;
-      e[2] = densityLut[131072 + v]!;
-      pixelFromDensities(plan, e);
-      direct[v] = e[0]!;
-      direct[65536 + v] = e[1]!;
-      direct[131072 + v] = e[2]!;
+    const { densityLut: dl, exposureLut: el, exposureLutSize: en } = plan;
+    const dScale = (en - 1) / (dMax - dMin),
+      rScale = (OUTPUT_LUT_SIZE - 1) / (rMax - rMin);
+    for (let c = 0; c < 3; c++) {
+      for (let v = c * 65536; v < (c + 1) * 65536; v++) {
+        const e = lerp(el, c * en, (dl[v]! - dMin) * dScale, en - 1 - 1e-6);
+        direct[v] = code(
+          lerp(outputLut, 0, (e - rMin) * rScale, OUTPUT_LUT_SIZE - 1 - 1e-6),
+          resolved.maxCode,
+        );
+      }
     }
     plan.directLut = direct;
   }
@@ -109,6 +98,7 @@ export function compileInversion(params: InversionParams): InversionPlan {
 /**
  * Inverts pixels [firstPixel, firstPixel + pixelCount) of interleaved 16-bit RGB `input` into `output`
  * (same pixel indices; Uint8Array for 8-bit plans, Uint16Array for 16-bit). Workers may split rows.
+ * No allocation per pixel: table lookups, the 3×3 crosstalk and saturation in one pass over typed arrays.
  * Throws a RangeError, before any work, for a range outside the input or an output of the wrong kind.
  * @example applyInversion(plan, input, output, row * width, width) // one row
  */
@@ -134,106 +124,117 @@ export function applyInversion(
     throw new RangeError(
       `Expected ${plan.outputBits === 8 ? 'Uint8Array' : 'Uint16Array'} for output of a ${plan.outputBits}-bit plan but received ${output.constructor.name}`,
     );
-  const end = (firstPixel + pixelCount) * 3;
+  const start = firstPixel * 3,
+    end = (firstPixel + pixelCount) * 3;
   const direct = plan.directLut;
   if (direct) {
-    for (let i = firstPixel * 3; i < end; i += 3) {
+    for (let i = start; i < end; i += 3) {
       output[i] = direct[input[i]!]!;
       output[i + 1] = direct[65536 + input[i + 1]!]!;
       output[i + 2] = direct[131072 + input[i + 2]!]!;
     }
     return;
   }
-  const {
-    densityLut: dl,
-    crosstalk: m,
-    exposureLut: el,
-    exposureLutSize: en,
-    outputLut: ol,
-    outputLutSize: on,
-    saturation: s,
-  } = plan;
+  invertTables(plan, input, output, start, end);
+}
+
+/** The table path over samples [start, end) of `input`: densities, crosstalk, exposure, saturation, output. */
+function invertTables(
+  plan: InversionPlan,
+  input: Uint16Array,
+  output: Uint8Array | Uint16Array,
+  start: number,
+  end: number,
+): void {
+  const dl = plan.densityLut,
+    el = plan.exposureLut,
+    ol = plan.outputLut;
+  const eLast = plan.exposureLutSize - 1,
+    oLast = plan.outputLutSize - 1,
+    eTop = eLast - 1e-6,
+    oTop = oLast - 1e-6;
+  const e1 = plan.exposureLutSize,
+    e2 = 2 * plan.exposureLutSize;
   const dMin = plan.densityMin,
-    dMax = plan.densityMax,
-    rMin = plan.relativeMin,
-    rMax = plan.relativeMax;
-  const dScale = (en - 1) / (dMax - dMin);
-  const rScale = (on - 1) / (rMax - rMin);
-  const [wr, wg, wb] = plan.weights;
-  const expo = (d: number, base: number): number => {
-    if (d <= dMin) return el[base]!;
-    if (d >= dMax) return el[base + en - 1]!;
-    const x = (d - dMin) * dScale;
-    const i = x | 0;
-    return el[base + i]! + (x - i) * (el[base + i + 1]! - el[base + i]!);
-  };
-  const out = (e: number): number => {
-    if (e <= rMin) return Math.round(ol[0]!);
-    if (e >= rMax) return Math.round(ol[on - 1]!);
-    const x = (e - rMin) * rScale;
-    const i = x | 0;
-    return Math.round(ol[i]! + (x - i) * (ol[i + 1]! - ol[i]!));
-  };
-  for (let i = firstPixel * 3; i < end; i += 3) {
-    let r = dl[input[i]!]!;
-    let g = dl[65536 + input[i + 1]!]!;
-    let b = dl[131072 + input[i + 2]!]!;
-    if (m) {
-      const r2 = m[0]! * r + m[1]! * g + m[2]! * b;
-      const g2 = m[3]! * r + m[4]! * g + m[5]! * b;
-      b = m[6]! * r + m[7]! * g + m[8]! * b;
-      r = r2;
-      g = g2;
-    }
-    let er = expo(r, 0),
-      eg = expo(g, en),
-      eb = expo(b, 2 * en);
-    if (s !== 1) {
-      const mean = wr * er + wg * eg + wb * eb;
-      er = mean + s * (er - mean);
-      eg = mean + s * (eg - mean);
-      eb = mean + s * (eb - mean);
-    }
-    output[i] = out(er);
-    output[i + 1] = out(eg);
-    output[i + 2] = out(eb);
+    dScale = eLast / (plan.densityMax - dMin);
+  const rMin = plan.relativeMin,
+    rScale = oLast / (plan.relativeMax - rMin);
+  const maxCode = plan.outputBits === 8 ? 255 : 65535;
+  const s = plan.saturation;
+  const wr = plan.weights[0],
+    wg = plan.weights[1],
+    wb = plan.weights[2];
+  const m = plan.crosstalk;
+  const m0 = m ? m[0]! : 1,
+    m1 = m ? m[1]! : 0,
+    m2 = m ? m[2]! : 0,
+    m3 = m ? m[3]! : 0,
+    m4 = m ? m[4]! : 1,
+    m5 = m ? m[5]! : 0,
+    m6 = m ? m[6]! : 0,
+    m7 = m ? m[7]! : 0,
+    m8 = m ? m[8]! : 1;
+  for (let i = start; i < end; i += 3) {
+    const d0 = dl[input[i]!]!,
+      d1 = dl[65536 + input[i + 1]!]!,
+      d2 = dl[131072 + input[i + 2]!]!;
+    const r = m0 * d0 + m1 * d1 + m2 * d2,
+      g = m3 * d0 + m4 * d1 + m5 * d2,
+      b = m6 * d0 + m7 * d1 + m8 * d2;
+    // The six interpolations are written out by hand so the loop holds no calls whatever the JIT decides;
+    // each clamps its fractional index with two conditional moves (NaN goes to the table's start).
+    let x = (r - dMin) * dScale;
+    x = x > 0 ? x : 0;
+    x = x < eTop ? x : eTop;
+    let k = x | 0;
+    const er = el[k]! + (x - k) * (el[k + 1]! - el[k]!);
+    x = (g - dMin) * dScale;
+    x = x > 0 ? x : 0;
+    x = x < eTop ? x : eTop;
+    k = (x | 0) + e1;
+    const eg = el[k]! + (x + e1 - k) * (el[k + 1]! - el[k]!);
+    x = (b - dMin) * dScale;
+    x = x > 0 ? x : 0;
+    x = x < eTop ? x : eTop;
+    k = (x | 0) + e2;
+    const eb = el[k]! + (x + e2 - k) * (el[k + 1]! - el[k]!);
+    // Saturation always applied (s = 1 leaves e as it is to the last bit or two): no branch in the loop.
+    const mean = (1 - s) * (wr * er + wg * eg + wb * eb);
+    x = (mean + s * er - rMin) * rScale;
+    x = x > 0 ? x : 0;
+    x = x < oTop ? x : oTop;
+    k = x | 0;
+    let v = ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!);
+    output[i] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
+    x = (mean + s * eg - rMin) * rScale;
+    x = x > 0 ? x : 0;
+    x = x < oTop ? x : oTop;
+    k = x | 0;
+    v = ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!);
+    output[i + 1] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
+    x = (mean + s * eb - rMin) * rScale;
+    x = x > 0 ? x : 0;
+    x = x < oTop ? x : oTop;
+    k = x | 0;
+    v = ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!);
+    output[i + 2] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
   }
 }
 
-/** Densities after crosstalk (in `e`) → rounded output codes (in `e`): exposure tables, saturation, output table. */
-function pixelFromDensities(plan: InversionPlan, e: Float64Array): void {
-  const { exposureLut: el, exposureLutSize: en, outputLut: ol, outputLutSize: on, saturation: s } = plan;
-  const dMin = plan.densityMin,
-    dMax = plan.densityMax,
-    rMin = plan.relativeMin,
-    rMax = plan.relativeMax;
-  const dScale = (en - 1) / (dMax - dMin);
-  const rScale = (on - 1) / (rMax - rMin);
-  for (let c = 0; c < 3; c++) {
-    const d = e[c]!;
-    const base = c * en;
-    let v: number;
-    if (d <= dMin) v = el[base]!;
-    else if (d >= dMax) v = el[base + en - 1]!;
-    else {
-      const x = (d - dMin) * dScale;
-      const k = x | 0;
-      v = el[base + k]! + (x - k) * (el[base + k + 1]! - el[base + k]!);
-    }
-    e[c] = v;
-  }
-  if (s !== 1) {
-    const mean = plan.weights[0] * e[0]! + plan.weights[1] * e[1]! + plan.weights[2] * e[2]!;
-    for (let c = 0; c < 3; c++) e[c] = mean + s * (e[c]! - mean);
-  }
-  for (let c = 0; c < 3; c++) {
-    const v = e[c]!;
-    if (v <= rMin) e[c] = Math.round(ol[0]!);
-    else if (v >= rMax) e[c] = Math.round(ol[on - 1]!);
-    else {
-      const x = (v - rMin) * rScale;
-      const k = x | 0;
-      e[c] = Math.round(ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!));
-    }
-  }
+/**
+ * Linear interpolation in table[base … base + top] at fractional index x, held to the table (NaN to its start).
+ * `top` is the last index less a millionth of a step, so the upper neighbour always exists. Used when folding
+ * the direct table; the pixel loop writes the same steps out by hand.
+ */
+function lerp(table: Float32Array, base: number, x: number, top: number): number {
+  x = x > 0 ? x : 0;
+  x = x < top ? x : top;
+  const k = x | 0;
+  const lo = table[base + k]!;
+  return lo + (x - k) * (table[base + k + 1]! - lo);
+}
+
+/** A code value clipped to 0…maxCode and rounded to nearest (half up, as Math.round for values ≥ 0). */
+function code(v: number, maxCode: number): number {
+  return v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
 }

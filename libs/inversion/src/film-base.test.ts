@@ -39,6 +39,34 @@ describe('film base detection', () => {
       expect(y + h <= 24 || y >= neg.height - 24).toBe(true);
     });
   }
+  it('finds the base of a 4-megapixel scan from a strided sample, still within 1 % per channel', () => {
+    const small = exposeNegative(outdoorScene(320, 200), {
+      stock: TINTLINE_400,
+      scanner,
+      rebate: 24,
+      sprocketHoles: true,
+      dust: 60,
+      grain: 0.01,
+      seed: 3,
+    });
+    // Each pixel of the small negative becomes an 8 × 8 square: 2560 × 1984, holes and dust scaled alike.
+    const k = 8;
+    const big = {
+      width: small.width * k,
+      height: small.height * k,
+      data: new Uint16Array(small.data.length * k * k),
+    };
+    for (let y = 0; y < big.height; y++)
+      for (let x = 0; x < big.width; x++) {
+        const from = (((y / k) | 0) * small.width + ((x / k) | 0)) * 3;
+        big.data.set(small.data.subarray(from, from + 3), (y * big.width + x) * 3);
+      }
+    const found = detectFilmBase(big, scanner);
+    found.rgb.forEach((v, c) => expect(Math.abs(v / small.truth.base[c]! - 1)).toBeLessThan(0.01));
+    expect(found.confidence).toBeGreaterThan(0.5);
+    const drawn = baseFromRegion(big, scanner, [0, 0, big.width, 24 * k]);
+    drawn.rgb.forEach((v, c) => expect(Math.abs(v / small.truth.base[c]! - 1)).toBeLessThan(0.01));
+  });
   it('ignores clipped bare light even where it covers most of the border', () => {
     const neg = exposeNegative(outdoorScene(160, 100), {
       stock: POLYCLEAR_200,

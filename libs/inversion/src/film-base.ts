@@ -40,6 +40,9 @@ const EVENNESS = 0.04;
 /** Pixels darker than this fraction of the block median are dust, left out (from memory). */
 const DUST_FRACTION = 0.8;
 
+/** Pixels examined at most for one detection or one drawn rectangle: a strided sample, plenty for a median (from memory). */
+export const MAX_BASE_SAMPLES = 250_000;
+
 function median(values: number[]): number {
   if (!values.length) return 0;
   const s = [...values].sort((a, b) => a - b);
@@ -47,40 +50,84 @@ function median(values: number[]): number {
   return n % 2 ? s[n >> 1]! : 0.5 * (s[n / 2 - 1]! + s[n / 2]!);
 }
 
-/** Per-channel medians (linear light) of the unclipped pixels of a rectangle; dark specks left out. */
+/** Grid step that keeps a w × h area within `MAX_BASE_SAMPLES` samples. */
+function sampleStep(w: number, h: number): number {
+  return Math.max(1, Math.ceil(Math.sqrt((w * h) / MAX_BASE_SAMPLES)));
+}
+
+/** Reusable sample buffers, grown on demand, so a detection allocates nothing per block. */
+interface Scratch {
+  sums: Uint32Array;
+  sorted: Uint32Array;
+  channel: Uint16Array;
+}
+
+function scratchFor(scratch: Scratch | null, n: number): Scratch {
+  if (scratch && scratch.sums.length >= n) return scratch;
+  return { sums: new Uint32Array(n), sorted: new Uint32Array(n), channel: new Uint16Array(n) };
+}
+
+/** Median of sorted counts in linear light: the mean of the two middle ones' linear values for an even count. */
+function linearMedian(sorted: Uint16Array, scanner: ScannerProfile, c: 0 | 1 | 2): number {
+  const n = sorted.length;
+  const lin = (i: number) => linearise(sorted[i]! / FULL_SCALE_16, scanner, c);
+  return n % 2 ? lin(n >> 1) : 0.5 * (lin(n / 2 - 1) + lin(n / 2));
+}
+
+/**
+ * Per-channel medians (linear light) of the unclipped pixels on a grid of `step` over a rectangle; dark specks
+ * left out. The scanner's decoding is increasing, so medians are taken on counts and only they are linearised.
+ */
 function sampleRect(
   image: RgbImage,
   scanner: ScannerProfile,
   rect: Region,
   clip: number,
+  step: number,
+  buffers: { scratch: Scratch | null },
 ): { rgb: Rgb; used: number; spread: number } | null {
   const [x0, y0, w, h] = rect;
-  const ch: [number[], number[], number[]] = [[], [], []];
-  const sums: number[] = [];
-  for (let y = y0; y < y0 + h; y++) {
-    for (let x = x0; x < x0 + w; x++) {
-      const i = (y * image.width + x) * 3;
-      const r = image.data[i]!,
-        g = image.data[i + 1]!,
-        b = image.data[i + 2]!;
+  const grid = Math.ceil(w / step) * Math.ceil(h / step);
+  const scratch = (buffers.scratch = scratchFor(buffers.scratch, grid));
+  const { sums, sorted, channel } = scratch;
+  const data = image.data;
+  let n = 0;
+  for (let y = y0; y < y0 + h; y += step) {
+    for (let x = x0, i = (y * image.width + x0) * 3; x < x0 + w; x += step, i += 3 * step) {
+      const r = data[i]!,
+        g = data[i + 1]!,
+        b = data[i + 2]!;
       if (r >= clip || g >= clip || b >= clip) continue;
-      sums.push(r + g + b);
-      ch[0].push(linearise(r / FULL_SCALE_16, scanner, 0));
-      ch[1].push(linearise(g / FULL_SCALE_16, scanner, 1));
-      ch[2].push(linearise(b / FULL_SCALE_16, scanner, 2));
+      sums[n++] = r + g + b;
     }
   }
-  if (sums.length < Math.max(4, (w * h) / 4)) return null;
-  const mSum = median(sums);
-  const keep = sums.map((s) => s >= DUST_FRACTION * mSum);
-  const pick = (a: number[]) => median(a.filter((_, i) => keep[i]));
-  const kept = sums.filter((_, i) => keep[i]);
-  const mad = median(kept.map((s) => Math.abs(s - mSum)));
-  return {
-    rgb: [pick(ch[0]), pick(ch[1]), pick(ch[2])],
-    used: kept.length,
-    spread: mSum > 0 ? mad / mSum : 1,
-  };
+  if (n < Math.max(4, grid / 4)) return null;
+  const order = sorted.subarray(0, n);
+  order.set(sums.subarray(0, n));
+  order.sort();
+  const mSum = n % 2 ? order[n >> 1]! : 0.5 * (order[n / 2 - 1]! + order[n / 2]!);
+  const floor = DUST_FRACTION * mSum;
+  // Deviations of the kept (not dust) sums from the median, for the evenness measure.
+  let kept = 0;
+  for (let k = 0; k < n; k++) if (sums[k]! >= floor) order[kept++] = Math.abs(sums[k]! - mSum);
+  const deviations = order.subarray(0, kept).sort();
+  const mad = kept % 2 ? deviations[kept >> 1]! : 0.5 * (deviations[kept / 2 - 1]! + deviations[kept / 2]!);
+  const rgb: Rgb = [0, 0, 0];
+  for (let c = 0 as 0 | 1 | 2; c < 3; c++) {
+    let m = 0,
+      k = 0;
+    for (let y = y0; y < y0 + h; y += step) {
+      for (let x = x0, i = (y * image.width + x0) * 3; x < x0 + w; x += step, i += 3 * step) {
+        const r = data[i]!,
+          g = data[i + 1]!,
+          b = data[i + 2]!;
+        if (r >= clip || g >= clip || b >= clip) continue;
+        if (sums[k++]! >= floor) channel[m++] = c === 0 ? r : c === 1 ? g : b;
+      }
+    }
+    rgb[c] = linearMedian(channel.subarray(0, m).sort(), scanner, c);
+  }
+  return { rgb, used: kept, spread: mSum > 0 ? mad / mSum : 1 };
 }
 
 /**
@@ -98,7 +145,7 @@ export function baseFromRegion(
   if (x < 0 || y < 0 || w < 1 || h < 1 || x + w > image.width || y + h > image.height)
     return { rgb: [0, 0, 0], region: rect, confidence: 0 };
   const clip = options.clipCount ?? DEFAULT_CLIP_FRACTION * FULL_SCALE_16;
-  const s = sampleRect(image, scanner, [x, y, w, h], clip);
+  const s = sampleRect(image, scanner, [x, y, w, h], clip, sampleStep(w, h), { scratch: null });
   if (!s) return { rgb: [0, 0, 0], region: [x, y, w, h], confidence: 0 };
   return { rgb: s.rgb, region: [x, y, w, h], confidence: Math.max(0, Math.min(1, 1 - s.spread / EVENNESS)) };
 }
@@ -117,10 +164,13 @@ export function detectFilmBase(
   const clip = options.clipCount ?? DEFAULT_CLIP_FRACTION * FULL_SCALE_16;
   const size = options.blockSize ?? Math.max(4, Math.floor(Math.min(image.width, image.height) / 40));
   const tolerance = options.tolerance ?? 0.02;
+  // Each block is sampled on the same grid, at most MAX_BASE_SAMPLES pixels over the image and 4 × 4 per block.
+  const step = Math.min(Math.max(1, Math.floor(size / 4)), sampleStep(image.width, image.height));
+  const buffers = { scratch: null as Scratch | null };
   const blocks: { rect: Region; rgb: Rgb; used: number; spread: number; level: number }[] = [];
   for (let y = 0; y + size <= image.height; y += size) {
     for (let x = 0; x + size <= image.width; x += size) {
-      const s = sampleRect(image, scanner, [x, y, size, size], clip);
+      const s = sampleRect(image, scanner, [x, y, size, size], clip, step, buffers);
       if (!s || s.spread > EVENNESS) continue;
       blocks.push({ rect: [x, y, size, size], ...s, level: s.rgb[0] + s.rgb[1] + s.rgb[2] });
     }

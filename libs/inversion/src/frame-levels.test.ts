@@ -47,6 +47,27 @@ describe('auto exposure and levels', () => {
     expect(tone.blackPoint).toBeLessThan(0.18);
     expect(tone.whitePoint).toBeGreaterThan(0.18);
   });
+  it('measures the same levels from its default strided sample as from every pixel', () => {
+    const neg = exposeNegative(outdoorScene(900, 600), {
+      stock: POLYCLEAR_200,
+      scanner,
+      grain: 0.01,
+      seed: 5,
+    });
+    const params = {
+      profile,
+      scanner,
+      base: neg.truth.base,
+      render: 'print' as const,
+      outputBits: 8 as const,
+    };
+    const sampled = measureFrameLevels(params, neg);
+    const every = measureFrameLevels(params, neg, { step: 1 });
+    expect(sampled.midLogExposure).toBeCloseTo(every.midLogExposure, 2);
+    sampled.channelMeans.forEach((v, c) => expect(v).toBeCloseTo(every.channelMeans[c]!, 2));
+    expect(sampled.blackLogExposure).toBeCloseTo(every.blackLogExposure, 1);
+    expect(sampled.whiteLogExposure).toBeCloseTo(every.whiteLogExposure, 1);
+  });
   it('keeps roll-wide levels with each frame deviating by its own exposure', () => {
     const { roll, deviations } = rollLevels([levelsAt(-1), levelsAt(0), levelsAt(1)]);
     expect(deviations[1]!.midLogExposure).toBeCloseTo(0, 2);

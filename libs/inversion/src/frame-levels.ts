@@ -1,11 +1,7 @@
 import type { Balance, Tone } from '@clearbase/contracts';
 import type { Region, RgbImage } from './film-base';
-import {
-  LUMINANCE_WEIGHTS,
-  relativeLogExposure,
-  resolveInversion,
-  type InversionParams,
-} from './invert-pixel';
+import { DENSITY_RANGE, LUMINANCE_WEIGHTS, resolveInversion, type InversionParams } from './invert-pixel';
+import { densityTable, exposureTable, EXPOSURE_TABLE_SIZE } from './inversion-tables';
 import { MID_GREY } from './tone-curve';
 import { LOG_EXPOSURE_PER_POINT } from './printer-points';
 import type { Rgb } from './srgb';
@@ -25,14 +21,17 @@ export interface FrameLevels {
 export interface MeasureLevelsOptions {
   /** Rectangle to measure (the frame, without rebate); whole image by default. */
   region?: Region;
-  /** Measure every n-th pixel in both directions. Default 4. */
+  /** Measure every n-th pixel in both directions. Default: the smallest step keeping to MAX_LEVEL_SAMPLES pixels. */
   step?: number;
   /** Percentile for black and white points, 0..50. Default 0.5 (common practice of the trade, from memory). */
   clipPercent?: number;
 }
 
+/** Pixels measured at most by default: a strided sample, far more than a mean or a 0.5 % percentile needs (from memory). */
+export const MAX_LEVEL_SAMPLES = 250_000;
+
 /**
- * Measures a frame: mean log exposure (for E_mid), per-channel means (for neutral balance) and black/white points.
+ * Measures a frame on a strided sample, through the same density and exposure tables as `compileInversion`: mean log exposure (for E_mid), per-channel means (for neutral balance) and black/white points.
  * @example measureFrameLevels({ ...params, midLogExposure: 0 }, negative, { region: negative.truth.frame }).midLogExposure // ≈ −0.75
  */
 export function measureFrameLevels(
@@ -43,24 +42,46 @@ export function measureFrameLevels(
   const full: InversionParams = { ...params, midLogExposure: 0, exposureStops: 0, render: 'reference' };
   const resolved = resolveInversion(full);
   const [x0, y0, w, h] = options.region ?? [0, 0, image.width, image.height];
-  const step = Math.max(1, Math.floor(options.step ?? 4));
+  const step = Math.max(1, Math.floor(options.step ?? Math.ceil(Math.sqrt((w * h) / MAX_LEVEL_SAMPLES))));
+  const dl = densityTable(params.scanner, params.base);
+  const el = exposureTable(resolved);
+  const [dMin, dMax] = DENSITY_RANGE;
+  const last = EXPOSURE_TABLE_SIZE - 1;
+  const scale = last / (dMax - dMin);
+  const m = resolved.crosstalk;
+  // Log exposure of density d in channel c's table, linearly interpolated (d' is held to the density range).
+  const expo = (c: number, d: number): number => {
+    const x = (d - dMin) * scale;
+    if (!(x > 0)) return el[c * EXPOSURE_TABLE_SIZE]!;
+    if (x >= last) return el[c * EXPOSURE_TABLE_SIZE + last]!;
+    const k = x | 0;
+    const lo = el[c * EXPOSURE_TABLE_SIZE + k]!;
+    return lo + (x - k) * (el[c * EXPOSURE_TABLE_SIZE + k + 1]! - lo);
+  };
   const sums: Rgb = [0, 0, 0];
-  const lum: number[] = [];
+  const lum = new Float64Array(Math.ceil(w / step) * Math.ceil(h / step));
+  let count = 0;
   for (let y = y0; y < y0 + h; y += step) {
     for (let x = x0; x < x0 + w; x += step) {
       const i = (y * image.width + x) * 3;
-      const e = relativeLogExposure(resolved, full, [image.data[i]!, image.data[i + 1]!, image.data[i + 2]!]);
-      sums[0] += e[0];
-      sums[1] += e[1];
-      sums[2] += e[2];
-      lum.push(LUMINANCE_WEIGHTS[0] * e[0] + LUMINANCE_WEIGHTS[1] * e[1] + LUMINANCE_WEIGHTS[2] * e[2]);
+      const d0 = dl[image.data[i]!]!,
+        d1 = dl[65536 + image.data[i + 1]!]!,
+        d2 = dl[131072 + image.data[i + 2]!]!;
+      const er = expo(0, m[0][0] * d0 + m[0][1] * d1 + m[0][2] * d2),
+        eg = expo(1, m[1][0] * d0 + m[1][1] * d1 + m[1][2] * d2),
+        eb = expo(2, m[2][0] * d0 + m[2][1] * d1 + m[2][2] * d2);
+      sums[0] += er;
+      sums[1] += eg;
+      sums[2] += eb;
+      lum[count++] = LUMINANCE_WEIGHTS[0] * er + LUMINANCE_WEIGHTS[1] * eg + LUMINANCE_WEIGHTS[2] * eb;
     }
   }
-  const n = Math.max(1, lum.length);
+  const n = Math.max(1, count);
   const channelMeans: Rgb = [sums[0] / n, sums[1] / n, sums[2] / n];
-  lum.sort((a, b) => a - b);
+  const sorted = lum.subarray(0, count).sort();
   const pct = (options.clipPercent ?? 0.5) / 100;
-  const at = (q: number) => lum[Math.min(lum.length - 1, Math.max(0, Math.round(q * (lum.length - 1))))] ?? 0;
+  const at = (q: number) =>
+    sorted[Math.min(sorted.length - 1, Math.max(0, Math.round(q * (sorted.length - 1))))] ?? 0;
   return {
     midLogExposure:
       LUMINANCE_WEIGHTS[0] * channelMeans[0] +

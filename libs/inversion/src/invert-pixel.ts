@@ -4,7 +4,7 @@ import { createMonotoneCurve, type MonotoneCurve } from './monotone-curve';
 import { addBalances, balanceToLogExposure, stopsToLogExposure } from './printer-points';
 import { linearise, FULL_SCALE_16 } from './scanner-input';
 import { srgbEncode, type Matrix3, type Rgb } from './srgb';
-import { MID_GREY, referenceTone, toneCurve } from './tone-curve';
+import { MID_GREY, referenceLinear, referenceTone, toneCurve, toneCurveUnclipped } from './tone-curve';
 
 /** Densities above base are held to this range, D (covers any colour negative, from memory). */
 export const DENSITY_RANGE: readonly [number, number] = [-0.5, 4.5];
@@ -46,7 +46,13 @@ export interface ResolvedInversion {
   /** Added to the recovered log exposure per channel: balance + exposure − E_mid. */
   offset: Rgb;
   saturation: number;
+  /** Relative log exposure → output code value (not rounded), clipped to 0…maxCode. */
   encode: (relativeLogExposure: number) => number;
+  /**
+   * The same before clipping (smooth past black and white): tables of it interpolate without kinks; clipping the
+   * interpolated code to 0…maxCode gives `encode` (both curves are increasing, and sRGB keeps 0 and 1).
+   */
+  encodeUnclipped: (relativeLogExposure: number) => number;
   maxCode: number;
 }
 
@@ -104,12 +110,17 @@ export function resolveInversion(params: InversionParams): ResolvedInversion {
     params.render === 'reference'
       ? (rel: number) => maxCode * srgbEncode(referenceTone(rel))
       : (rel: number) => maxCode * srgbEncode(toneCurve(rel, tone));
+  const encodeUnclipped =
+    params.render === 'reference'
+      ? (rel: number) => maxCode * srgbEncode(referenceLinear(rel))
+      : (rel: number) => maxCode * srgbEncode(toneCurveUnclipped(rel, tone));
   return {
     curves: [curve('red'), curve('green'), curve('blue')],
     crosstalk: profile.crosstalk,
     offset: [balance[0] + shift, balance[1] + shift, balance[2] + shift],
     saturation: params.render === 'reference' ? 1 : profile.saturation,
     encode,
+    encodeUnclipped,
     maxCode,
   };
 }

@@ -83,6 +83,14 @@ export function createMonotoneCurve(
       (t3 - t2) * h * d[hi]!
     );
   };
+  const slope = (x: number, lo: number, hi: number): number => {
+    const h = xs[hi]! - xs[lo]!;
+    const t = (x - xs[lo]!) / h;
+    const t2 = t * t;
+    return (
+      ((6 * t2 - 6 * t) * (ys[lo]! - ys[hi]!)) / h + (3 * t2 - 4 * t + 1) * d[lo]! + (3 * t2 - 2 * t) * d[hi]!
+    );
+  };
   const inverse = (y: number): number => {
     if (y <= y0) return x0 + (y - y0) / s0;
     if (y >= yn) return xn + (y - yn) / sn;
@@ -93,15 +101,25 @@ export function createMonotoneCurve(
       if (ys[mid]! <= y) lo = mid;
       else hi = mid;
     }
+    // Newton's method kept inside a shrinking bracket (a bisection step whenever Newton would leave it):
+    // quadratic convergence on the smooth segment, never worse than bisection; 1e-13 is double precision here.
     let a = xs[lo]!,
       b = xs[hi]!;
-    // Bisection: 60 halvings reach double precision on any segment.
-    for (let i = 0; i < 60 && b - a > 1e-13; i++) {
-      const m = 0.5 * (a + b);
-      if (evaluate(m) < y) a = m;
-      else b = m;
+    const ya = ys[lo]!,
+      yb = ys[hi]!;
+    let x = yb > ya ? a + ((y - ya) / (yb - ya)) * (b - a) : 0.5 * (a + b);
+    for (let i = 0; i < 100 && b - a > 1e-13; i++) {
+      const f = evaluate(x) - y;
+      if (f === 0) return x;
+      if (f < 0) a = x;
+      else b = x;
+      const g = slope(x, lo, hi);
+      const next = g > 0 ? x - f / g : NaN;
+      if (!(next > a && next < b)) x = 0.5 * (a + b);
+      else if (Math.abs(next - x) < 1e-14) return next;
+      else x = next;
     }
-    return 0.5 * (a + b);
+    return x;
   };
   return { evaluate, inverse };
 }
