@@ -1,0 +1,146 @@
+import { spawn } from 'node:child_process';
+import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { validateProfileDocument } from '@clearbase/contracts';
+import { calibrationRoll, LINEAR_SCANNER, TINTLINE_400, type FilmStock } from '@clearbase/inversion';
+import { writeNegativeTiff } from './synth-command';
+
+const BIN = fileURLToPath(new URL('../../../bin/clearbase.mjs', import.meta.url));
+
+/** Spawns `clearbase calibrate` with `args`, as a user would, from `cwd`. */
+function runCalibrate(
+  args: string[],
+  cwd: string,
+): Promise<{ code: number | null; stdout: string; stderr: string }> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, [BIN, 'calibrate', ...args], {
+      cwd,
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
+    child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
+    child.on('error', reject);
+    child.on('close', (code) => resolve({ code, stdout, stderr }));
+  });
+}
+
+// An invented stock whose curves bend inside the bracket, with a tinted base and crosstalk.
+const STOCK: FilmStock = {
+  ...TINTLINE_400,
+  name: 'Command line test 400',
+  gamma: [0.55, 0.62, 0.7],
+  toe: [-2.1, -2.05, -2.0],
+  maxDensity: [2.0, 2.1, 2.2],
+  softness: 0.2,
+};
+
+describe('clearbase calibrate', () => {
+  let dir: string;
+  let bracketArgs: string[];
+  let chartArgs: string[];
+  beforeAll(async () => {
+    dir = await mkdtemp(join(tmpdir(), 'clearbase-calibrate-'));
+    const roll = calibrationRoll({
+      stock: STOCK,
+      scanner: LINEAR_SCANNER,
+      stops: Array.from({ length: 15 }, (_, i) => i - 6),
+      greySize: 32,
+    });
+    const files = roll.brackets.map((_, i) => `grey-${String(i + 1).padStart(2, '0')}.tif`);
+    await Promise.all(
+      roll.brackets.map((b, i) =>
+        writeNegativeTiff(join(dir, files[i]!), b.negative.data, b.negative.width, b.negative.height),
+      ),
+    );
+    bracketArgs = roll.brackets.flatMap((b, i) => ['--bracket', `${files[i]}:${b.stops}`]);
+    const c = roll.chart;
+    await sharp(c.data, { raw: { width: c.width, height: c.height, channels: 3 } })
+      .toColourspace('rgb16')
+      .png()
+      .toFile(join(dir, 'chart.png'));
+    chartArgs = ['--chart', 'chart.png', '--chart-corners', roll.chartCorners.flat().join(',')];
+  }, 60_000);
+  afterAll(async () => {
+    await rm(dir, { recursive: true, force: true });
+  });
+
+  it('fits a roll of 16-bit TIFF grey frames and a 16-bit PNG chart, writes a valid profile and exits 0', async () => {
+    const run = await runCalibrate(
+      [
+        ...bracketArgs,
+        ...chartArgs,
+        '--stock',
+        STOCK.name,
+        '--iso',
+        '400',
+        '--film-base',
+        'tinted',
+        '--out',
+        'out/p.json',
+        '--json',
+      ],
+      dir,
+    );
+    expect(run.stderr).toBe('');
+    expect(run.code).toBe(0);
+    const report = JSON.parse(run.stdout) as {
+      gamma: number[];
+      ei: number;
+      deltaE: { after: { mean: number } };
+      grid: { sample: number[][] }[];
+      warnings: { severity: string }[];
+    };
+    report.gamma.forEach((g, c) => expect(Math.abs(g / STOCK.gamma[c]! - 1)).toBeLessThan(0.03));
+    expect(report.deltaE.after.mean).toBeLessThan(1);
+    expect(report.grid).toHaveLength(24);
+    expect(report.grid[0]!.sample).toHaveLength(4);
+    const profile = validateProfileDocument(JSON.parse(await readFile(join(dir, 'out/p.json'), 'utf8')));
+    expect(profile.ok).toBe(true);
+    if (profile.ok) expect(profile.value.stock).toMatchObject({ name: STOCK.name, iso: 400, base: 'tinted' });
+  }, 60_000);
+
+  it('prints a readable summary without --json', async () => {
+    const run = await runCalibrate([...bracketArgs, ...chartArgs, '--out', 'q.json'], dir);
+    expect(run.code).toBe(0);
+    expect(run.stdout).toMatch(
+      /^profile written to q\.json\nγ \(red, green, blue\): 0\.5\d\d, 0\.6\d\d, 0\.\d+\n/,
+    );
+    expect(run.stdout).toMatch(/EI \d+/);
+  }, 60_000);
+
+  it('writes the profile but exits 1 with the reason when only four grey frames are given', async () => {
+    const run = await runCalibrate(
+      [...bracketArgs.slice(12, 20) /* 0 … +3 stops */, ...chartArgs, '--out', 'few.json'],
+      dir,
+    );
+    expect(run.code).toBe(1);
+    expect(run.stderr).toMatch(/warning: Only 4 usable grey frames: at least 5 are needed/);
+    expect(validateProfileDocument(JSON.parse(await readFile(join(dir, 'few.json'), 'utf8'))).ok).toBe(true);
+  }, 60_000);
+
+  it('exits 1 naming the file when a grey frame cannot be read', async () => {
+    await writeFile(join(dir, 'not-an-image.tif'), 'hello');
+    const run = await runCalibrate(
+      ['--bracket', 'not-an-image.tif:0', ...bracketArgs, ...chartArgs, '--out', 'x.json'],
+      dir,
+    );
+    expect(run.code).toBe(1);
+    expect(run.stderr).toMatch(/not-an-image\.tif: The file is not an image/);
+  }, 60_000);
+
+  it('exits 2 with the usage text for a missing chart or a bracket without stops', async () => {
+    const noChart = await runCalibrate([...bracketArgs, '--out', 'x.json'], dir);
+    expect(noChart.code).toBe(2);
+    expect(noChart.stderr).toMatch(/Missing --chart FILE/);
+    const noStops = await runCalibrate(['--bracket', 'grey-01.tif', ...chartArgs, '--out', 'x.json'], dir);
+    expect(noStops.code).toBe(2);
+    expect(noStops.stderr).toMatch(/Expected FILE:STOPS .* for --bracket but received grey-01\.tif/);
+    expect(noStops.stderr).toMatch(/clearbase calibrate --bracket/);
+  }, 60_000);
+});
