@@ -8,6 +8,7 @@ const COMMANDS: Record<string, () => Promise<Command>> = {
   invert: async () => (await import('./invert-command')).invertCommand,
   synth: async () => (await import('./synth-command')).synthCommand,
   profile: async () => (await import('./profile-command')).profileCommand,
+  calibrate: async () => (await import('./calibrate-command')).calibrateCommand,
 };
 
 /**
