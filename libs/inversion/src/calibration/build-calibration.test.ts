@@ -22,6 +22,7 @@ import {
 import { buildCalibration, type CalibrationInput } from './build-calibration';
 import { calibrationRoll, type CalibrationRoll, type CalibrationRollOptions } from './calibration-roll';
 import { CHART_REFERENCE } from './chart-reference';
+import { applyHomography, solveHomography, type Point } from './homography';
 import { SPEED_POINT_DENSITY, NOMINAL_SPEED_POINT_DEPTH } from './speed-point';
 
 // An invented stock whose curves bend inside the bracket: a different γ per channel, toe and shoulder,
@@ -175,6 +176,50 @@ describe('building a profile from a calibration roll (forward model: crosstalk, 
     // Red is flatter than green and blue steeper: across the bracket the yellow–blue balance drifts most.
     expect(result.spread.range.yellowBlue).toBeGreaterThan(result.spread.range.cyanRed);
     expect(result.spread.range.yellowBlue).toBeGreaterThan(10);
+  });
+});
+
+describe('a chart photographed at an angle', () => {
+  it('samples every patch through the perspective grid and fits as well as a square chart', () => {
+    const roll = rollOf();
+    const src = roll.chart;
+    // Warp the square chart onto a tilted, foreshortened quadrilateral (nearest-neighbour resampling),
+    // unexposed film around it.
+    const corners: Point[] = [
+      [30, 20],
+      [190, 35],
+      [180, 140],
+      [40, 150],
+    ];
+    const toImage = solveHomography(
+      [
+        [0, 0],
+        [6, 0],
+        [6, 4],
+        [0, 4],
+      ],
+      corners,
+    );
+    const toChart = invert3(toImage);
+    const width = 220,
+      height = 170;
+    const data = new Uint16Array(width * height * 3);
+    for (let y = 0; y < height; y++)
+      for (let x = 0; x < width; x++) {
+        const [u, v] = applyHomography(toChart, [x + 0.5, y + 0.5]);
+        const inside = u >= 0 && u < 6 && v >= 0 && v < 4;
+        const sx = inside ? Math.floor(u * 20) : 0,
+          sy = inside ? roll.chartRegion[1] + Math.floor(v * 20) : 0;
+        const j = (sy * src.width + sx) * 3;
+        data.set(src.data.subarray(j, j + 3), (y * width + x) * 3);
+      }
+    const input = inputFor(roll);
+    const r = buildCalibration({ ...input, chart: { image: { width, height, data }, corners } });
+    expect(r.deltaE.after.mean).toBeLessThan(1);
+    r.crosstalk.matrix.forEach((row, i) =>
+      row.forEach((v, k) => expect(Math.abs(v - STOCK.crosstalk[i]![k]!)).toBeLessThan(0.03)),
+    );
+    expect(r.grid.patches[0]!.sample.every(([x, y]) => x > 30 && y > 20)).toBe(true);
   });
 });
 
