@@ -34,6 +34,10 @@ export const appRoutes: Routes = [
           import('./profile-editor/profile-editor-routes').then((m) => m.profileEditorRoutes),
       },
       {
+        path: 'catalogue',
+        loadChildren: () => import('./catalogue/catalogue-routes').then((m) => m.catalogueRoutes),
+      },
+      {
         path: 'admin',
         canActivateChild: [roleGuard],
         data: { roles: ['admin'] },

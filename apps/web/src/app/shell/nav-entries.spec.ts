@@ -5,14 +5,20 @@ describe('navEntriesFor', () => {
     expect(navEntriesFor(null)).toEqual([]);
   });
 
-  it('gives customers and lab staff home and account but no admin pages', () => {
+  it('gives customers and lab staff home, the film stocks and account but no admin pages', () => {
     for (const role of ['customer', 'operator', 'manager'] as const) {
-      expect(navEntriesFor(role).map((e) => e.name)).toEqual(['home', 'account']);
+      expect(navEntriesFor(role).map((e) => e.name)).toEqual(['home', 'catalogue', 'account']);
     }
   });
 
   it('adds users and the audit log for admins', () => {
-    expect(navEntriesFor('admin').map((e) => e.name)).toEqual(['home', 'users', 'audit', 'account']);
+    expect(navEntriesFor('admin').map((e) => e.name)).toEqual([
+      'home',
+      'catalogue',
+      'users',
+      'audit',
+      'account',
+    ]);
   });
 
   it('reads the roles from the list it is given, so features add pages by adding lines', () => {

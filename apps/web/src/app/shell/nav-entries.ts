@@ -21,6 +21,14 @@ const everyone: readonly Role[] = ['customer', 'operator', 'manager', 'admin'];
  */
 export const navEntries: readonly NavEntry[] = [
   { name: 'home', label: 'Home', icon: 'home', path: '/', roles: everyone, group: 'work' },
+  {
+    name: 'catalogue',
+    label: 'Film stocks',
+    icon: 'camera_roll',
+    path: '/catalogue',
+    roles: everyone,
+    group: 'work',
+  },
   { name: 'users', label: 'Users', icon: 'group', path: '/admin/users', roles: ['admin'], group: 'admin' },
   {
     name: 'audit',

@@ -34,14 +34,14 @@ async function renderFor(user: User) {
 }
 
 describe('Shell navigation', () => {
-  it('shows a customer only home and account', async () => {
+  it('shows a customer only home, the film stocks and account', async () => {
     const { navNames } = await renderFor({
       id: 2,
       email: 'cy@home.test',
       name: 'Cy Orrin',
       role: 'customer',
     });
-    expect(navNames).toEqual(['nav-home', 'nav-account']);
+    expect(navNames).toEqual(['nav-home', 'nav-catalogue', 'nav-account']);
   });
 
   it('shows an operator no admin pages', async () => {
@@ -57,7 +57,7 @@ describe('Shell navigation', () => {
 
   it('shows an admin the users page and the audit log', async () => {
     const { navNames } = await renderFor({ id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' });
-    expect(navNames).toEqual(['nav-home', 'nav-users', 'nav-audit', 'nav-account']);
+    expect(navNames).toEqual(['nav-home', 'nav-catalogue', 'nav-users', 'nav-audit', 'nav-account']);
   });
 
   it('names the user and their role in the user menu', async () => {
