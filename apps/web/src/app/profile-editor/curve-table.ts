@@ -102,6 +102,11 @@ const newPointStep = { logExposure: 0.5, density: 0.3 } as const;
     .cell {
       width: 100%;
     }
+    /* the form field's own minimum width (180px) would push the D column out of a narrow card */
+    :host ::ng-deep .cell .mat-mdc-form-field-infix {
+      width: auto;
+      min-width: 48px;
+    }
     .actions {
       white-space: nowrap;
       width: 96px;

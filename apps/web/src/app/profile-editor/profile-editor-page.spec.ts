@@ -104,13 +104,11 @@ async function render(role: User['role'], version: ProfileVersion = draft): Prom
   backend.expectOne(`/api/profile-versions/${version.id}`).flush({ version });
   await fixture.whenStable();
   if (version.parentVersionId)
-    backend
-      .expectOne(`/api/profile-versions/${version.parentVersionId}/diff/${version.id}`)
-      .flush({
-        from: version.parentVersionId,
-        to: version.id,
-        changes: [{ path: 'balance.magentaGreen', before: 0, after: -1 }],
-      });
+    backend.expectOne(`/api/profile-versions/${version.parentVersionId}/diff/${version.id}`).flush({
+      from: version.parentVersionId,
+      to: version.id,
+      changes: [{ path: 'balance.magentaGreen', before: 0, after: -1 }],
+    });
   const width = 8,
     height = 4;
   // a mid-grey negative: every count at 20 % transmission of a base at 90 %

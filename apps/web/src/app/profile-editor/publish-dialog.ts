@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import {
   MAT_DIALOG_DATA,
@@ -43,7 +43,7 @@ const changelogMax = 500;
   ],
   template: `
     <h2 mat-dialog-title>Publish version {{ data.version }} of {{ data.stockName }}</h2>
-    <form (ngSubmit)="publish()">
+    <form [formGroup]="form" (ngSubmit)="publish()">
       <mat-dialog-content>
         <p class="lede">
           A published version is frozen: rolls can pin it, and later changes go into a new draft.
@@ -96,6 +96,7 @@ export class PublishDialog {
       (c) => (String(c.value).trim() ? null : { blank: true }),
     ],
   });
+  protected readonly form = new FormGroup({ changelog: this.changelog });
   protected readonly busy = signal(false);
   protected readonly problem = signal<string | null>(null);
 
