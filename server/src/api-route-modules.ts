@@ -2,13 +2,19 @@ import { auditRoutes } from './audit/audit-routes';
 import { devMailboxRoutes } from './dev-mailbox/dev-mailbox-routes';
 import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
+import { paymentsRoutes } from './payments/payments-routes';
+import { framesRoutes } from './frames/frames-routes';
+import { jobsRoutes } from './jobs/jobs-routes';
 import { labRoutes } from './lab/lab-routes';
+import { ordersRoutes } from './orders/orders-routes';
 import { pricesRoutes } from './prices/prices-routes';
 import { profilesRoutes } from './profiles/profiles-routes';
 import { referenceFrameRoutes } from './profiles/reference-frame-routes';
+import { rollsRoutes } from './rolls/rolls-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
 import { signupRoutes } from './signup/signup-routes';
 import { stocksRoutes } from './stocks/stocks-routes';
+import { uploadsRoutes } from './uploads/uploads-routes';
 import { usersRoutes } from './users/users-routes';
 
 /**
@@ -27,4 +33,10 @@ export const apiRouteModules: readonly RouteModule[] = [
   signupRoutes,
   devMailboxRoutes,
   pricesRoutes,
+  paymentsRoutes,
+  ordersRoutes,
+  rollsRoutes,
+  uploadsRoutes,
+  framesRoutes,
+  jobsRoutes,
 ];

@@ -1,0 +1,27 @@
+import type { Kysely } from 'kysely';
+import type { Database } from '../db/database';
+import type { FileStore } from '../files/file-store';
+import { findFileById } from '../files/file-repository';
+import { readNegative, type NegativeImage } from '../imaging/index';
+import type { FrameRow } from '../orders/order-tables';
+
+/** Where a frame's negative scan is stored. */
+export async function frameSourcePath(
+  db: Kysely<Database>,
+  store: FileStore,
+  frame: FrameRow,
+): Promise<string> {
+  const file = await findFileById(db, frame.source_file_id);
+  if (!file) throw new Error(`frame ${frame.id} points at missing file ${frame.source_file_id}`);
+  return store.pathOf(file.sha256);
+}
+
+/** Decodes a frame's negative scan. */
+export async function frameNegative(
+  db: Kysely<Database>,
+  store: FileStore,
+  frame: FrameRow,
+  maxPixels: number,
+): Promise<NegativeImage> {
+  return readNegative(await frameSourcePath(db, store, frame), { maxPixels });
+}

@@ -1,0 +1,164 @@
+import type {
+  Adjustments,
+  Frame,
+  MeasuredBase,
+  OutputFormat,
+  PixelRegion,
+  QcFlag,
+} from '@clearbase/contracts';
+import { outputFormats } from '@clearbase/contracts';
+import type { Kysely } from 'kysely';
+import type { Database } from '../db/database';
+import type { FrameOutputKind, FrameRow } from '../orders/order-tables';
+
+export function findFrameById(db: Kysely<Database>, id: number): Promise<FrameRow | undefined> {
+  return db.selectFrom('frames').selectAll().where('id', '=', id).executeTakeFirst();
+}
+
+export function listFramesOfRoll(db: Kysely<Database>, rollId: number): Promise<FrameRow[]> {
+  return db.selectFrom('frames').selectAll().where('roll_id', '=', rollId).orderBy('frame_index').execute();
+}
+
+export async function nextFrameIndex(db: Kysely<Database>, rollId: number): Promise<number> {
+  const { top } = await db
+    .selectFrom('frames')
+    .select((eb) => eb.fn.max('frame_index').as('top'))
+    .where('roll_id', '=', rollId)
+    .executeTakeFirstOrThrow();
+  return Number(top ?? 0) + 1;
+}
+
+/** The frame of this roll made from these stored bytes, if any (the same scan uploaded twice). */
+export function findFrameOfRollByFile(
+  db: Kysely<Database>,
+  rollId: number,
+  fileId: number,
+): Promise<FrameRow | undefined> {
+  return db
+    .selectFrom('frames')
+    .selectAll()
+    .where('roll_id', '=', rollId)
+    .where('source_file_id', '=', fileId)
+    .executeTakeFirst();
+}
+
+export function insertFrame(
+  db: Kysely<Database>,
+  frame: {
+    rollId: number;
+    index: number;
+    sourceFileId: number;
+    fileName: string;
+    width: number;
+    height: number;
+    bitDepth: 8 | 16;
+    warnings: string[];
+    adjustments: Adjustments;
+    at: Date;
+  },
+): Promise<FrameRow> {
+  return db
+    .insertInto('frames')
+    .values({
+      roll_id: frame.rollId,
+      frame_index: frame.index,
+      source_file_id: frame.sourceFileId,
+      file_name: frame.fileName,
+      width: frame.width,
+      height: frame.height,
+      bit_depth: frame.bitDepth,
+      base_region: null,
+      base_source: null,
+      base_measured: null,
+      adjustments: JSON.stringify(frame.adjustments),
+      status: 'queued',
+      warnings: JSON.stringify(frame.warnings),
+      error: null,
+      rendered_at: null,
+      created_at: frame.at.toISOString(),
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
+/** The stored file of one of a frame's renders, if it has been made. */
+export async function findFrameOutput(
+  db: Kysely<Database>,
+  frameId: number,
+  kind: FrameOutputKind,
+): Promise<{ sha256: string; media_type: string } | undefined> {
+  return db
+    .selectFrom('frame_outputs')
+    .innerJoin('files', 'files.id', 'frame_outputs.file_id')
+    .select(['files.sha256', 'files.media_type'])
+    .where('frame_outputs.frame_id', '=', frameId)
+    .where('frame_outputs.kind', '=', kind)
+    .executeTakeFirst();
+}
+
+/** Records (or replaces) one render of a frame. */
+export async function putFrameOutput(
+  db: Kysely<Database>,
+  output: { frameId: number; kind: FrameOutputKind; fileId: number; at: Date },
+): Promise<void> {
+  await db
+    .insertInto('frame_outputs')
+    .values({
+      frame_id: output.frameId,
+      kind: output.kind,
+      file_id: output.fileId,
+      created_at: output.at.toISOString(),
+    })
+    .onConflict((oc) =>
+      oc
+        .columns(['frame_id', 'kind'])
+        .doUpdateSet({ file_id: output.fileId, created_at: output.at.toISOString() }),
+    )
+    .execute();
+}
+
+/** Which full-size formats each frame has ready. */
+export async function outputFormatsOfFrames(
+  db: Kysely<Database>,
+  frameIds: readonly number[],
+): Promise<Map<number, OutputFormat[]>> {
+  const map = new Map<number, OutputFormat[]>();
+  if (frameIds.length === 0) return map;
+  const rows = await db
+    .selectFrom('frame_outputs')
+    .select(['frame_id', 'kind'])
+    .where('frame_id', 'in', frameIds)
+    .where('kind', 'in', [...outputFormats])
+    .execute();
+  for (const r of rows) map.set(r.frame_id, [...(map.get(r.frame_id) ?? []), r.kind as OutputFormat]);
+  return map;
+}
+
+const parse = <T>(text: string | null): T | null => (text === null ? null : (JSON.parse(text) as T));
+
+export function toFrame(row: FrameRow, outputs: OutputFormat[] = []): Frame {
+  return {
+    id: row.id,
+    rollId: row.roll_id,
+    index: row.frame_index,
+    fileName: row.file_name,
+    width: row.width,
+    height: row.height,
+    bitDepth: row.bit_depth,
+    status: row.status,
+    qcFlags: JSON.parse(row.qc_flags) as QcFlag[],
+    base: {
+      mode: row.base_mode,
+      region: parse<PixelRegion>(row.base_region),
+      source: row.base_source,
+      measured: parse<MeasuredBase>(row.base_measured),
+    },
+    adjustments: JSON.parse(row.adjustments) as Adjustments,
+    attempts: row.attempts,
+    error: row.error,
+    warnings: JSON.parse(row.warnings) as string[],
+    outputs: outputFormats.filter((f) => outputs.includes(f)),
+    renderedAt: row.rendered_at,
+    createdAt: row.created_at,
+  };
+}

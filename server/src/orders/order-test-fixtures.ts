@@ -1,0 +1,95 @@
+import { POLYCLEAR_200, profileForStock } from '@clearbase/inversion';
+import type { Kysely } from 'kysely';
+import sharp from 'sharp';
+import { demoNegative } from '../cli/synth-command';
+import type { Database } from '../db/database';
+import { insertDraft, insertProfile } from '../profiles/profile-repository';
+import { insertStock } from '../stocks/stock-repository';
+
+const at = new Date('2026-03-01T08:00:00Z');
+
+/** A stock with a published profile (from the forward model's invented stock) and one with only a draft. */
+export async function addTestCatalogue(
+  db: Kysely<Database>,
+): Promise<{ stockId: number; versionId: number; unpublishedStockId: number }> {
+  const stock = await insertStock(
+    db,
+    {
+      name: 'Testline 200',
+      maker: 'Test Emulsions',
+      iso: 200,
+      process: 'C-41',
+      masked: false,
+      baseMaterial: 'clear polyester',
+      frameFormats: ['135-36'],
+      notes: '',
+    },
+    at,
+  );
+  const profile = await insertProfile(db, {
+    stockId: stock.id,
+    scannerId: null,
+    name: 'Testline house profile',
+    documentId: 'testline',
+    at,
+    by: null,
+  });
+  const version = await insertDraft(db, {
+    profile,
+    parentVersionId: null,
+    parameters: profileForStock(POLYCLEAR_200),
+    at,
+    by: null,
+  });
+  await db
+    .updateTable('profile_versions')
+    .set({ status: 'published', changelog: 'first', published_at: at.toISOString() })
+    .where('id', '=', version.id)
+    .execute();
+  const other = await insertStock(
+    db,
+    {
+      name: 'Draftline 400',
+      maker: 'Test Emulsions',
+      iso: 400,
+      process: 'C-41',
+      masked: false,
+      baseMaterial: 'clear polyester',
+      frameFormats: ['135-36'],
+      notes: '',
+    },
+    at,
+  );
+  const draftOnly = await insertProfile(db, {
+    stockId: other.id,
+    scannerId: null,
+    name: 'Draftline trial',
+    documentId: 'draftline',
+    at,
+    by: null,
+  });
+  await insertDraft(db, {
+    profile: draftOnly,
+    parentVersionId: null,
+    parameters: profileForStock(POLYCLEAR_200),
+    at,
+    by: null,
+  });
+  return { stockId: stock.id, versionId: version.id, unpublishedStockId: other.id };
+}
+
+/** A small 16-bit TIFF negative of the forward model's outdoor scene, with rebate and sprocket holes. */
+export async function negativeTiff(
+  options: { width?: number; height?: number; seed?: number } = {},
+): Promise<Buffer> {
+  const neg = demoNegative({
+    width: options.width ?? 96,
+    height: options.height ?? 64,
+    stock: POLYCLEAR_200,
+    seed: options.seed ?? 1,
+  });
+  return sharp(neg.data, { raw: { width: neg.width, height: neg.height, channels: 3 } })
+    .toColourspace('rgb16')
+    .tiff({ compression: 'deflate', predictor: 'horizontal' })
+    .toBuffer();
+}

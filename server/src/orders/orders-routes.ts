@@ -1,0 +1,192 @@
+import {
+  createOrderRequestSchema,
+  createRollRequestSchema,
+  idParamsSchema,
+  neutralAdjustments,
+  orderQuerySchema,
+  staffRoles,
+  updateOrderStatusRequestSchema,
+} from '@clearbase/contracts';
+import { AppError } from '../errors/app-error';
+import type { RouteModule } from '../http/route-module';
+import {
+  currentPublishedVersion,
+  findRollById,
+  insertRoll,
+  listRollsOfOrder,
+  toRoll,
+} from '../rolls/roll-repository';
+import { findScannerById } from '../scanners/scanner-repository';
+import { findStockById } from '../stocks/stock-repository';
+import { findUserById } from '../users/user-repository';
+import { isStaff, loadOrderFor } from './order-access';
+import { findOrderById, insertOrder, listOrders, setOrderStatus, toOrder } from './order-repository';
+import { recordOrderAudit } from './record-order-audit';
+
+const everyone = ['customer', ...staffRoles] as const;
+
+/** Orders and the rolls on them: customers see and place only their own, staff see all. */
+export const ordersRoutes: RouteModule = (api, { db, clock }) => {
+  api.define(
+    {
+      method: 'get',
+      path: '/api/orders',
+      roles: everyone,
+      query: orderQuerySchema,
+      summary: 'List orders, newest first (a customer’s own only)',
+    },
+    async (_req, res, { query, user }) => {
+      const scoped = isStaff(user!) ? query : { ...query, customerId: user!.id };
+      const { rows, total } = await listOrders(db, scoped);
+      res.json({ orders: rows.map(toOrder), total });
+    },
+  );
+
+  api.define(
+    {
+      method: 'post',
+      path: '/api/orders',
+      roles: everyone,
+      body: createOrderRequestSchema,
+      summary: 'Place an order (staff name the customer)',
+    },
+    async (_req, res, { body, user }) => {
+      let customerId = user!.id;
+      if (isStaff(user!)) {
+        if (!body.customerId) {
+          throw new AppError('invalid-request', 400, 'Name the customer the order is for.', [
+            { path: 'body.customerId', message: 'Required when staff place an order' },
+          ]);
+        }
+        const customer = await findUserById(db, body.customerId);
+        if (!customer || customer.role !== 'customer') {
+          throw new AppError('customer-not-found', 404, `No customer with id ${body.customerId}.`);
+        }
+        customerId = customer.id;
+      } else if (body.customerId !== undefined && body.customerId !== user!.id) {
+        throw new AppError('forbidden', 403, 'Customers place orders for themselves only.');
+      }
+      const order = await db.transaction().execute(async (trx) => {
+        const at = clock.now();
+        const row = await insertOrder(trx, { ...body, customerId, at });
+        const order = toOrder((await findOrderById(trx, row.id))!);
+        await recordOrderAudit(trx, {
+          at,
+          actor: user!,
+          action: 'order-created',
+          target: `order:${row.id}`,
+          details: { after: order },
+        });
+        return order;
+      });
+      res.status(201).json(order);
+    },
+  );
+
+  api.define(
+    {
+      method: 'get',
+      path: '/api/orders/:id',
+      roles: everyone,
+      params: idParamsSchema,
+      summary: 'An order with its rolls',
+    },
+    async (_req, res, { params, user }) => {
+      const order = await loadOrderFor(db, params.id, user!);
+      const rolls = await listRollsOfOrder(db, order.id);
+      res.json({ order: toOrder(order), rolls: rolls.map(toRoll) });
+    },
+  );
+
+  api.define(
+    {
+      method: 'patch',
+      path: '/api/orders/:id',
+      roles: staffRoles,
+      params: idParamsSchema,
+      body: updateOrderStatusRequestSchema,
+      summary: 'Move an order to another status',
+    },
+    async (_req, res, { params, body, user }) => {
+      const before = await loadOrderFor(db, params.id, user!);
+      if (before.status === 'delivered' || before.status === 'cancelled') {
+        throw new AppError(
+          'order-closed',
+          409,
+          `Order ${before.id} is ${before.status} and cannot change status any more.`,
+        );
+      }
+      const order = await db.transaction().execute(async (trx) => {
+        const at = clock.now();
+        await setOrderStatus(trx, before.id, body.status, at);
+        await recordOrderAudit(trx, {
+          at,
+          actor: user!,
+          action: 'order-status-changed',
+          target: `order:${before.id}`,
+          details: { before: before.status, after: body.status },
+        });
+        return toOrder((await findOrderById(trx, before.id))!);
+      });
+      res.json(order);
+    },
+  );
+
+  api.define(
+    {
+      method: 'post',
+      path: '/api/orders/:id/rolls',
+      roles: everyone,
+      params: idParamsSchema,
+      body: createRollRequestSchema,
+      summary: 'Add a roll; the stock’s current published profile version is pinned',
+    },
+    async (_req, res, { params, body, user }) => {
+      const order = await loadOrderFor(db, params.id, user!);
+      if (!isStaff(user!) && order.status !== 'received') {
+        throw new AppError(
+          'order-in-progress',
+          409,
+          `Order ${order.id} is already ${order.status}; ask the lab to add a roll.`,
+        );
+      }
+      const stock = await findStockById(db, body.stockId);
+      if (!stock) throw new AppError('stock-not-found', 404, `No stock with id ${body.stockId}.`);
+      if (body.scannerId !== null && !(await findScannerById(db, body.scannerId))) {
+        throw new AppError('scanner-not-found', 404, `No scanner with id ${body.scannerId}.`);
+      }
+      const pinned = await currentPublishedVersion(db, stock.id, body.scannerId);
+      if (!pinned) {
+        throw new AppError(
+          'no-published-profile',
+          422,
+          `${stock.name} has no published profile version yet; publish one before adding rolls of it.`,
+        );
+      }
+      const roll = await db.transaction().execute(async (trx) => {
+        const at = clock.now();
+        const row = await insertRoll(trx, {
+          orderId: order.id,
+          stockId: stock.id,
+          ei: body.ei,
+          pushPull: body.pushPull,
+          format: body.format,
+          scannerId: body.scannerId,
+          profileVersionId: pinned.id,
+          adjustments: neutralAdjustments,
+          at,
+        });
+        const roll = toRoll((await findRollById(trx, row.id))!);
+        await recordOrderAudit(trx, {
+          at,
+          actor: user!,
+          action: 'roll-created',
+          target: `roll:${row.id}`,
+          details: { after: roll },
+        });
+        return roll;
+      });
+      res.status(201).json(roll);
+    },
+  );
+};

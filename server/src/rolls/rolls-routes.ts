@@ -1,0 +1,227 @@
+import {
+  idParamsSchema,
+  invertRollRequestSchema,
+  rollBaseRequestSchema,
+  staffRoles,
+  type MeasuredBase,
+  type RollEvent,
+} from '@clearbase/contracts';
+import { rollBase } from '@clearbase/inversion';
+import { AppError } from '../errors/app-error';
+import { createFileStore } from '../files/file-store';
+import { measureNegativeBase } from '../frames/measure-base';
+import { frameNegative } from '../frames/frame-negative';
+import { listFramesOfRoll, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
+import type { RouteModule } from '../http/route-module';
+import { activeJobOf, insertJob, latestJobOf, rollTarget, toJob } from '../jobs/job-repository';
+import { announceJobQueued, publishRollEvent, subscribeRollEvents } from '../jobs/roll-events';
+import { recordOrderAudit } from '../orders/record-order-audit';
+import type { FrameRow } from '../orders/order-tables';
+import { assertRegionInside } from './region-check';
+import { loadRollFor, scannerProfileOf } from './roll-access';
+import { findRollById, setRollStatus, toRoll } from './roll-repository';
+
+const everyone = ['customer', ...staffRoles] as const;
+// 15 s between heartbeats keeps proxies from closing an idle stream (most time out after 30-60 s); from memory
+export const heartbeatMs = 15_000;
+
+/** The roll base from its frames' own bases: their robust median, or null when none was found. */
+export function medianBaseOf(frames: readonly FrameRow[]): MeasuredBase | null {
+  const bases = frames
+    .filter((f) => f.base_mode === 'auto' && f.base_measured)
+    .map((f) => JSON.parse(f.base_measured!) as MeasuredBase)
+    .filter((b) => b.confidence > 0);
+  if (bases.length === 0) return null;
+  const median = rollBase(bases.map((b) => ({ rgb: b.rgb, region: [0, 0, 0, 0], confidence: b.confidence })));
+  return {
+    rgb: median.rgb.map((v) => Number(v.toFixed(6))) as MeasuredBase['rgb'],
+    region: null,
+    confidence: Number(median.confidence.toFixed(4)),
+  };
+}
+
+/** A roll with its frames, its inversion job, its base, and its live stream of changes. */
+export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
+  const store = createFileStore(config.dataDir);
+
+  api.define(
+    {
+      method: 'get',
+      path: '/api/rolls/:id',
+      roles: everyone,
+      params: idParamsSchema,
+      summary: 'A roll with its frames and its latest inversion job',
+    },
+    async (_req, res, { params, user }) => {
+      const roll = await loadRollFor(db, params.id, user!);
+      const frames = await listFramesOfRoll(db, roll.id);
+      const outputs = await outputFormatsOfFrames(
+        db,
+        frames.map((f) => f.id),
+      );
+      const job = await latestJobOf(db, rollTarget(roll.id));
+      res.json({
+        roll: toRoll(roll),
+        frames: frames.map((f) => toFrame(f, outputs.get(f.id))),
+        job: job ? toJob(job) : null,
+      });
+    },
+  );
+
+  api.define(
+    {
+      method: 'post',
+      path: '/api/rolls/:id/invert',
+      roles: staffRoles,
+      params: idParamsSchema,
+      body: invertRollRequestSchema,
+      summary: 'Start (or restart) the roll’s batch inversion; answers 202 with the job',
+    },
+    async (_req, res, { params, body, user }) => {
+      const roll = await loadRollFor(db, params.id, user!);
+      const target = rollTarget(roll.id);
+      const running = await activeJobOf(db, target);
+      if (running) {
+        res.status(202).json(toJob(running));
+        return;
+      }
+      const job = await db.transaction().execute(async (trx) => {
+        const at = clock.now();
+        const frames = await listFramesOfRoll(trx, roll.id);
+        if (frames.length === 0) {
+          throw new AppError(
+            'roll-has-no-frames',
+            409,
+            `Roll ${roll.id} has no scans yet; upload them first.`,
+          );
+        }
+        const again = body.frames === 'all' ? frames : frames.filter((f) => f.status !== 'done');
+        if (again.length) {
+          await trx
+            .updateTable('frames')
+            .set({ status: 'queued', attempts: 0, error: null })
+            .where(
+              'id',
+              'in',
+              again.map((f) => f.id),
+            )
+            .execute();
+        }
+        const job = await insertJob(trx, {
+          kind: 'invert-roll',
+          target,
+          payload: { rollId: roll.id, frames: body.frames },
+          total: again.length,
+          by: user!.id,
+          at,
+        });
+        await setRollStatus(trx, roll.id, 'inverting', at);
+        await recordOrderAudit(trx, {
+          at,
+          actor: user!,
+          action: 'inversion-started',
+          target,
+          details: { jobId: job.id, frames: body.frames, count: again.length },
+        });
+        return job;
+      });
+      publishRollEvent(db, roll.id, { type: 'job', job: toJob(job) });
+      announceJobQueued(db);
+      res.status(202).json(toJob(job));
+    },
+  );
+
+  api.define(
+    {
+      method: 'put',
+      path: '/api/rolls/:id/base',
+      roles: staffRoles,
+      params: idParamsSchema,
+      body: rollBaseRequestSchema,
+      summary: 'Set the roll base: automatic, or a rectangle on one of its frames',
+    },
+    async (_req, res, { params, body, user }) => {
+      const roll = await loadRollFor(db, params.id, user!);
+      const frames = await listFramesOfRoll(db, roll.id);
+      let measured: MeasuredBase | null;
+      if (body.mode === 'region') {
+        const frame = frames.find((f) => f.id === body.frameId);
+        if (!frame) {
+          throw new AppError('frame-not-found', 404, `Roll ${roll.id} has no frame with id ${body.frameId}.`);
+        }
+        assertRegionInside(body.region, frame.width, frame.height, 'body.region');
+        const negative = await frameNegative(db, store, frame, config.uploads.maxPixels);
+        measured = measureNegativeBase(negative, await scannerProfileOf(db, roll.scanner_id), body.region);
+        if (measured.confidence === 0) {
+          throw new AppError(
+            'no-film-in-region',
+            422,
+            'The rectangle holds no film (only bare light or dust); draw it over unexposed film such as the leader or rebate.',
+            [{ path: 'body.region', message: 'No film in this rectangle' }],
+          );
+        }
+      } else {
+        measured = medianBaseOf(frames);
+      }
+      const updated = await db.transaction().execute(async (trx) => {
+        const at = clock.now();
+        await trx
+          .updateTable('rolls')
+          .set({
+            base_mode: body.mode,
+            base_frame_id: body.mode === 'region' ? body.frameId : null,
+            base_region: body.mode === 'region' ? JSON.stringify(body.region) : null,
+            base_measured: measured ? JSON.stringify(measured) : null,
+            updated_at: at.toISOString(),
+          })
+          .where('id', '=', roll.id)
+          .execute();
+        const after = toRoll((await findRollById(trx, roll.id))!);
+        await recordOrderAudit(trx, {
+          at,
+          actor: user!,
+          action: 'roll-base-changed',
+          target: `roll:${roll.id}`,
+          details: { before: toRoll(roll).base, after: after.base },
+        });
+        return after;
+      });
+      res.json(updated);
+    },
+  );
+
+  api.define(
+    {
+      method: 'get',
+      path: '/api/rolls/:id/events',
+      roles: everyone,
+      params: idParamsSchema,
+      summary: 'Live job progress and frame status of a roll (Server-Sent Events)',
+    },
+    async (req, res, { params, user }) => {
+      const roll = await loadRollFor(db, params.id, user!);
+      res.writeHead(200, {
+        'Content-Type': 'text/event-stream; charset=utf-8',
+        'Cache-Control': 'no-cache, no-transform',
+        Connection: 'keep-alive',
+        // nginx and similar proxies buffer responses unless told not to
+        'X-Accel-Buffering': 'no',
+      });
+      const send = (event: RollEvent) =>
+        res.write(`event: ${event.type}\ndata: ${JSON.stringify(event)}\n\n`);
+      // reconnecting clients wait 3 s (the EventSource default is about that; we say it outright)
+      res.write('retry: 3000\n\n');
+      const job = await latestJobOf(db, rollTarget(roll.id));
+      if (job) send({ type: 'job', job: toJob(job) });
+      const unsubscribe = subscribeRollEvents(db, roll.id, send);
+      const heartbeat = setInterval(() => res.write(': heartbeat\n\n'), heartbeatMs);
+      heartbeat.unref();
+      const close = () => {
+        clearInterval(heartbeat);
+        unsubscribe();
+      };
+      req.on('close', close);
+      res.on('error', close);
+    },
+  );
+};
