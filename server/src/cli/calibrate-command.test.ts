@@ -64,6 +64,12 @@ describe('clearbase calibrate', () => {
       .toColourspace('rgb16')
       .png()
       .toFile(join(dir, 'chart.png'));
+    await writeNegativeTiff(
+      join(dir, 'leader.tif'),
+      roll.chart.data.slice(0, roll.chart.width * 6 * 3),
+      roll.chart.width,
+      6,
+    );
     chartArgs = ['--chart', 'chart.png', '--chart-corners', roll.chartCorners.flat().join(',')];
   }, 60_000);
   afterAll(async () => {
@@ -112,6 +118,16 @@ describe('clearbase calibrate', () => {
       /^profile written to q\.json\nγ \(red, green, blue\): 0\.5\d\d, 0\.6\d\d, 0\.\d+\n/,
     );
     expect(run.stdout).toMatch(/EI \d+/);
+  }, 60_000);
+
+  it('takes the film base from a leader frame when given one', async () => {
+    const run = await runCalibrate(
+      [...bracketArgs, ...chartArgs, '--leader', 'leader.tif', '--out', 'l.json', '--json'],
+      dir,
+    );
+    expect(run.code).toBe(0);
+    const report = JSON.parse(run.stdout) as { base: { region: number[] } };
+    expect(report.base.region).toEqual([0, 0, 120, 6]);
   }, 60_000);
 
   it('writes the profile but exits 1 with the reason when only four grey frames are given', async () => {
