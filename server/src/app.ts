@@ -18,6 +18,7 @@ import { csrfProtection } from './http/csrf-protection';
 import { createApiRoutes, type RegisteredRoute } from './http/define-route';
 import type { RouteModule } from './http/route-module';
 import { serveWebApp } from './http/serve-web-app';
+import { keepRawBody, paymentWebhookPath } from './payments/raw-body';
 
 // base64 SHA-256 of the handler text this.media='all', per CSP Level 3 hash-source
 const stylesheetOnloadHash = 'MhtPZXr7+LpJUY5qtMutB+qWfQtMaPccfe7QXtCcEYc=';
@@ -108,8 +109,15 @@ export function createApp(deps: AppDeps): Express {
   const passport = createPassport(db);
   app.use(passport.initialize());
   app.use(passport.session());
-  app.use(csrfProtection({ secret: config.sessionSecret, secure: config.secureCookies }));
-  app.use('/api', express.json({ limit: config.jsonBodyLimitBytes }));
+  // the payment provider's events carry a signature instead of a CSRF token, over the exact bytes kept here
+  app.use(
+    csrfProtection({
+      secret: config.sessionSecret,
+      secure: config.secureCookies,
+      exemptPaths: [paymentWebhookPath],
+    }),
+  );
+  app.use('/api', express.json({ limit: config.jsonBodyLimitBytes, verify: keepRawBody }));
 
   const { api, router } = createApiRoutes();
   const context = { db, config, clock, logger };

@@ -2,6 +2,7 @@ import type { Role } from '@clearbase/contracts';
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
 import type { OrderTables } from '../orders/order-tables';
 import type { OutboxTable } from '../mail/outbox-table';
+import type { PaymentEventsTable, PaymentsTable } from '../payments/payment-tables';
 import type { PasswordTokensTable, PendingSignupsTable } from '../signup/signup-tables';
 
 /** Times are ISO-8601 UTC text; booleans are 0/1 integers (SQLite has no boolean type). */
@@ -119,6 +120,8 @@ export interface Database {
   outbox: OutboxTable;
   pending_signups: PendingSignupsTable;
   password_tokens: PasswordTokensTable;
+  payments: PaymentsTable;
+  payment_events: PaymentEventsTable;
   files: OrderTables['files'];
   orders: OrderTables['orders'];
   rolls: OrderTables['rolls'];

@@ -50,7 +50,12 @@ function equalStrings(a: string, b: string): boolean {
  * The token is not tied to the session, which keeps sign-in working from the first anonymous GET; SameSite=Lax on the
  * session cookie is the second line.
  */
-export function csrfProtection(options: { secret: string; secure: boolean }): RequestHandler {
+export function csrfProtection(options: {
+  secret: string;
+  secure: boolean;
+  /** Paths whose callers prove themselves otherwise (a signed payment event), checked exactly. */
+  exemptPaths?: readonly string[];
+}): RequestHandler {
   return (req, res, next) => {
     const cookie = readCookie(req.headers.cookie, csrfCookieName);
     const cookieValid = isValidCsrfToken(cookie, options.secret);
@@ -63,6 +68,7 @@ export function csrfProtection(options: { secret: string; secure: boolean }): Re
       });
     }
     if (!unsafeMethods.has(req.method) || !req.path.startsWith('/api/')) return next();
+    if (options.exemptPaths?.includes(req.path)) return next();
     const header = req.get(csrfHeaderName);
     if (!cookieValid || !header || !equalStrings(header, cookie!)) {
       return next(

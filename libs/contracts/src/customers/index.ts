@@ -1,3 +1,4 @@
 export * from './caught-mail';
 export * from './signup';
 export * from './price-list';
+export * from './payment';
