@@ -54,6 +54,15 @@ describe('region sampling', () => {
     expect(s.pixels).toBe(30);
   });
 
+  it('reads a strided subset of a large area, keeping to the sample budget', () => {
+    const s = sampleRegion(flat(200, 100, [12000, 12000, 12000]), LINEAR_SCANNER, [0, 0, 200, 100], {
+      maxSamples: 5000,
+    });
+    // √(20000 / 5000) = 2: every second pixel each way.
+    expect(s.pixels).toBe(5000);
+    expect(s.rgb[0]).toBeCloseTo(12000 / 65535, 9);
+  });
+
   it('is empty outside the image', () => {
     expect(sampleRegion(flat(4, 4, [1000, 1000, 1000]), LINEAR_SCANNER, [10, 10, 4, 4]).status).toBe('empty');
   });
@@ -61,6 +70,9 @@ describe('region sampling', () => {
   it('checks its options before any work', () => {
     expect(() => sampleRegion(flat(4, 4, [1, 1, 1]), LINEAR_SCANNER, [0, 0, 4, 4], { trim: 0.5 })).toThrow(
       'Expected number from 0 to below 0.5 for trim but received 0.5 of type number',
+    );
+    expect(() => sampleRegion(flat(4, 4, [1, 1, 1]), LINEAR_SCANNER, [0, 0, 4, 4], { step: 0 })).toThrow(
+      'Expected integer of at least 1 for step but received 0 of type number',
     );
   });
 });
