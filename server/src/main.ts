@@ -11,6 +11,7 @@ import { openDatabase } from './db/open-database';
 import { demoPassword, demoUsers, seedDemo } from './demo/seed';
 import { createLogger } from './logging/create-logger';
 import { mailServices } from './mail/mail-services';
+import { paymentFakeServices } from './payment-fake/payment-fake-service';
 
 // hourly: expired sessions are refused on read anyway; pruning only keeps the table small (our choice)
 const sessionPruneIntervalMs = 3600_000;
@@ -57,6 +58,7 @@ const services: BackgroundService[] = [
   },
 ];
 services.push(...mailServices(config, { db, clock: systemClock, logger }));
+services.push(...paymentFakeServices(config, logger));
 
 const started: BackgroundService[] = [];
 for (const service of services) {
