@@ -44,6 +44,7 @@ describe('clearbase calibrate', () => {
   let dir: string;
   let bracketArgs: string[];
   let chartArgs: string[];
+  let chartRegion: string;
   beforeAll(async () => {
     dir = await mkdtemp(join(tmpdir(), 'clearbase-calibrate-'));
     const roll = calibrationRoll({
@@ -71,6 +72,7 @@ describe('clearbase calibrate', () => {
       6,
     );
     chartArgs = ['--chart', 'chart.png', '--chart-corners', roll.chartCorners.flat().join(',')];
+    chartRegion = roll.chartRegion.join(',');
   }, 60_000);
   afterAll(async () => {
     await rm(dir, { recursive: true, force: true });
@@ -111,8 +113,11 @@ describe('clearbase calibrate', () => {
     if (profile.ok) expect(profile.value.stock).toMatchObject({ name: STOCK.name, iso: 400, base: 'tinted' });
   }, 60_000);
 
-  it('prints a readable summary without --json', async () => {
-    const run = await runCalibrate([...bracketArgs, ...chartArgs, '--out', 'q.json'], dir);
+  it('prints a readable summary without --json, the chart marked by its region', async () => {
+    const run = await runCalibrate(
+      [...bracketArgs, '--chart', 'chart.png', '--chart-region', chartRegion, '--out', 'q.json'],
+      dir,
+    );
     expect(run.code).toBe(0);
     expect(run.stdout).toMatch(
       /^profile written to q\.json\nγ \(red, green, blue\): 0\.5\d\d, 0\.6\d\d, 0\.\d+\n/,
@@ -154,6 +159,12 @@ describe('clearbase calibrate', () => {
     const noChart = await runCalibrate([...bracketArgs, '--out', 'x.json'], dir);
     expect(noChart.code).toBe(2);
     expect(noChart.stderr).toMatch(/Missing --chart FILE/);
+    const both = await runCalibrate(
+      [...bracketArgs, ...chartArgs, '--chart-region', chartRegion, '--out', 'x.json'],
+      dir,
+    );
+    expect(both.code).toBe(2);
+    expect(both.stderr).toMatch(/Give exactly one of --chart-region/);
     const noStops = await runCalibrate(['--bracket', 'grey-01.tif', ...chartArgs, '--out', 'x.json'], dir);
     expect(noStops.code).toBe(2);
     expect(noStops.stderr).toMatch(/Expected FILE:STOPS .* for --bracket but received grey-01\.tif/);
