@@ -38,6 +38,13 @@ export const appRoutes: Routes = [
         loadChildren: () => import('./catalogue/catalogue-routes').then((m) => m.catalogueRoutes),
       },
       {
+        path: 'scanners',
+        title: 'Scanners · Clearbase',
+        canActivate: [roleGuard],
+        data: { roles: ['operator', 'manager', 'admin'] },
+        loadComponent: () => import('./scanners/scanners-page').then((m) => m.ScannersPage),
+      },
+      {
         path: 'admin',
         canActivateChild: [roleGuard],
         data: { roles: ['admin'] },

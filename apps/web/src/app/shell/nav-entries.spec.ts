@@ -5,9 +5,13 @@ describe('navEntriesFor', () => {
     expect(navEntriesFor(null)).toEqual([]);
   });
 
-  it('gives customers and lab staff home, the film stocks and account but no admin pages', () => {
-    for (const role of ['customer', 'operator', 'manager'] as const) {
-      expect(navEntriesFor(role).map((e) => e.name)).toEqual(['home', 'catalogue', 'account']);
+  it('gives customers home, the film stocks and account', () => {
+    expect(navEntriesFor('customer').map((e) => e.name)).toEqual(['home', 'catalogue', 'account']);
+  });
+
+  it('gives lab staff the scanners too, but no admin pages', () => {
+    for (const role of ['operator', 'manager'] as const) {
+      expect(navEntriesFor(role).map((e) => e.name)).toEqual(['home', 'catalogue', 'scanners', 'account']);
     }
   });
 
@@ -15,6 +19,7 @@ describe('navEntriesFor', () => {
     expect(navEntriesFor('admin').map((e) => e.name)).toEqual([
       'home',
       'catalogue',
+      'scanners',
       'users',
       'audit',
       'account',

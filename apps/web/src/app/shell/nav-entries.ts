@@ -29,6 +29,14 @@ export const navEntries: readonly NavEntry[] = [
     roles: everyone,
     group: 'work',
   },
+  {
+    name: 'scanners',
+    label: 'Scanners',
+    icon: 'scanner',
+    path: '/scanners',
+    roles: ['operator', 'manager', 'admin'],
+    group: 'work',
+  },
   { name: 'users', label: 'Users', icon: 'group', path: '/admin/users', roles: ['admin'], group: 'admin' },
   {
     name: 'audit',

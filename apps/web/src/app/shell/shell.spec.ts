@@ -57,7 +57,14 @@ describe('Shell navigation', () => {
 
   it('shows an admin the users page and the audit log', async () => {
     const { navNames } = await renderFor({ id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' });
-    expect(navNames).toEqual(['nav-home', 'nav-catalogue', 'nav-users', 'nav-audit', 'nav-account']);
+    expect(navNames).toEqual([
+      'nav-home',
+      'nav-catalogue',
+      'nav-scanners',
+      'nav-users',
+      'nav-audit',
+      'nav-account',
+    ]);
   });
 
   it('names the user and their role in the user menu', async () => {

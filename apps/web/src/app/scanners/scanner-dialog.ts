@@ -1,0 +1,165 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButton } from '@angular/material/button';
+import {
+  MAT_DIALOG_DATA,
+  MatDialogActions,
+  MatDialogClose,
+  MatDialogContent,
+  MatDialogRef,
+  MatDialogTitle,
+} from '@angular/material/dialog';
+import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
+import type { CreateScannerRequest, Scanner, ScannerKind, ScannerProfile } from '@clearbase/contracts';
+import { applyFieldProblems } from '../catalogue/apply-field-problems';
+import { readProblem } from '../problem/read-problem';
+import { kindChoices, kindLabel } from './scanner-labels';
+import { ScannersApi } from './scanners-api';
+
+// The server's bounds (libs/contracts profile-document.ts): black level 0 to 0.5 of full scale, gains and gamma
+// above 0. A gain above 16 is four stops of correction, beyond any light source worth scanning with (our choice).
+const blackLevelMax = 0.5;
+const gainMax = 16;
+// 1.8 to 2.4 covers the gammas scanners encode with; 0.2 to 5 only keeps a typo out (our choice).
+const gammaRange = { min: 0.2, max: 5 } as const;
+
+/** The three channels, in the order the profile lists them. */
+export const channelNames = ['Red', 'Green', 'Blue'] as const;
+
+/** Adds a scanner (no data) or changes one: its kind and its input profile. Closes with the saved scanner. */
+@Component({
+  selector: 'cb-scanner-dialog',
+  imports: [
+    ReactiveFormsModule,
+    MatDialogTitle,
+    MatDialogContent,
+    MatDialogActions,
+    MatDialogClose,
+    MatButton,
+    MatFormField,
+    MatLabel,
+    MatError,
+    MatHint,
+    MatInput,
+    MatSelect,
+    MatOption,
+  ],
+  templateUrl: './scanner-dialog.html',
+  styleUrl: './scanner-dialog.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ScannerDialog {
+  private readonly api = inject(ScannersApi);
+  private readonly ref = inject<MatDialogRef<ScannerDialog, Scanner>>(MatDialogRef);
+  protected readonly scanner = inject<Scanner | null>(MAT_DIALOG_DATA, { optional: true }) ?? null;
+  private readonly fb = inject(NonNullableFormBuilder);
+
+  protected readonly kinds = kindChoices;
+  protected readonly kindLabel = kindLabel;
+  protected readonly channels = channelNames;
+  protected readonly blackLevelMax = blackLevelMax;
+  protected readonly gainMax = gainMax;
+  protected readonly gammaRange = gammaRange;
+
+  private readonly channel = (value: number, min: number, max: number, minExclusive: boolean) =>
+    this.fb.control(value as number | null, [
+      Validators.required,
+      minExclusive ? Validators.min(Number.MIN_VALUE) : Validators.min(min),
+      Validators.max(max),
+    ]);
+
+  protected readonly form = this.fb.group({
+    name: [this.scanner?.name ?? '', [Validators.required, Validators.maxLength(120)]],
+    kind: [this.scanner?.kind ?? ('lab-scanner' as ScannerKind), [Validators.required]],
+    inputProfile: this.fb.group({
+      encoding: [this.scanner?.inputProfile.encoding ?? ('linear' as ScannerProfile['encoding'])],
+      gamma: [
+        (this.scanner?.inputProfile.gamma ?? 2.2) as number | null,
+        [Validators.required, Validators.min(gammaRange.min), Validators.max(gammaRange.max)],
+      ],
+      blackLevel: this.fb.array(
+        (this.scanner?.inputProfile.blackLevel ?? [0, 0, 0]).map((v) =>
+          this.channel(v, 0, blackLevelMax, false),
+        ),
+      ),
+      gains: this.fb.array(
+        (this.scanner?.inputProfile.gains ?? [1, 1, 1]).map((v) => this.channel(v, 0, gainMax, true)),
+      ),
+    }),
+  });
+  protected readonly busy = signal(false);
+  protected readonly problem = signal<string | null>(null);
+  protected readonly unclaimed = signal<string[]>([]);
+  protected readonly usesGamma = signal(this.form.controls.inputProfile.controls.encoding.value === 'gamma');
+
+  constructor() {
+    const { encoding, gamma } = this.form.controls.inputProfile.controls;
+    const follow = (value: ScannerProfile['encoding']) => {
+      this.usesGamma.set(value === 'gamma');
+      // the gamma value only matters, and is only checked, for the pure gamma encoding
+      if (value === 'gamma') gamma.enable({ emitEvent: false });
+      else gamma.disable({ emitEvent: false });
+    };
+    follow(encoding.value);
+    encoding.valueChanges.pipe(takeUntilDestroyed()).subscribe(follow);
+  }
+
+  /** The message a field shows under it; the server's own words win. */
+  protected errorOf(path: string): string {
+    const e = this.form.get(path)?.errors;
+    if (!e) return '';
+    if (e['server']) return String(e['server']);
+    if (e['required']) return 'Required';
+    if (e['min'])
+      return (e['min'] as { min: number }).min === Number.MIN_VALUE
+        ? 'Above 0'
+        : `At least ${(e['min'] as { min: number }).min}`;
+    if (e['max']) return `At most ${(e['max'] as { max: number }).max}`;
+    if (e['maxlength']) return 'At most 120 characters';
+    return 'Check this value';
+  }
+
+  protected submit(): void {
+    this.form.markAllAsTouched();
+    if (this.form.invalid || this.busy()) return;
+    const v = this.form.getRawValue();
+    const triple = (values: (number | null)[]) => values.map(Number) as [number, number, number];
+    const request: CreateScannerRequest = {
+      name: v.name.trim(),
+      kind: v.kind,
+      inputProfile: {
+        name: v.name.trim(),
+        encoding: v.inputProfile.encoding,
+        // ignored by the other encodings; 1 keeps the stored profile honest about that
+        gamma: v.inputProfile.encoding === 'gamma' ? Number(v.inputProfile.gamma) : 1,
+        blackLevel: triple(v.inputProfile.blackLevel),
+        gains: triple(v.inputProfile.gains),
+      },
+    };
+    this.busy.set(true);
+    this.problem.set(null);
+    this.unclaimed.set([]);
+    const call = this.scanner ? this.api.update(this.scanner.id, request) : this.api.create(request);
+    call.subscribe({
+      next: (scanner) => {
+        this.busy.set(false);
+        this.ref.close(scanner);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        const p = readProblem(err);
+        this.problem.set(p.message);
+        this.unclaimed.set(
+          applyFieldProblems(p.fieldErrors, (path) => {
+            const field = path.replace(/^body\./, '');
+            // the profile's own name is the scanner's name, sent twice
+            return this.form.get(field === 'inputProfile.name' ? 'name' : field);
+          }),
+        );
+      },
+    });
+  }
+}
