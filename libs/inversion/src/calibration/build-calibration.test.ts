@@ -179,6 +179,15 @@ describe('building a profile from a calibration roll (forward model: crosstalk, 
   });
 });
 
+describe('a chart frame exposed off the meter', () => {
+  it('finds the chart’s exposure from its neutral row and fits the crosstalk as well', () => {
+    const r = buildCalibration(inputFor(rollOf({ chartStops: 1.5 })));
+    expect(r.chartExposureStops).toBeCloseTo(1.5, 1);
+    expect(r.deltaE.after.mean).toBeLessThan(1);
+    expect(r.warnings.filter((w) => w.severity === 'warning')).toEqual([]);
+  });
+});
+
 describe('a chart photographed at an angle', () => {
   it('samples every patch through the perspective grid and fits as well as a square chart', () => {
     const roll = rollOf();
