@@ -6,6 +6,12 @@ import type { JobRow } from '../orders/order-tables';
 /** The target text of a roll's inversion job. */
 export const rollTarget = (rollId: number) => `roll:${rollId}`;
 
+/** The roll a job works on, from its target `roll:<id>`. */
+export function rollIdOfTarget(target: string): number | null {
+  const m = /^roll:(\d+)$/.exec(target);
+  return m ? Number(m[1]) : null;
+}
+
 export function findJobById(db: Kysely<Database>, id: number): Promise<JobRow | undefined> {
   return db.selectFrom('jobs').selectAll().where('id', '=', id).executeTakeFirst();
 }

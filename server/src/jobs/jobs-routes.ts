@@ -3,16 +3,10 @@ import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { setRollStatus } from '../rolls/roll-repository';
-import { findJobById, toJob, updateJob } from './job-repository';
+import { findJobById, rollIdOfTarget, toJob, updateJob } from './job-repository';
 import { publishRollEvent } from './roll-events';
 
 const jobNotFound = (id: number) => new AppError('job-not-found', 404, `No job with id ${id}.`);
-
-/** The roll a job works on, from its target `roll:<id>`. */
-export function rollIdOfTarget(target: string): number | null {
-  const m = /^roll:(\d+)$/.exec(target);
-  return m ? Number(m[1]) : null;
-}
 
 /** Background jobs: look at one, cancel one. */
 export const jobsRoutes: RouteModule = (api, { db, clock }) => {

@@ -6,7 +6,6 @@ import {
   type MeasuredBase,
   type RollEvent,
 } from '@clearbase/contracts';
-import { rollBase } from '@clearbase/inversion';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
 import { measureNegativeBase } from '../frames/measure-base';
@@ -16,7 +15,7 @@ import type { RouteModule } from '../http/route-module';
 import { activeJobOf, insertJob, latestJobOf, rollTarget, toJob } from '../jobs/job-repository';
 import { announceJobQueued, publishRollEvent, subscribeRollEvents } from '../jobs/roll-events';
 import { recordOrderAudit } from '../orders/record-order-audit';
-import type { FrameRow } from '../orders/order-tables';
+import { medianBaseOf } from './median-base';
 import { assertRegionInside } from './region-check';
 import { loadRollFor, scannerProfileOf } from './roll-access';
 import { findRollById, setRollStatus, toRoll } from './roll-repository';
@@ -24,21 +23,6 @@ import { findRollById, setRollStatus, toRoll } from './roll-repository';
 const everyone = ['customer', ...staffRoles] as const;
 // 15 s between heartbeats keeps proxies from closing an idle stream (most time out after 30-60 s); from memory
 export const heartbeatMs = 15_000;
-
-/** The roll base from its frames' own bases: their robust median, or null when none was found. */
-export function medianBaseOf(frames: readonly FrameRow[]): MeasuredBase | null {
-  const bases = frames
-    .filter((f) => f.base_mode === 'auto' && f.base_measured)
-    .map((f) => JSON.parse(f.base_measured!) as MeasuredBase)
-    .filter((b) => b.confidence > 0);
-  if (bases.length === 0) return null;
-  const median = rollBase(bases.map((b) => ({ rgb: b.rgb, region: [0, 0, 0, 0], confidence: b.confidence })));
-  return {
-    rgb: median.rgb.map((v) => Number(v.toFixed(6))) as MeasuredBase['rgb'],
-    region: null,
-    confidence: Number(median.confidence.toFixed(4)),
-  };
-}
 
 /** A roll with its frames, its inversion job, its base, and its live stream of changes. */
 export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {

@@ -1,0 +1,132 @@
+import type {
+  Adjustments,
+  OutputFormat,
+  ProfileDocument,
+  QcFlag,
+  ScannerProfile,
+} from '@clearbase/contracts';
+import { compileInversion, levelsToTone, type FilmBase } from '@clearbase/inversion';
+import type { FileStore } from '../files/file-store';
+import { positivePipeline, readNegative, type PositiveMetadata } from '../imaging/index';
+import type { InversionPool } from '../inversion-pool/inversion-pool';
+import { inversionParams, measureLevels } from '../inversion-pool/invert-negative-file';
+import type { FrameOutputKind } from '../orders/order-tables';
+import { frameQcFlags } from './frame-qc';
+
+/** Long edge of the preview JPEG, pixels (the same as the negative preview). */
+export const positivePreviewLongEdge = 2048;
+// 85 for previews seen on screen: common practice for web images, from memory
+const previewQuality = 85;
+
+const mediaTypes: Record<OutputFormat, string> = {
+  jpeg: 'image/jpeg',
+  tiff16: 'image/tiff',
+  png16: 'image/png',
+};
+
+export interface FrameRenderRequest {
+  sourcePath: string;
+  fileName: string;
+  profile: ProfileDocument;
+  scanner: ScannerProfile;
+  base: FilmBase;
+  roll: Adjustments;
+  frame: Adjustments;
+  formats: readonly OutputFormat[];
+  /** Long edge of the full-size outputs; null keeps the scan's size. */
+  longEdge: number | null;
+  maxPixels: number;
+}
+
+export interface StoredRender {
+  kind: FrameOutputKind;
+  sha256: string;
+  size: number;
+  mediaType: string;
+}
+
+/**
+ * Renders one frame: decodes the negative, measures its levels against `base`, inverts it on the worker pool at 16
+ * bits with the profile plus the roll's and the frame's adjustments (balances add, exposures add, the frame's
+ * contrast wins over the roll's, which wins over the profile's), and stores the preview JPEG (long edge 2048) and
+ * each full-size format. Every file is flushed to disk under a temp name and renamed into the store; nothing is
+ * recorded in the database here.
+ */
+export async function renderFrame(
+  pool: InversionPool,
+  store: FileStore,
+  request: FrameRenderRequest,
+): Promise<{ outputs: StoredRender[]; qcFlags: QcFlag[]; warnings: string[] }> {
+  const negative = await readNegative(request.sourcePath, {
+    maxPixels: request.maxPixels,
+    allocate: (samples) => pool.buffers.acquire(Uint16Array, samples),
+  });
+  const positive = pool.buffers.acquire(Uint16Array, negative.data.length);
+  try {
+    const settings = { profile: request.profile, scanner: request.scanner, render: 'print' as const };
+    const levels = measureLevels(negative, settings, request.base);
+    const params = inversionParams(settings, request.base, levels, 16);
+    const contrast = request.frame.contrast ?? request.roll.contrast ?? request.profile.tone.contrast;
+    params.profile = { ...params.profile, tone: levelsToTone(levels, contrast) };
+    params.balances = [...(params.balances ?? []), request.roll.balance, request.frame.balance];
+    params.exposureStops = request.roll.exposureStops + request.frame.exposureStops;
+    await pool.invertFrame(
+      compileInversion(params),
+      negative.data,
+      positive,
+      negative.width,
+      negative.height,
+    );
+
+    const qcFlags = frameQcFlags(negative, positive, request.scanner, request.base.rgb[1]);
+    const { width, height } = negative;
+    const metadata: PositiveMetadata = {
+      stock: request.profile.stock.name,
+      profileVersion: `${request.profile.id}@${request.profile.version}`,
+      scanner: request.scanner.name,
+      adjustments: {
+        roll: request.roll,
+        frame: request.frame,
+        base: request.base.rgb.map((v) => Number(v.toFixed(6))),
+      },
+      sourceFile: request.fileName,
+    };
+    const fit = (edge: number | null) =>
+      edge !== null && Math.max(width, height) > edge
+        ? { width: edge, height: edge, fit: 'inside' as const, withoutEnlargement: true }
+        : null;
+    const encodings: { kind: FrameOutputKind; mediaType: string; bytes: Promise<Buffer> }[] = [];
+    const preview = positivePipeline(positive, {
+      width,
+      height,
+      format: 'jpeg',
+      quality: previewQuality,
+      metadata,
+    });
+    const previewFit = fit(positivePreviewLongEdge);
+    encodings.push({
+      kind: 'preview',
+      mediaType: 'image/jpeg',
+      bytes: (previewFit ? preview.resize(previewFit) : preview).toBuffer(),
+    });
+    for (const format of request.formats) {
+      const pipeline = positivePipeline(positive, { width, height, format, metadata });
+      const size = fit(request.longEdge);
+      encodings.push({
+        kind: format,
+        mediaType: mediaTypes[format],
+        bytes: (size ? pipeline.resize(size) : pipeline).toBuffer(),
+      });
+    }
+    const encoded = await Promise.all(encodings.map((e) => e.bytes));
+    const outputs: StoredRender[] = [];
+    for (const [i, e] of encodings.entries()) {
+      const stored = await store.putBytes(encoded[i]!);
+      outputs.push({ kind: e.kind, sha256: stored.sha256, size: stored.size, mediaType: e.mediaType });
+    }
+    return { outputs, qcFlags, warnings: negative.warnings };
+  } finally {
+    pool.buffers.release(negative.data);
+    pool.buffers.release(positive);
+  }
+}
