@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import {
   exposeNegative,
   gradientScene,
+  levelSample,
   levelsToTone,
   measureFrameLevels,
   neutralBalance,
@@ -67,6 +68,7 @@ describe('auto exposure and levels', () => {
     sampled.channelMeans.forEach((v, c) => expect(v).toBeCloseTo(every.channelMeans[c]!, 2));
     expect(sampled.blackLogExposure).toBeCloseTo(every.blackLogExposure, 1);
     expect(sampled.whiteLogExposure).toBeCloseTo(every.whiteLogExposure, 1);
+    expect(measureFrameLevels(params, levelSample(neg), { step: 1 })).toEqual(sampled);
   });
   it('keeps roll-wide levels with each frame deviating by its own exposure', () => {
     const { roll, deviations } = rollLevels([levelsAt(-1), levelsAt(0), levelsAt(1)]);

@@ -94,6 +94,32 @@ export function measureFrameLevels(
 }
 
 /**
+ * The pixels `measureFrameLevels` would measure by default (a strided grid over the region, at most
+ * MAX_LEVEL_SAMPLES), copied into a small image of their own: measuring it with `{ step: 1 }` gives the same
+ * levels as measuring the frame, so a roll can keep each frame's sample (about 1.5 MB) instead of the frame.
+ * @example measureFrameLevels(params, levelSample(negative), { step: 1 }) // equals measureFrameLevels(params, negative)
+ */
+export function levelSample(
+  image: RgbImage,
+  options: Pick<MeasureLevelsOptions, 'region' | 'step'> = {},
+): RgbImage {
+  const [x0, y0, w, h] = options.region ?? [0, 0, image.width, image.height];
+  const step = Math.max(1, Math.floor(options.step ?? Math.ceil(Math.sqrt((w * h) / MAX_LEVEL_SAMPLES))));
+  const width = Math.ceil(w / step),
+    height = Math.ceil(h / step);
+  const data = new Uint16Array(width * height * 3);
+  let o = 0;
+  for (let y = y0; y < y0 + h; y += step)
+    for (let x = x0; x < x0 + w; x += step, o += 3) {
+      const i = (y * image.width + x) * 3;
+      data[o] = image.data[i]!;
+      data[o + 1] = image.data[i + 1]!;
+      data[o + 2] = image.data[i + 2]!;
+    }
+  return { width, height, data };
+}
+
+/**
  * Balance in printer points that brings every channel's mean to the neutral (grey-world in log exposure).
  * @example neutralBalance(levels) // { cyanRed: -3.1, magentaGreen: 0.4, yellowBlue: 2.2 }
  */

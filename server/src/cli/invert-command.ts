@@ -7,9 +7,22 @@ import {
   type ProfileDocument,
   type ScannerProfile,
 } from '@clearbase/contracts';
-import { LINEAR_SCANNER, rollBase, rollLevels, type FrameLevels, type Region } from '@clearbase/inversion';
-import { ImageInputError, POSITIVE_EXTENSIONS, readNegative, type PositiveFormat } from '../imaging/index';
-import { createInversionPool } from '../inversion-pool/inversion-pool';
+import {
+  levelSample,
+  LINEAR_SCANNER,
+  rollBase,
+  rollLevels,
+  type FilmBase,
+  type Region,
+  type RgbImage,
+} from '@clearbase/inversion';
+import {
+  ImageInputError,
+  POSITIVE_EXTENSIONS,
+  type NegativeImage,
+  type PositiveFormat,
+} from '../imaging/index';
+import { createInversionPool, type InversionPool } from '../inversion-pool/inversion-pool';
 import { runPipelined } from '../inversion-pool/run-pipelined';
 import {
   FilmBaseError,
@@ -17,6 +30,7 @@ import {
   measureBase,
   measureLevels,
   NEUTRAL_PROFILE,
+  readPooledNegative,
   type FrameResult,
   type FrameSettings,
 } from '../inversion-pool/invert-negative-file';
@@ -28,6 +42,9 @@ import { UsageError } from './usage-error';
 const FORMATS: PositiveFormat[] = ['jpeg', 'tiff16', 'png16'];
 // Frames in flight at once: one decoding or encoding while another is on the pool.
 const FRAMES_IN_FLIGHT = 2;
+// Decoded frames of a roll kept from the measuring pass for the inverting pass, at most this many bytes (36
+// frames of 1200 × 800 fit; 24 MP frames are decoded again); a budget that suits a small server, from memory.
+const ROLL_KEEP_BYTES = 256 * 1024 * 1024;
 
 /**
  * `clearbase invert <negative...> --out DIR ...`: see the usage text. Resolves to 0 when every
@@ -65,7 +82,7 @@ export async function invertCommand(args: string[]): Promise<number> {
     : LINEAR_SCANNER;
 
   await mkdir(values.out, { recursive: true });
-  // Each file is read once per pass; libvips' operation cache would only hold memory.
+  // Each file is decoded once (twice for a roll too large to keep); libvips' operation cache would only hold memory.
   sharp.cache(false);
   const settings: FrameSettings = {
     profile,
@@ -80,43 +97,18 @@ export async function invertCommand(args: string[]): Promise<number> {
   let failed = 0;
   const todo = [...files.keys()];
 
-  if (values.roll) {
-    // First pass: each frame's base; the roll base is their robust median.
-    const bases: ReturnType<typeof measureBase>['base'][] = [];
-    const fail = (index: number, error: unknown) => {
-      if (!(error instanceof ImageInputError || error instanceof FilmBaseError)) throw error;
-      failed++;
-      todo.splice(todo.indexOf(index), 1);
-      report.failure(files[index]!, error);
-    };
-    for (const index of [...todo]) {
-      try {
-        bases.push(measureBase(await readNegative(files[index]!), settings).base);
-      } catch (error) {
-        fail(index, error);
-      }
-    }
-    if (bases.length) {
-      const roll = rollBase(bases);
-      settings.base = roll;
-      // Second pass: every frame's levels against the roll base; one roll-wide E_mid, balance and tone.
-      const levels: FrameLevels[] = [];
-      for (const index of [...todo]) {
-        try {
-          levels.push(measureLevels(await readNegative(files[index]!), settings, roll));
-        } catch (error) {
-          fail(index, error);
-        }
-      }
-      if (levels.length) settings.levels = rollLevels(levels).roll;
-    }
-  }
-
+  // Started first, so the workers come up while the first negative decodes.
   const pool = createInversionPool(threads ? { threads } : {});
   try {
+    const kept = values.roll
+      ? await measureRoll(pool, files, todo, settings, report)
+      : new Map<number, NegativeImage>();
+    failed += files.length - todo.length;
     await runPipelined(todo, FRAMES_IN_FLIGHT, async (index) => {
+      const decoded = kept.get(index);
+      kept.delete(index);
       try {
-        report.success(await invertNegativeFile(pool, files[index]!, outputs[index]!, settings));
+        report.success(await invertNegativeFile(pool, files[index]!, outputs[index]!, settings, decoded));
       } catch (error) {
         if (!(error instanceof ImageInputError || error instanceof FilmBaseError)) throw error;
         failed++;
@@ -127,6 +119,54 @@ export async function invertCommand(args: string[]): Promise<number> {
     await pool.close();
   }
   return failed ? 1 : 0;
+}
+
+/**
+ * The measuring pass of a roll: decodes each frame once, measures its base and keeps a small strided sample
+ * for levels; the roll base is the frames' robust median and the roll-wide levels are measured on the samples
+ * against it (`settings` gets both). Frames that fail are reported and taken out of `todo`. Decoded frames are
+ * kept for the inverting pass while they fit in ROLL_KEEP_BYTES; the others are decoded again there.
+ */
+async function measureRoll(
+  pool: InversionPool,
+  files: string[],
+  todo: number[],
+  settings: FrameSettings,
+  report: ReturnType<typeof reporter>,
+): Promise<Map<number, NegativeImage>> {
+  const bases: FilmBase[] = [];
+  const samples: RgbImage[] = [];
+  const kept = new Map<number, NegativeImage>();
+  let keptBytes = 0;
+  for (const index of [...todo]) {
+    try {
+      const negative = await readPooledNegative(pool, files[index]!, settings);
+      let keep = false;
+      try {
+        bases.push(measureBase(negative, settings).base);
+        samples.push(levelSample(negative));
+        keep = keptBytes + negative.data.byteLength <= ROLL_KEEP_BYTES;
+        if (keep) {
+          kept.set(index, negative);
+          keptBytes += negative.data.byteLength;
+        }
+      } finally {
+        if (!keep) pool.buffers.release(negative.data);
+      }
+    } catch (error) {
+      if (!(error instanceof ImageInputError || error instanceof FilmBaseError)) throw error;
+      todo.splice(todo.indexOf(index), 1);
+      report.failure(files[index]!, error);
+    }
+  }
+  if (bases.length) {
+    const roll = rollBase(bases);
+    settings.base = roll;
+    settings.levels = rollLevels(
+      samples.map((sample) => measureLevels(sample, settings, roll, { step: 1 })),
+    ).roll;
+  }
+  return kept;
 }
 
 function parseBase(raw: string): 'auto' | Region {

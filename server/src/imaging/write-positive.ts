@@ -34,7 +34,8 @@ export const POSITIVE_EXTENSIONS: Record<PositiveFormat, string> = {
 /**
  * Builds the sharp pipeline for a positive held as interleaved sRGB-encoded RGB.
  *
- * - `jpeg`: 8-bit, ICC sRGB profile embedded, EXIF ImageDescription and XMP. `data` may be a
+ * - `jpeg`: 8-bit, ICC sRGB profile embedded, EXIF ImageDescription and XMP; standard Huffman tables
+ *   (encoded in one pass, in strips: memory stays small whatever the image size). `data` may be a
  *   Uint8Array, or a Uint16Array that is rounded to 8 bits.
  * - `tiff16` (deflate, horizontal predictor) and `png16`: `data` must be a Uint16Array; values are
  *   kept exactly, XMP metadata, no ICC profile — sharp's ICC transform changes 16-bit values by up
@@ -58,11 +59,16 @@ export function positivePipeline(data: Uint8Array | Uint16Array, options: Encode
   switch (format) {
     case 'jpeg': {
       const bytes = data instanceof Uint16Array ? to8Bit(data) : data;
-      return sharp(bytes, { raw })
-        .withIccProfile('srgb')
-        .withExif({ IFD0: { ImageDescription: describePositive(meta), Software: 'Clearbase' } })
-        .withXmp(positiveXmp(meta))
-        .jpeg({ quality, chromaSubsampling: quality >= 90 ? '4:4:4' : '4:2:0' });
+      return (
+        sharp(bytes, { raw })
+          .withIccProfile('srgb')
+          .withExif({ IFD0: { ImageDescription: describePositive(meta), Software: 'Clearbase' } })
+          .withXmp(positiveXmp(meta))
+          // optimiseCoding off: optimised Huffman tables make the encoder hold the whole image's coefficients.
+          // Measured at 24 MP on a smooth synthetic positive: 280 MB more memory and 4.2 s instead of 0.37 s,
+          // for a file a quarter smaller (1.34 MB against 1.78 MB); same pixels either way.
+          .jpeg({ quality, chromaSubsampling: quality >= 90 ? '4:4:4' : '4:2:0', optimiseCoding: false })
+      );
     }
     case 'tiff16':
     case 'png16': {

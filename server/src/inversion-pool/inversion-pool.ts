@@ -1,10 +1,9 @@
 import { availableParallelism } from 'node:os';
-import { createRequire } from 'node:module';
-import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Piscina } from 'piscina';
 import type { InvertChunkTask } from './invert-chunk';
 import { sharePlan } from './share-plan';
 import { createFrameBuffers, type FrameBuffers } from './frame-buffers';
+import { bundleWorker } from './worker-bundle';
 
 export interface InversionPoolOptions {
   /** Worker threads. Default `os.availableParallelism()`. */
@@ -34,24 +33,14 @@ export interface InversionPool {
 }
 
 const WORKER_URL = new URL('./invert-chunk.ts', import.meta.url);
-const ROOT_TSCONFIG = fileURLToPath(new URL('../../../tsconfig.json', import.meta.url));
-
-/**
- * The node flags a worker needs to load `file`: TypeScript sources are loaded through tsx, so the
- * same worker file runs under vitest, tsx and the command line alike.
- */
-export function workerExecArgv(file: URL): string[] {
-  if (!file.pathname.endsWith('.ts')) return [];
-  const tsx = pathToFileURL(createRequire(import.meta.url).resolve('tsx')).href;
-  return ['--import', tsx];
-}
 
 /**
  * Starts a pool of worker threads that invert frames slice by slice.
  *
  * The main thread compiles the plan once (`compileInversion`); its tables are moved onto shared
  * memory once per frame, and each slice task carries views of them and of the shared input and
- * output buffers, so nothing large is copied per slice.
+ * output buffers, so nothing large is copied per slice. The workers start once, from a bundled
+ * plain-JavaScript copy of the worker (see `bundleWorker`), and live across frames.
  *
  * @example
  *   const pool = createInversionPool({ threads: 2 });
@@ -71,14 +60,16 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
       `Expected integer between 1 and 64 for slicesPerThread but received ${slicesPerThread} of type ${typeof slicesPerThread}`,
     );
   }
+  // Workers run the bundled plain-JavaScript worker: no TypeScript loader per thread (seconds at start-up).
+  const worker = bundleWorker(WORKER_URL);
   const piscina = new Piscina<InvertChunkTask, number>({
-    filename: WORKER_URL.href,
+    filename: worker.href,
     minThreads: threads,
     maxThreads: threads,
     // Frames of a roll arrive back to back; keep the workers warm between them.
     idleTimeout: 60_000,
-    execArgv: workerExecArgv(WORKER_URL),
-    env: { ...process.env, TSX_TSCONFIG_PATH: ROOT_TSCONFIG },
+    // Plain JavaScript: none of the parent's loader flags (tsx, vitest) are needed or wanted in the workers.
+    execArgv: [],
   });
 
   return {

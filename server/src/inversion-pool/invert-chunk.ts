@@ -1,4 +1,7 @@
-import { applyInversion, type InversionPlan } from '@clearbase/inversion';
+import type { InversionPlan } from '@clearbase/inversion';
+// The one module the workers need, not the library's index: the worker is bundled (see worker-bundle.ts),
+// and the index would bring in the colour-difference library and the forward model for nothing.
+import { applyInversion } from '../../../libs/inversion/src/compile-inversion';
 
 /** One slice of a frame for a worker: pixels [firstPixel, firstPixel + pixelCount) of shared buffers. */
 export interface InvertChunkTask {

@@ -10,10 +10,11 @@ import {
   type FilmBase,
   type FrameLevels,
   type InversionParams,
+  type MeasureLevelsOptions,
   type Region,
   type RgbImage,
 } from '@clearbase/inversion';
-import { readNegative, writePositive, type PositiveFormat } from '../imaging/index';
+import { readNegative, writePositive, type NegativeImage, type PositiveFormat } from '../imaging/index';
 import type { InversionPool } from './inversion-pool';
 
 // Below this a detected base is not trusted; the frame is flagged for QC; from memory.
@@ -94,6 +95,7 @@ export function measureLevels(
   negative: RgbImage,
   settings: Pick<FrameSettings, 'profile' | 'scanner' | 'render'>,
   base: FilmBase,
+  options: MeasureLevelsOptions = {},
 ): FrameLevels {
   return measureFrameLevels(
     {
@@ -104,6 +106,7 @@ export function measureLevels(
       outputBits: 8,
     },
     negative,
+    options,
   );
 }
 
@@ -129,8 +132,21 @@ export function inversionParams(
   };
 }
 
+/** Decodes a negative straight into one of the pool's shared buffers (give it back with `pool.buffers.release`). */
+export function readPooledNegative(
+  pool: InversionPool,
+  file: string,
+  settings: Pick<FrameSettings, 'maxPixels'>,
+): Promise<NegativeImage> {
+  return readNegative(file, {
+    allocate: (samples) => pool.buffers.acquire(Uint16Array, samples),
+    ...(settings.maxPixels ? { maxPixels: settings.maxPixels } : {}),
+  });
+}
+
 /**
- * Reads one negative, inverts it on the pool and writes the positive atomically to `output`.
+ * Reads one negative (unless `decoded` holds it already, from `readPooledNegative`), inverts it on the pool
+ * and writes the positive atomically to `output`; the negative's buffer goes back to the pool either way.
  * Throws `ImageInputError` for an unreadable negative and `FilmBaseError` for an unusable base
  * (nothing is written then).
  */
@@ -139,12 +155,10 @@ export async function invertNegativeFile(
   file: string,
   output: string,
   settings: FrameSettings,
+  decoded?: NegativeImage,
 ): Promise<FrameResult> {
   const start = performance.now();
-  const negative = await readNegative(file, {
-    allocate: (samples) => pool.buffers.acquire(Uint16Array, samples),
-    ...(settings.maxPixels ? { maxPixels: settings.maxPixels } : {}),
-  });
+  const negative = decoded ?? (await readPooledNegative(pool, file, settings));
   const outKind = settings.format === 'jpeg' ? Uint8Array : Uint16Array;
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
   let measured: ReturnType<typeof measureBase>;
