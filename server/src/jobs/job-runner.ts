@@ -9,6 +9,8 @@ import {
 } from '@clearbase/contracts';
 import type { FilmBase } from '@clearbase/inversion';
 import type { Kysely } from 'kysely';
+import { readdir, rm } from 'node:fs/promises';
+import { join } from 'node:path';
 import PQueue from 'p-queue';
 import type { Logger } from 'pino';
 import type { BackgroundService } from '../background-service';
@@ -54,6 +56,11 @@ export interface JobRunnerOptions {
   threads?: number;
   leaseMs?: number;
   pollMs?: number;
+  /**
+   * Empty DATA_DIR/tmp on start: what a killed process was writing there is of no use. Default true; start the
+   * runner before the server takes uploads.
+   */
+  sweepTempOnStart?: boolean;
   /** Called after each frame is recorded done (tests use it to slow a roll down or stop mid-way). */
   afterFrame?: (frameId: number) => void | Promise<void>;
 }
@@ -382,9 +389,17 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
   return {
     name: 'inversion queue',
     wake,
-    start() {
+    async start() {
       if (loop) return;
       stopping = false;
+      store ??= createFileStore(config.dataDir);
+      if (options.sweepTempOnStart ?? true) {
+        const left = await readdir(store.tmpDir);
+        await Promise.all(
+          left.map((name) => rm(join(store!.tmpDir, name), { force: true, recursive: true })),
+        );
+        if (left.length) logger.info({ files: left.length }, 'removed unfinished temp files');
+      }
       stopListening = onJobQueued(db, wake);
       loop = run();
     },
