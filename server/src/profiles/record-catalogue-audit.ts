@@ -5,6 +5,7 @@ import type { Database } from '../db/database';
 /** Audit actions of the stock catalogue, scanners and stock profiles. */
 export type CatalogueAuditAction =
   | 'stock-created'
+  | 'stock-sheet-updated'
   | 'scanner-created'
   | 'scanner-updated'
   | 'profile-created'

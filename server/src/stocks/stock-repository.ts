@@ -4,6 +4,7 @@ import {
   type FilmProcess,
   type Stock,
   type StockQuery,
+  type UpdateStockSheetRequest,
 } from '@clearbase/contracts';
 import { sql, type Kysely } from 'kysely';
 import type { Database, StockRow } from '../db/database';
@@ -53,6 +54,28 @@ export function insertStock(db: Kysely<Database>, stock: CreateStockRequest, at:
     })
     .returningAll()
     .executeTakeFirstOrThrow();
+}
+
+/** Changes the sheet fields given (undefined ones stay); undefined when there is no such stock. */
+export function updateStockSheet(
+  db: Kysely<Database>,
+  id: number,
+  sheet: UpdateStockSheetRequest,
+): Promise<StockRow | undefined> {
+  return db
+    .updateTable('stocks')
+    .set({
+      notes: sheet.notes,
+      recommended_ei: sheet.recommendedEi,
+      latitude_under_stops: sheet.latitudeUnderStops,
+      latitude_over_stops: sheet.latitudeOverStops,
+      push_pull_notes: sheet.pushPullNotes,
+      reciprocity_exponent: sheet.reciprocityExponent,
+      handling_notes: sheet.handlingNotes,
+    })
+    .where('id', '=', id)
+    .returningAll()
+    .executeTakeFirst();
 }
 
 export function toStock(row: StockRow): Stock {

@@ -140,6 +140,51 @@ describe('stock sheet', () => {
   });
 });
 
+describe('changing a stock sheet', () => {
+  it('lets a manager change the sheet fields given, keeps the others, and audits before and after', async () => {
+    const created = await manager.post('/api/stocks', { ...tealLine, name: 'Resheeted 100', notes: 'Kept.' });
+    const id = created.body.stock.id;
+    const res = await manager.patch(`/api/stocks/${id}`, {
+      recommendedEi: 80,
+      reciprocityExponent: 1.4,
+      handlingNotes: 'Load by hand.',
+    });
+    expect(res.status).toBe(200);
+    expect(res.body.stock).toMatchObject({
+      name: 'Resheeted 100',
+      notes: 'Kept.',
+      recommendedEi: 80,
+      reciprocityExponent: 1.4,
+      handlingNotes: 'Load by hand.',
+    });
+    const cleared = await manager.patch(`/api/stocks/${id}`, { recommendedEi: null });
+    expect(cleared.body.stock).toMatchObject({ recommendedEi: null, reciprocityExponent: 1.4 });
+    const audit = await t.db
+      .selectFrom('audit_log')
+      .selectAll()
+      .where('action', '=', 'stock-sheet-updated')
+      .where('target', '=', `stock:${id}`)
+      .orderBy('id')
+      .executeTakeFirstOrThrow();
+    expect(JSON.parse(audit.details!)).toMatchObject({
+      before: { recommendedEi: null, reciprocityExponent: 1.3 },
+      after: { recommendedEi: 80, reciprocityExponent: 1.4 },
+    });
+  });
+
+  it('refuses operators (403), unknown stocks (404), a change of name and an out-of-range p (400)', async () => {
+    const [stock] = (await customer.get('/api/stocks?q=tealine')).body.stocks;
+    expect((await operator.patch(`/api/stocks/${stock.id}`, { notes: 'x' })).status).toBe(403);
+    expect((await manager.patch('/api/stocks/9999', { notes: 'x' })).status).toBe(404);
+    const renamed = await manager.patch(`/api/stocks/${stock.id}`, { name: 'Other', reciprocityExponent: 3 });
+    expect(renamed.status).toBe(400);
+    expect(renamed.body.errors.map((e: { path: string }) => e.path).sort()).toEqual([
+      'body',
+      'body.reciprocityExponent',
+    ]);
+  });
+});
+
 describe('a stock page', () => {
   it('names who made and who published each version', async () => {
     const [stock] = (await customer.get('/api/stocks?q=tealine')).body.stocks;

@@ -1,4 +1,9 @@
-import { createStockRequestSchema, stockQuerySchema, type StockDetail } from '@clearbase/contracts';
+import {
+  createStockRequestSchema,
+  stockQuerySchema,
+  updateStockSheetRequestSchema,
+  type StockDetail,
+} from '@clearbase/contracts';
 import { z } from 'zod';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
@@ -11,7 +16,7 @@ import {
 } from '../profiles/profile-repository';
 import { recordCatalogueAudit } from '../profiles/record-catalogue-audit';
 import { isUniqueViolation } from './is-unique-violation';
-import { findStockById, insertStock, listStocks, toStock } from './stock-repository';
+import { findStockById, insertStock, listStocks, toStock, updateStockSheet } from './stock-repository';
 
 const stockIdParams = z.object({ id: z.coerce.number().int().positive('Expected a positive stock id') });
 
@@ -99,6 +104,34 @@ export const stocksRoutes: RouteModule = (api, { db, clock }) => {
         })),
       };
       res.json(detail);
+    },
+  );
+
+  api.define(
+    {
+      method: 'patch',
+      path: '/api/stocks/:id',
+      roles: ['manager', 'admin'],
+      params: stockIdParams,
+      body: updateStockSheetRequestSchema,
+      summary: 'Change a stock’s sheet: notes, EI, latitude, push/pull, reciprocity, handling',
+    },
+    async (_req, res, { params, body, user }) => {
+      const stock = await db.transaction().execute(async (trx) => {
+        const before = await findStockById(trx, params.id);
+        if (!before) throw new AppError('stock-not-found', 404, `No stock with id ${params.id}.`);
+        const updated = toStock((await updateStockSheet(trx, params.id, body))!);
+        await recordCatalogueAudit(trx, {
+          at: clock.now(),
+          actor: user!,
+          action: 'stock-sheet-updated',
+          target: `stock:${params.id}`,
+          before: toStock(before),
+          after: updated,
+        });
+        return updated;
+      });
+      res.json({ stock });
     },
   );
 };

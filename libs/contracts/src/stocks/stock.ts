@@ -76,6 +76,22 @@ export const createStockRequestSchema = z.strictObject({
 });
 export type CreateStockRequest = z.infer<typeof createStockRequestSchema>;
 
+/**
+ * What a manager sends to change a stock's sheet: any of its notes, EI, latitude and reciprocity exponent. The
+ * stock's name, process and base stay as they are: profile documents name the stock they were made for.
+ */
+export const updateStockSheetRequestSchema = createStockRequestSchema
+  .pick({
+    recommendedEi: true,
+    latitudeUnderStops: true,
+    latitudeOverStops: true,
+    pushPullNotes: true,
+    reciprocityExponent: true,
+    handlingNotes: true,
+  })
+  .extend({ notes: z.string().max(4000).optional() });
+export type UpdateStockSheetRequest = z.infer<typeof updateStockSheetRequestSchema>;
+
 /** Kinds of input device. */
 export const scannerKinds = ['camera-rig', 'lab-scanner', 'flatbed'] as const;
 export const scannerKindSchema = z.enum(scannerKinds);
