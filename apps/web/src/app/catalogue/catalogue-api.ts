@@ -8,6 +8,7 @@ import type {
   ProfileVersion,
   Stock,
   StockDetail,
+  UpdateStockSheetRequest,
 } from '@clearbase/contracts';
 import { map, type Observable } from 'rxjs';
 
@@ -38,6 +39,11 @@ export class CatalogueApi {
 
   createStock(request: CreateStockRequest): Observable<Stock> {
     return this.http.post<{ stock: Stock }>('/api/stocks', request).pipe(map((r) => r.stock));
+  }
+
+  /** Changes a stock's sheet (notes, EI, latitude, push/pull, reciprocity exponent, handling). */
+  updateSheet(id: number, sheet: UpdateStockSheetRequest): Observable<Stock> {
+    return this.http.patch<{ stock: Stock }>(`/api/stocks/${id}`, sheet).pipe(map((r) => r.stock));
   }
 
   /** A new draft of the profile, starting from the given version's parameters. */

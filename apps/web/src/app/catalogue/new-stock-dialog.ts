@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, type ValidatorFn, Validators } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import {
   MatDialogActions,
@@ -16,18 +16,14 @@ import { readProblem } from '../problem/read-problem';
 import { applyFieldProblems, bodyField } from './apply-field-problems';
 import { CatalogueApi } from './catalogue-api';
 import { processChoices, processLabel } from './stock-labels';
-
-// The server's limits (libs/contracts stocks/stock.ts), written out to keep zod out of the browser bundle:
-// speeds 6 to 25600, latitude 0 to 10 stops, p from 1 to 2 (common practice of the trade, from memory).
-const speedRange = { min: 6, max: 25600 } as const;
-const latitudeRange = { min: 0, max: 10 } as const;
-const reciprocityExponentRange = { min: 1, max: 2 } as const;
-// p = 1.3 suits many films: common practice of the trade, from memory (the server's default too)
-const defaultReciprocityExponent = 1.3;
-
-/** A whole number, or nothing entered. */
-const wholeNumber: ValidatorFn = (c) =>
-  c.value === null || c.value === '' || Number.isInteger(Number(c.value)) ? null : { wholeNumber: true };
+import {
+  defaultReciprocityExponent,
+  latitudeRange,
+  reciprocityExponentRange,
+  speedRange,
+  stockFieldError,
+  wholeNumber,
+} from './stock-limits';
 
 /** Manager: adds a stock with its sheet; the server's complaints appear under the fields they concern. */
 @Component({
@@ -100,19 +96,9 @@ export class NewStockDialog {
   protected readonly problem = signal<string | null>(null);
   protected readonly unclaimed = signal<string[]>([]);
 
-  /** The message a field shows under it, its first complaint first; the server's own words win. */
+  /** The message a field shows under it. */
   protected errorOf(name: string): string {
-    const e = this.form.get(name)?.errors;
-    if (!e) return '';
-    if (e['server']) return String(e['server']);
-    if (e['required']) return 'Required';
-    if (e['min']) return `At least ${(e['min'] as { min: number }).min}`;
-    if (e['max']) return `At most ${(e['max'] as { max: number }).max}`;
-    if (e['wholeNumber']) return 'A whole number';
-    if (e['maxlength'])
-      return `At most ${(e['maxlength'] as { requiredLength: number }).requiredLength} characters`;
-    if (e['pattern']) return 'List at least one format, separated by commas';
-    return 'Check this value';
+    return stockFieldError(this.form.get(name)?.errors);
   }
 
   protected submit(): void {

@@ -6,6 +6,7 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
 import { provideRouter } from '@angular/router';
 import type { Role, StockDetail, User } from '@clearbase/contracts';
 import { Session } from '../auth/session';
@@ -54,6 +55,36 @@ describe('StockPage', () => {
     expect(el.querySelector('[data-testid="sheet-polyester"]')).not.toBeNull();
     expect(el.querySelector('[data-testid^="timeline-"]')).toBeNull();
     expect(el.querySelector('[data-testid="profile-import"]')).toBeNull();
+    expect(el.querySelector('[data-testid="edit-sheet"]')).toBeNull();
+  });
+
+  it('lets a manager change the sheet, checking p before sending, and shows the saved sheet', async () => {
+    const { page, root, backend, fixture, el } = await render('manager');
+    await (await page.getHarness(MatButtonHarness.with({ selector: '[data-testid="edit-sheet"]' }))).click();
+    const dialog = await root.getHarness(MatDialogHarness);
+    const exponent = await dialog.getHarness(
+      MatInputHarness.with({ selector: '[data-testid="sheet-dialog-exponent"]' }),
+    );
+    expect(await exponent.getValue()).toBe('1.3');
+    await exponent.setValue('2.5');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Save sheet' }))).click();
+    expect(await dialog.getText()).toContain('At most 2');
+    backend.expectNone((r) => r.method === 'PATCH');
+
+    await exponent.setValue('1.4');
+    await (await dialog.getHarness(MatButtonHarness.with({ text: 'Save sheet' }))).click();
+    const req = backend.expectOne((r) => r.method === 'PATCH' && r.url === '/api/stocks/1');
+    expect(req.request.body).toMatchObject({
+      reciprocityExponent: 1.4,
+      recommendedEi: 400,
+      latitudeOverStops: 3,
+    });
+    const saved = { ...testDetail.stock, reciprocityExponent: 1.4 };
+    req.flush({ stock: saved });
+    await fixture.whenStable();
+    backend.expectOne('/api/stocks/1').flush({ ...testDetail, stock: saved });
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid="sheet-exponent"]')!.textContent).toBe('p = 1.4');
   });
 
   it('makes an operator’s new draft from a published version and shows the page again', async () => {

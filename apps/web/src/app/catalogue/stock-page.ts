@@ -8,13 +8,13 @@ import {
   type Signal,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
-import { MatAnchor } from '@angular/material/button';
+import { MatAnchor, MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import type { ImportProfileResponse, ProfileVersionSummary, StockDetail } from '@clearbase/contracts';
+import type { ImportProfileResponse, ProfileVersionSummary, Stock, StockDetail } from '@clearbase/contracts';
 import { catchError, map, of, startWith, switchMap } from 'rxjs';
 import { ConfirmDialog, type ConfirmDialogData } from '../admin/confirm-dialog';
 import { Session } from '../auth/session';
@@ -22,6 +22,7 @@ import { readProblem } from '../problem/read-problem';
 import { CatalogueApi } from './catalogue-api';
 import { ProfileImport } from './profile-import';
 import { StockSheet } from './stock-sheet';
+import { StockSheetDialog } from './stock-sheet-dialog';
 import { VersionCompare } from './version-compare';
 import { VersionTimeline, type ProfileWithVersions } from './version-timeline';
 
@@ -42,6 +43,7 @@ const staffRoles = ['operator', 'manager', 'admin'];
   imports: [
     RouterLink,
     MatAnchor,
+    MatButton,
     MatIcon,
     MatProgressBar,
     StockSheet,
@@ -64,6 +66,7 @@ export class StockPage {
 
   protected readonly role = this.session.role;
   protected readonly isStaff = computed(() => staffRoles.includes(this.role() ?? ''));
+  protected readonly isManager = computed(() => this.role() === 'manager' || this.role() === 'admin');
   protected readonly pending = signal<ReadonlySet<number>>(new Set());
   protected readonly exportUrl = (versionId: number) => this.api.exportUrl(versionId);
   private readonly reloads = signal(0);
@@ -86,6 +89,21 @@ export class StockPage {
   protected readonly detail = computed(() => this.view().detail);
   protected readonly loading = computed(() => this.view().loading);
   protected readonly problem = computed(() => this.view().problem);
+
+  protected editSheet(stock: Stock): void {
+    this.dialog
+      .open<StockSheetDialog, Stock, Stock>(StockSheetDialog, {
+        data: stock,
+        autoFocus: 'first-tabbable',
+        width: '640px',
+      })
+      .afterClosed()
+      .subscribe((saved) => {
+        if (!saved) return;
+        this.reload();
+        this.snackBar.open(`The sheet of ${saved.name} is saved.`, undefined, { duration: 4000 });
+      });
+  }
 
   protected newDraft(profile: ProfileWithVersions, from: ProfileVersionSummary): void {
     this.setPending(from.id, true);
