@@ -3,7 +3,7 @@ import type { Region, RgbImage } from './film-base';
 import { adaptD50ToD65, D50_WHITE, D65_WHITE, labToXyz, xyzToLab } from './lab';
 import { stopsToLogExposure } from './printer-points';
 import { encodeScannerValue, FULL_SCALE_16 } from './scanner-input';
-import { invert3, multiply3, xyzToLinearSrgb, type Matrix3, type Rgb } from './srgb';
+import { invert3, LINEAR_SRGB_TO_XYZ, multiply3, xyzToLinearSrgb, type Matrix3, type Rgb } from './srgb';
 
 /** An invented film stock for the forward model: per-channel curve shape, fog, base and dye crosstalk. */
 export interface FilmStock {
@@ -24,6 +24,31 @@ export interface FilmStock {
   baseDensity: Rgb;
   /** The correction M the matching profile holds; the film's densities are M⁻¹ · dye densities. */
   crosstalk: Matrix3;
+  /**
+   * The film's three exposures from a linear sRGB scene, H = S · rgb (row-major). Absent: the sRGB primaries
+   * themselves (S = identity), which cannot record a colour outside sRGB (a negative component is no light).
+   */
+  sensitivity?: Matrix3;
+}
+
+/**
+ * A wide-gamut film sensitivity: linear sRGB → linear ITU-R BT.2020 RGB (ITU-R BT.2087-0 (2015), the
+ * BT.709 → BT.2020 matrix; same D65 white, so neutrals stay neutral). Every chart colour exposes it positively.
+ * Scene-linear values recovered from such a film are in these primaries: `WIDE_GAMUT_TO_XYZ` takes them to XYZ.
+ */
+export const WIDE_GAMUT_SENSITIVITY: Matrix3 = [
+  [0.6274, 0.3293, 0.0433],
+  [0.0691, 0.9195, 0.0114],
+  [0.0164, 0.088, 0.8956],
+];
+
+/** Linear RGB in the wide-gamut film's primaries → CIE XYZ (D65): the sRGB matrix after the sensitivity's inverse. */
+export const WIDE_GAMUT_TO_XYZ: Matrix3 = multiply3x3(LINEAR_SRGB_TO_XYZ, invert3(WIDE_GAMUT_SENSITIVITY));
+
+function multiply3x3(a: Matrix3, b: Matrix3): Matrix3 {
+  return a.map((row) =>
+    [0, 1, 2].map((k) => row[0] * b[0][k]! + row[1] * b[1][k]! + row[2] * b[2][k]!),
+  ) as Matrix3;
 }
 
 // Invented stocks for tests and the demo. Gammas around 0.6 (common practice of the trade); toe, shoulder,
@@ -308,8 +333,10 @@ export function exposeNegative(scene: Scene, options: ExposeOptions): SyntheticN
         continue;
       }
       const j = (sy * width + x) * 3;
+      const seen: Rgb = [scene.rgb[j]!, scene.rgb[j + 1]!, scene.rgb[j + 2]!];
+      const h = stock.sensitivity ? multiply3(stock.sensitivity, seen) : seen;
       const dye: Rgb = [0, 1, 2].map((c) =>
-        filmDensity(stock, c as 0 | 1 | 2, Math.log10(Math.max(scene.rgb[j + c]!, MIN_SCENE)) + shift),
+        filmDensity(stock, c as 0 | 1 | 2, Math.log10(Math.max(h[c]!, MIN_SCENE)) + shift),
       ) as Rgb;
       write(i, multiply3(mInv, dye));
     }

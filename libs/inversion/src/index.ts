@@ -12,4 +12,5 @@ export * from './invert-pixel';
 export * from './compile-inversion';
 export * from './forward-model';
 export * from './frame-levels';
+export * from './reference-linear';
 export * from './calibration/index';
