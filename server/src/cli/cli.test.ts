@@ -88,6 +88,22 @@ describe('clearbase synth, invert and profile validate', () => {
     expect(meta).toMatchObject({ format: 'tiff', width: 240, height: 160, depth: 'ushort' });
   });
 
+  it('synth writes chart negatives named for the scene, and refuses an unknown scene with exit 2', async () => {
+    const run = await runCli(
+      ['synth', '--out', 'charts', '--scene', 'chart', '--frames', '1', '--width', '120', '--height', '90'],
+      dir,
+    );
+    expect(run.code).toBe(0);
+    expect(run.stdout.trim()).toBe('charts/clearbase-polyclear-200-chart-frame-01.tif');
+    const meta = await sharp(join(dir, run.stdout.trim())).metadata();
+    expect(meta).toMatchObject({ width: 120, height: 90, depth: 'ushort' });
+    const bad = await runCli(['synth', '--out', 'charts', '--scene', 'portrait'], dir);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(
+      /Expected one of outdoor, chart, grey-steps, gradient for --scene but received portrait/,
+    );
+  });
+
   it('inverts every frame, printing one JSON line each, and exits 0', async () => {
     const run = await runCli(['invert', ...negatives, '--out', 'pos', '--json'], dir);
     expect(run.code).toBe(0);

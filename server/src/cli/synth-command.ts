@@ -2,11 +2,17 @@ import { mkdir, rename, unlink } from 'node:fs/promises';
 import { join } from 'node:path';
 import sharp from 'sharp';
 import {
+  CHART_REFERENCE,
+  chartScene,
   DEMO_STOCKS,
   exposeNegative,
+  gradientScene,
+  greySteps,
   LINEAR_SCANNER,
+  MID_GREY,
   outdoorScene,
   type FilmStock,
+  type Scene,
 } from '@clearbase/inversion';
 import { parseCommandArgs } from './parse-command-args';
 import { UsageError } from './usage-error';
@@ -24,19 +30,79 @@ export function stockKey(stock: FilmStock): string {
 /** Rebate strips above and below the frame, as a fraction of the scan's height (invented, typical of 35 mm). */
 const REBATE_FRACTION = 0.06;
 
+/** What a demo negative shows. */
+export const SYNTH_SCENES = ['outdoor', 'chart', 'grey-steps', 'gradient'] as const;
+export type SynthScene = (typeof SYNTH_SCENES)[number];
+
+// Grey steps: 11 steps from 3 % to 90 % reflectance, about a grey scale's range (common practice, from memory).
+const GREY_STEPS = 11,
+  DARKEST_GREY = 0.03,
+  LIGHTEST_GREY = 0.9;
+// Gradient: 1 % to 100 % reflectance, past both ends of a grey scale (invented).
+const GRADIENT_DARKEST = 0.01,
+  GRADIENT_LIGHTEST = 1;
+
 /**
- * One demo negative of `width` × `height` pixels: the outdoor scene between unexposed rebate strips
- * with sprocket holes, light grain and a little dust.
+ * A scene of exactly `width` × `height` pixels: the outdoor scene, the 24-patch chart (published L*a*b*) or
+ * the grey steps centred on an 18 % grey surround, or a neutral gradient.
+ * @example sceneOfSize('chart', 600, 400).width // 600
+ */
+export function sceneOfSize(scene: SynthScene, width: number, height: number): Scene {
+  switch (scene) {
+    case 'outdoor':
+      return outdoorScene(width, height);
+    case 'gradient':
+      return gradientScene(width, height, GRADIENT_DARKEST, GRADIENT_LIGHTEST);
+    case 'chart': {
+      const patch = Math.max(1, Math.floor(Math.min(width / 6, height / 4)));
+      return centred(chartScene([...CHART_REFERENCE], patch).scene, width, height);
+    }
+    case 'grey-steps': {
+      const step = Math.max(1, Math.floor(width / GREY_STEPS));
+      return centred(greySteps(GREY_STEPS, DARKEST_GREY, LIGHTEST_GREY, step, height), width, height);
+    }
+  }
+}
+
+/** `inner` in the middle of a width × height scene of mid grey (cropped if larger). */
+function centred(inner: Scene, width: number, height: number): Scene {
+  const rgb = new Float32Array(width * height * 3).fill(MID_GREY);
+  const dx = Math.floor((width - inner.width) / 2),
+    dy = Math.floor((height - inner.height) / 2);
+  for (let y = 0; y < inner.height; y++) {
+    const ty = y + dy;
+    if (ty < 0 || ty >= height) continue;
+    for (let x = 0; x < inner.width; x++) {
+      const tx = x + dx;
+      if (tx < 0 || tx >= width) continue;
+      rgb.set(
+        inner.rgb.subarray((y * inner.width + x) * 3, (y * inner.width + x) * 3 + 3),
+        (ty * width + tx) * 3,
+      );
+    }
+  }
+  return { width, height, rgb };
+}
+
+/**
+ * One demo negative of `width` × `height` pixels: a scene (outdoor by default) between unexposed rebate
+ * strips with sprocket holes, light grain and a little dust.
  */
 export function demoNegative(options: {
   width: number;
   height: number;
   stock: FilmStock;
+  scene?: SynthScene;
   exposureStops?: number;
   seed?: number;
 }): ReturnType<typeof exposeNegative> {
   const rebate = Math.max(4, Math.round(REBATE_FRACTION * options.height));
-  return exposeNegative(outdoorScene(options.width, Math.max(1, options.height - 2 * rebate)), {
+  const scene = sceneOfSize(
+    options.scene ?? 'outdoor',
+    options.width,
+    Math.max(1, options.height - 2 * rebate),
+  );
+  return exposeNegative(scene, {
     stock: options.stock,
     scanner: LINEAR_SCANNER,
     exposureStops: options.exposureStops ?? 0,
@@ -48,12 +114,17 @@ export function demoNegative(options: {
   });
 }
 
-/** `clearbase synth --out DIR [--frames N] [--stock NAME]`: demo negatives from the forward model, 16-bit TIFF. */
+/**
+ * `clearbase synth --out DIR [--frames N] [--stock NAME] [--scene outdoor|chart|grey-steps|gradient]`: demo
+ * negatives from the forward model, 16-bit TIFF, named <stock>-frame-NN.tif (<stock>-<scene>-frame-NN.tif
+ * for a scene other than outdoor).
+ */
 export async function synthCommand(args: string[]): Promise<number> {
   const { values, positionals } = parseCommandArgs(args, {
     out: { type: 'string' },
     frames: { type: 'string', default: '6' },
     stock: { type: 'string', default: 'clearbase-polyclear-200' },
+    scene: { type: 'string', default: 'outdoor' },
     width: { type: 'string', default: '1200' },
     height: { type: 'string', default: '800' },
   });
@@ -65,12 +136,18 @@ export async function synthCommand(args: string[]): Promise<number> {
   const stock = SYNTH_STOCKS[values.stock];
   if (!stock)
     throw new UsageError(`Unknown stock "${values.stock}"; known: ${Object.keys(SYNTH_STOCKS).join(', ')}.`);
+  const scene = values.scene as SynthScene;
+  if (!SYNTH_SCENES.includes(scene))
+    throw new UsageError(
+      `Expected one of ${SYNTH_SCENES.join(', ')} for --scene but received ${values.scene}.`,
+    );
   await mkdir(values.out, { recursive: true });
+  const prefix = scene === 'outdoor' ? values.stock : `${values.stock}-${scene}`;
   for (let n = 1; n <= frames; n++) {
     // Exposures spread over ±1 stop across the roll, as a real roll varies.
     const exposureStops = frames === 1 ? 0 : -1 + (2 * (n - 1)) / (frames - 1);
-    const neg = demoNegative({ width, height, stock, exposureStops, seed: n });
-    const path = join(values.out, `${values.stock}-frame-${String(n).padStart(2, '0')}.tif`);
+    const neg = demoNegative({ width, height, stock, scene, exposureStops, seed: n });
+    const path = join(values.out, `${prefix}-frame-${String(n).padStart(2, '0')}.tif`);
     await writeNegativeTiff(path, neg.data, neg.width, neg.height);
     process.stdout.write(`${path}\n`);
   }

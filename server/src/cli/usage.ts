@@ -11,9 +11,10 @@ export const USAGE = `Usage:
       --threads N                worker threads (default: all cores)
       --json                     print one JSON line per frame on stdout
 
-  clearbase synth --out DIR [--frames N] [--stock NAME] [--width W] [--height H]
+  clearbase synth --out DIR [--frames N] [--stock NAME] [--scene SCENE] [--width W] [--height H]
       Writes demo negatives (16-bit TIFF) made with the forward film model. Stocks:
       clearbase-polyclear-200 (default), clearbase-tintline-400, clearbase-ambermask-100.
+      Scenes: outdoor (default), chart (the 24-patch chart), grey-steps (11 steps), gradient.
 
   clearbase profile validate P.json
       Checks a stock profile document and prints each error with its path.
