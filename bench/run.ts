@@ -2,6 +2,8 @@
 import { execFile } from 'node:child_process';
 import { availableParallelism } from 'node:os';
 import { join } from 'node:path';
+import { mkdir, rm, symlink, writeFile } from 'node:fs/promises';
+import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
 import { parseArgs } from 'node:util';
 import { createRequire } from 'node:module';
@@ -9,7 +11,6 @@ import sharp from 'sharp';
 import { readNegative, writePositive } from '../server/src/imaging/index';
 import { createInversionPool } from '../server/src/inversion-pool/inversion-pool';
 import { invertNegativeFile } from '../server/src/inversion-pool/invert-negative-file';
-import { runPipelined } from '../server/src/inversion-pool/run-pipelined';
 import { BENCH_SETTINGS, OUT_DIR, benchNegative } from './bench-negative';
 import { timeInterleaved } from './interleave';
 
@@ -23,10 +24,9 @@ const { values } = parseArgs({
 const quick = values.quick;
 // 6000 × 4000 = 24 MP, a 35 mm frame from a high-resolution scanner; common practice of the trade, from memory.
 const [width, height] = quick ? [1500, 1000] : [6000, 4000];
-const reps = Number(values.reps ?? (quick ? 7 : 5));
-// 36 frames on a 35 mm roll, common practice of the trade; fewer with --roll-frames for a shorter run.
-const ROLL = Number(values['roll-frames'] ?? 36);
-const IN_FLIGHT = 2;
+const reps = Number(values.reps ?? (quick ? 5 : 3));
+// 36 frames on a 35 mm roll, common practice of the trade; 12 with --quick, or --roll-frames N.
+const ROLL = Number(values['roll-frames'] ?? (quick ? 12 : 36));
 
 sharp.cache(false);
 const file = await benchNegative(width, height);
@@ -51,42 +51,47 @@ const cases = {
     await writePositive(positive8, { path: join(OUT_DIR, 'floor.jpg'), width, height, format: 'jpeg' });
   },
   inversion: () => invertNegativeFile(pool, file, firstOut, BENCH_SETTINGS),
+  // The same JPEG options as the product's positives, so (b) and (c) differ only in what they compute.
   sharpNegate: () =>
     sharp(file, { limitInputPixels: false, sequentialRead: true })
       .negate()
       .normalise()
-      .jpeg({ quality: 92 })
+      .jpeg({ quality: 92, chromaSubsampling: '4:4:4', optimiseCoding: false })
       .toFile(join(OUT_DIR, 'negate.jpg')),
 };
 const t = await timeInterleaved(cases, reps);
+await pool.close();
 
-const rollFrames = Array.from({ length: ROLL }, (_, i) => i);
+// The roll: the real command line, once with --roll over ROLL copies of the negative (symbolic links, so each
+// is read and decoded as its own file), against ROLL single runs of the command one after another, each
+// paying its own start-up as a lab running one frame at a time would.
+const BIN = fileURLToPath(new URL('../bin/clearbase.mjs', import.meta.url));
+const rollDir = join(OUT_DIR, 'roll');
+await rm(rollDir, { recursive: true, force: true });
+await mkdir(join(rollDir, 'in'), { recursive: true });
+const rollFiles = await Promise.all(
+  Array.from({ length: ROLL }, async (_, i) => {
+    const link = join(rollDir, 'in', `frame-${String(i + 1).padStart(2, '0')}.tif`);
+    await symlink(file, link);
+    return link;
+  }),
+);
+const profileFile = join(rollDir, 'profile.json');
+await writeFile(profileFile, JSON.stringify(BENCH_SETTINGS.profile));
+const cli = (args: string[]) =>
+  promisify(execFile)(process.execPath, [BIN, 'invert', ...args, '--profile', profileFile]);
 const roll = await timeInterleaved(
   {
-    pipelined: () =>
-      runPipelined(
-        rollFrames,
-        IN_FLIGHT,
-        async (i) =>
-          void (await invertNegativeFile(
-            pool,
-            file,
-            join(OUT_DIR, `roll-${i % IN_FLIGHT}.jpg`),
-            BENCH_SETTINGS,
-          )),
-      ),
+    pipelined: () => cli([...rollFiles, '--roll', '--out', join(rollDir, 'roll')]),
     oneByOne: async () => {
-      for (const _frame of rollFrames)
-        await invertNegativeFile(pool, file, join(OUT_DIR, `single.jpg`), BENCH_SETTINGS);
+      for (const f of rollFiles) await cli([f, '--out', join(rollDir, 'single')]);
     },
   },
-  quick ? 3 : 1,
-  // The single-frame cases above already warmed the pool, sharp and the JIT.
+  1,
   { warmUp: false },
 );
 // maxRSS is in kilobytes (Node.js process.resourceUsage docs).
 const benchPeakRssMB = Math.round(process.resourceUsage().maxRSS / 1024);
-await pool.close();
 
 const tsx = createRequire(import.meta.url).resolve('tsx');
 const child = await promisify(execFile)(process.execPath, [
@@ -115,11 +120,11 @@ const rows: [string, string, string][] = [
   ],
   ['peak RSS of (b), own process', `${peakRssMB} MB`, '(goal ≤ 700 MB)'],
   [
-    `${ROLL}-frame roll, ${IN_FLIGHT} frames in flight`,
+    `${ROLL}-frame roll: clearbase invert --roll`,
     ms(roll['pipelined']!),
-    `roll/singles = ${(roll['pipelined']! / roll['oneByOne']!).toFixed(2)} (goal ≤ 0.6)`,
+    `roll/singles = ${(roll['pipelined']! / roll['oneByOne']!).toFixed(2)} (goal ≤ 0.6)${ROLL === 36 ? '' : `; note: ${ROLL} frames, not 36`}`,
   ],
-  [`${ROLL} single frames one after another`, ms(roll['oneByOne']!), ''],
+  [`${ROLL} single runs of clearbase invert, one after another`, ms(roll['oneByOne']!), ''],
   ['peak RSS of this whole run (all cases and rolls)', `${benchPeakRssMB} MB`, ''],
 ];
 for (const [name, value, note] of rows)

@@ -134,17 +134,20 @@ async function measureRoll(
   settings: FrameSettings,
   report: ReturnType<typeof reporter>,
 ): Promise<Map<number, NegativeImage>> {
+  // By frame index, so the roll's figures do not depend on which decode finished first.
   const bases: FilmBase[] = [];
   const samples: RgbImage[] = [];
   const kept = new Map<number, NegativeImage>();
   let keptBytes = 0;
-  for (const index of [...todo]) {
+  const failures: number[] = [];
+  // Two frames decode at once, as in the inverting pass: a decode keeps about one core busy.
+  await runPipelined([...todo], FRAMES_IN_FLIGHT, async (index) => {
     try {
       const negative = await readPooledNegative(pool, files[index]!, settings);
       let keep = false;
       try {
-        bases.push(measureBase(negative, settings).base);
-        samples.push(levelSample(negative));
+        bases[index] = measureBase(negative, settings).base;
+        samples[index] = levelSample(negative);
         keep = keptBytes + negative.data.byteLength <= ROLL_KEEP_BYTES;
         if (keep) {
           kept.set(index, negative);
@@ -155,15 +158,16 @@ async function measureRoll(
       }
     } catch (error) {
       if (!(error instanceof ImageInputError || error instanceof FilmBaseError)) throw error;
-      todo.splice(todo.indexOf(index), 1);
+      failures.push(index);
       report.failure(files[index]!, error);
     }
-  }
-  if (bases.length) {
-    const roll = rollBase(bases);
+  });
+  for (const index of failures) todo.splice(todo.indexOf(index), 1);
+  if (todo.length) {
+    const roll = rollBase(todo.map((index) => bases[index]!));
     settings.base = roll;
     settings.levels = rollLevels(
-      samples.map((sample) => measureLevels(sample, settings, roll, { step: 1 })),
+      todo.map((index) => measureLevels(samples[index]!, settings, roll, { step: 1 })),
     ).roll;
   }
   return kept;
