@@ -3,7 +3,6 @@ import { devMailboxRoutes } from './dev-mailbox/dev-mailbox-routes';
 import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
 import { paymentsRoutes } from './payments/payments-routes';
-import { paymentsRoutes } from './payments/payments-routes';
 import { framesRoutes } from './frames/frames-routes';
 import { jobsRoutes } from './jobs/jobs-routes';
 import { labRoutes } from './lab/lab-routes';
@@ -34,7 +33,6 @@ export const apiRouteModules: readonly RouteModule[] = [
   signupRoutes,
   devMailboxRoutes,
   pricesRoutes,
-  paymentsRoutes,
   paymentsRoutes,
   ordersRoutes,
   rollsRoutes,
