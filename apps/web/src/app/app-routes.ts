@@ -11,6 +11,28 @@ export const appRoutes: Routes = [
     loadComponent: () => import('./auth/sign-in-page').then((m) => m.SignInPage),
   },
   {
+    path: 'sign-up',
+    title: 'Create an account · Clearbase',
+    canActivate: [signedOutGuard],
+    loadComponent: () => import('./signup/sign-up-page').then((m) => m.SignUpPage),
+  },
+  {
+    path: 'verify-email',
+    title: 'Confirm your e-mail address · Clearbase',
+    loadComponent: () => import('./signup/verify-email-page').then((m) => m.VerifyEmailPage),
+  },
+  {
+    path: 'forgot-password',
+    title: 'Forgotten password · Clearbase',
+    canActivate: [signedOutGuard],
+    loadComponent: () => import('./password-reset/forgot-password-page').then((m) => m.ForgotPasswordPage),
+  },
+  {
+    path: 'reset-password',
+    title: 'Choose a new password · Clearbase',
+    loadComponent: () => import('./password-reset/reset-password-page').then((m) => m.ResetPasswordPage),
+  },
+  {
     path: '',
     canActivate: [authGuard],
     loadComponent: () => import('./shell/shell').then((m) => m.Shell),
@@ -25,6 +47,18 @@ export const appRoutes: Routes = [
         path: 'account',
         title: 'Account · Clearbase',
         loadComponent: () => import('./account/account-page').then((m) => m.AccountPage),
+      },
+      {
+        path: 'prices',
+        title: 'Prices · Clearbase',
+        loadComponent: () => import('./prices/prices-page').then((m) => m.PricesPage),
+      },
+      {
+        path: 'dev/mailbox',
+        title: 'Development mailbox · Clearbase',
+        canActivate: [roleGuard],
+        data: { roles: ['admin'] },
+        loadComponent: () => import('./dev-mailbox/dev-mailbox-page').then((m) => m.DevMailboxPage),
       },
       {
         path: 'catalogue/versions/:versionId',

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject, input, signal, viewChild } from '@angular/core';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
-import { Router } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
 import { MatError, MatFormField, MatLabel, MatSuffix } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
@@ -16,6 +16,7 @@ import { Session } from './session';
   selector: 'cb-sign-in-page',
   imports: [
     ReactiveFormsModule,
+    RouterLink,
     MatButton,
     MatIconButton,
     MatFormField,

@@ -5,23 +5,31 @@ describe('navEntriesFor', () => {
     expect(navEntriesFor(null)).toEqual([]);
   });
 
-  it('gives customers home, the film stocks and account', () => {
-    expect(navEntriesFor('customer').map((e) => e.name)).toEqual(['home', 'catalogue', 'account']);
+  it('gives customers home, the film stocks, prices and account', () => {
+    expect(navEntriesFor('customer').map((e) => e.name)).toEqual(['home', 'catalogue', 'prices', 'account']);
   });
 
   it('gives lab staff the scanners too, but no admin pages', () => {
     for (const role of ['operator', 'manager'] as const) {
-      expect(navEntriesFor(role).map((e) => e.name)).toEqual(['home', 'catalogue', 'scanners', 'account']);
+      expect(navEntriesFor(role).map((e) => e.name)).toEqual([
+        'home',
+        'catalogue',
+        'scanners',
+        'prices',
+        'account',
+      ]);
     }
   });
 
-  it('adds users and the audit log for admins', () => {
+  it('adds users, the audit log and the development mailbox for admins', () => {
     expect(navEntriesFor('admin').map((e) => e.name)).toEqual([
       'home',
       'catalogue',
       'scanners',
+      'prices',
       'users',
       'audit',
+      'dev-mailbox',
       'account',
     ]);
   });

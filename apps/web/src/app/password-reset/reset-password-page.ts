@@ -1,0 +1,83 @@
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import {
+  type AbstractControl,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  type ValidationErrors,
+  Validators,
+} from '@angular/forms';
+import { MatButton } from '@angular/material/button';
+import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { RouterLink } from '@angular/router';
+import { readProblem } from '../problem/read-problem';
+import { fieldProblem } from '../signup/field-problem';
+import { SignupApi } from '../signup/signup-api';
+
+// The server's password rule (libs/contracts auth/user.ts): 10 to 200 characters.
+const minPasswordLength = 10;
+const maxPasswordLength = 200;
+
+function sameAsNew(control: AbstractControl): ValidationErrors | null {
+  const form = control.parent;
+  return form && control.value !== form.get('newPassword')?.value ? { mismatch: true } : null;
+}
+
+/** Where a reset or welcome link lands: choose a new password, once. */
+@Component({
+  selector: 'cb-reset-password-page',
+  imports: [ReactiveFormsModule, RouterLink, MatButton, MatFormField, MatLabel, MatError, MatHint, MatInput],
+  templateUrl: './reset-password-page.html',
+  styleUrl: '../signup/public-card.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ResetPasswordPage {
+  private readonly api = inject(SignupApi);
+  /** Bound from the query string (`?token=…`). */
+  readonly token = input<string | undefined>();
+  protected readonly minPasswordLength = minPasswordLength;
+  protected readonly fieldProblem = fieldProblem;
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    newPassword: [
+      '',
+      [Validators.required, Validators.minLength(minPasswordLength), Validators.maxLength(maxPasswordLength)],
+    ],
+    repeatPassword: ['', [Validators.required, sameAsNew]],
+  });
+  protected readonly busy = signal(false);
+  protected readonly problem = signal<string | null>(null);
+  protected readonly fieldErrors = signal<Readonly<Record<string, string>>>({});
+  protected readonly doneFor = signal<string | null>(null);
+
+  constructor() {
+    this.form.controls.newPassword.valueChanges.subscribe(() =>
+      this.form.controls.repeatPassword.updateValueAndValidity({ emitEvent: false }),
+    );
+  }
+
+  protected submit(): void {
+    this.form.markAllAsTouched();
+    const token = this.token();
+    if (!token) {
+      this.problem.set('This address has no reset token. Open the link from the e-mail again.');
+      return;
+    }
+    if (this.form.invalid || this.busy()) return;
+    this.busy.set(true);
+    this.problem.set(null);
+    this.fieldErrors.set({});
+    this.api.confirmPasswordReset({ token, newPassword: this.form.getRawValue().newPassword }).subscribe({
+      next: (res) => {
+        this.busy.set(false);
+        this.doneFor.set(res.email);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        const p = readProblem(err);
+        this.problem.set(p.message);
+        this.fieldErrors.set(p.fieldErrors);
+      },
+    });
+  }
+}
