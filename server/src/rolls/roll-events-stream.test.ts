@@ -1,0 +1,160 @@
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import { pino } from 'pino';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createJobRunner, type JobRunner } from '../jobs/job-runner';
+import { rollListenerCount } from '../jobs/roll-events';
+import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
+import { addUser, createTestApp, signedIn, testPassword, type TestApp } from '../test-support/test-app';
+
+let t: TestApp;
+let server: Server;
+let base: string;
+let roll: number;
+let runner: JobRunner;
+
+/** Signs in over real HTTP and returns the Cookie header to send. */
+async function cookieFor(email: string): Promise<string> {
+  const jar = new Map<string, string>();
+  const keep = (res: Response) => {
+    for (const line of res.headers.getSetCookie()) {
+      const [pair] = line.split(';');
+      const eq = pair!.indexOf('=');
+      jar.set(pair!.slice(0, eq), pair!.slice(eq + 1));
+    }
+  };
+  const header = () => [...jar].map(([k, v]) => `${k}=${v}`).join('; ');
+  keep(await fetch(`${base}/api/health`));
+  const login = await fetch(`${base}/api/auth/login`, {
+    method: 'POST',
+    headers: {
+      'content-type': 'application/json',
+      cookie: header(),
+      'x-xsrf-token': decodeURIComponent(jar.get('XSRF-TOKEN')!),
+    },
+    body: JSON.stringify({ email, password: testPassword }),
+  });
+  expect(login.status).toBe(200);
+  keep(login);
+  return header();
+}
+
+/** Reads SSE events from a stream until `stop` says enough. */
+async function readEvents(
+  body: ReadableStream<Uint8Array>,
+  stop: (events: { event: string; data: unknown }[]) => boolean,
+): Promise<{ event: string; data: unknown }[]> {
+  const reader = body.getReader();
+  const decoder = new TextDecoder();
+  const events: { event: string; data: unknown }[] = [];
+  let buffer = '';
+  while (!stop(events)) {
+    const { value, done } = await reader.read();
+    if (done) break;
+    buffer += decoder.decode(value, { stream: true });
+    let end: number;
+    while ((end = buffer.indexOf('\n\n')) >= 0) {
+      const block = buffer.slice(0, end);
+      buffer = buffer.slice(end + 2);
+      const event = /^event: (.*)$/m.exec(block)?.[1];
+      const data = /^data: (.*)$/m.exec(block)?.[1];
+      if (event && data) events.push({ event, data: JSON.parse(data) });
+    }
+  }
+  reader.releaseLock();
+  return events;
+}
+
+beforeAll(async () => {
+  t = await createTestApp();
+  const customerId = await addUser(t.db, 'customer', 'cass@lab.test');
+  await addUser(t.db, 'customer', 'ines@lab.test');
+  await addUser(t.db, 'operator', 'oskar@lab.test');
+  const { stockId } = await addTestCatalogue(t.db);
+  const operator = await signedIn(t.app, 'oskar@lab.test');
+  const order = (await operator.post('/api/orders', { customerId }).expect(201)).body.id as number;
+  roll = (
+    await operator.post(`/api/orders/${order}/rolls`, { stockId, ei: 200, format: '135-36' }).expect(201)
+  ).body.id as number;
+  await operator
+    .send('post', `/api/rolls/${roll}/frames`)
+    .attach('files', await negativeTiff({ seed: 1 }), 'a.tif')
+    .attach('files', await negativeTiff({ seed: 2 }), 'b.tif')
+    .expect(201);
+  server = t.app.listen(0, '127.0.0.1');
+  await new Promise((r) => server.once('listening', r));
+  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  runner = createJobRunner({
+    db: t.db,
+    config: { ...t.config, jobConcurrency: 1 },
+    clock: { now: () => new Date() },
+    logger: pino({ level: 'silent' }),
+    threads: 1,
+    pollMs: 50,
+  });
+  await runner.start();
+});
+afterAll(async () => {
+  await runner.stop();
+  server.closeAllConnections();
+  await new Promise((r) => server.close(r));
+  await t.close();
+});
+
+describe('a roll’s live events', () => {
+  it('streams job progress and each frame’s status over Server-Sent Events until the job is done, and lets go of the roll when the client disconnects', async () => {
+    const customerCookie = await cookieFor('cass@lab.test');
+    const abort = new AbortController();
+    const res = await fetch(`${base}/api/rolls/${roll}/events`, {
+      headers: { cookie: customerCookie },
+      signal: abort.signal,
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toBe('text/event-stream; charset=utf-8');
+    await until(() => rollListenerCount(t.db, roll) === 1);
+
+    const operatorCookie = await cookieFor('oskar@lab.test');
+    const headers = { cookie: operatorCookie, 'content-type': 'application/json' };
+    const xsrf = /XSRF-TOKEN=([^;]+)/.exec(operatorCookie)![1]!;
+    const started = await fetch(`${base}/api/rolls/${roll}/invert`, {
+      method: 'POST',
+      headers: { ...headers, 'x-xsrf-token': decodeURIComponent(xsrf) },
+      body: '{}',
+    });
+    expect(started.status).toBe(202);
+
+    const events = await readEvents(res.body!, (seen) =>
+      seen.some((e) => e.event === 'job' && (e.data as { job: { state: string } }).job.state === 'done'),
+    );
+    const jobStates = events
+      .filter((e) => e.event === 'job')
+      .map((e) => (e.data as { job: { state: string; progress: { done: number } } }).job);
+    expect(jobStates[0]!.state).toBe('queued');
+    expect(jobStates.at(-1)).toMatchObject({ state: 'done', progress: { done: 2, total: 2 } });
+    expect(jobStates.map((j) => j.progress.done)).toContain(1);
+    const frameStatuses = events
+      .filter((e) => e.event === 'frame')
+      .map((e) => (e.data as { status: string }).status);
+    expect(frameStatuses.filter((s) => s === 'inverting')).toHaveLength(2);
+    expect(frameStatuses.filter((s) => s === 'done')).toHaveLength(2);
+
+    abort.abort();
+    await until(() => rollListenerCount(t.db, roll) === 0);
+  });
+
+  it('answers 404, not a stream, for another customer’s roll', async () => {
+    const res = await fetch(`${base}/api/rolls/${roll}/events`, {
+      headers: { cookie: await cookieFor('ines@lab.test') },
+    });
+    expect(res.status).toBe(404);
+    expect(res.headers.get('content-type')).toContain('application/problem+json');
+  });
+});
+
+async function until(what: () => boolean, ms = 20_000): Promise<void> {
+  const end = Date.now() + ms;
+  while (!what()) {
+    if (Date.now() > end) throw new Error('timed out waiting');
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
