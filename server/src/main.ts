@@ -9,6 +9,7 @@ import { databaseFileName } from './db/database-file';
 import { migrateToLatest } from './db/migrate';
 import { openDatabase } from './db/open-database';
 import { demoPassword, demoUsers, seedDemo } from './demo/seed';
+import { createJobRunner } from './jobs/job-runner';
 import { createLogger } from './logging/create-logger';
 import { mailServices } from './mail/mail-services';
 import { paymentFakeServices } from './payment-fake/payment-fake-service';
@@ -59,6 +60,8 @@ const services: BackgroundService[] = [
 ];
 services.push(...mailServices(config, { db, clock: systemClock, logger }));
 services.push(...paymentFakeServices(config, logger));
+// started before listening, so its sweep of unfinished temp files never meets an upload; stopped first, it drains
+services.push(createJobRunner({ db, config, clock: systemClock, logger }));
 
 const started: BackgroundService[] = [];
 for (const service of services) {
