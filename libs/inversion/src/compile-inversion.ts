@@ -43,6 +43,13 @@ export interface InversionPlan {
   relativeMax: number;
   /** When every stage is per channel (identity crosstalk, saturation 1): 3 × 65536 output codes by count, else null. */
   directLut: Uint16Array | null;
+  /**
+   * When saturation is 1 (always so in reference rendering): the exposure and output tables composed, 3 ×
+   * exposureLutSize output codes (not rounded, not clipped) by density after crosstalk over densityMin…densityMax,
+   * so a pixel needs one interpolation a channel instead of two; else null. Describes `exposureLut` and
+   * `outputLut`: a plan derived from another with new tables must set it to null (or recompose it).
+   */
+  foldedLut: Float32Array | null;
 }
 
 /**
@@ -74,7 +81,9 @@ export function compileInversion(params: InversionParams): InversionPlan {
     relativeMin: rMin,
     relativeMax: rMax,
     directLut: null,
+    foldedLut: null,
   };
+  if (resolved.saturation === 1) plan.foldedLut = composeTables(plan);
   if (identity && resolved.saturation === 1) {
     // Every stage is per channel: fold the whole chain into one table per channel, through the same tables.
     const direct = new Uint16Array(3 * 65536);
@@ -135,7 +144,74 @@ export function applyInversion(
     }
     return;
   }
-  invertTables(plan, input, output, start, end);
+  if (plan.foldedLut && plan.saturation === 1) invertFolded(plan, plan.foldedLut, input, output, start, end);
+  else invertTables(plan, input, output, start, end);
+}
+
+/** The output table sampled at each exposure table entry: output code by density after crosstalk, per channel. */
+function composeTables(plan: InversionPlan): Float32Array {
+  const el = plan.exposureLut,
+    ol = plan.outputLut;
+  const rMin = plan.relativeMin,
+    rScale = (plan.outputLutSize - 1) / (plan.relativeMax - rMin),
+    oTop = plan.outputLutSize - 1 - 1e-6;
+  const folded = new Float32Array(el.length);
+  for (let i = 0; i < el.length; i++) folded[i] = lerp(ol, 0, (el[i]! - rMin) * rScale, oTop);
+  return folded;
+}
+
+/** The table path with saturation 1 through the composed table: densities, crosstalk, one interpolation, clip. */
+function invertFolded(
+  plan: InversionPlan,
+  table: Float32Array,
+  input: Uint16Array,
+  output: Uint8Array | Uint16Array,
+  start: number,
+  end: number,
+): void {
+  const dl = plan.densityLut;
+  const n = plan.exposureLutSize,
+    top = n - 1 - 1e-6,
+    n2 = 2 * n;
+  const dMin = plan.densityMin,
+    dScale = (n - 1) / (plan.densityMax - dMin);
+  const maxCode = plan.outputBits === 8 ? 255 : 65535;
+  // The crosstalk scaled to table steps, so each channel's fractional index is one dot product.
+  const m = plan.crosstalk ?? new Float32Array([1, 0, 0, 0, 1, 0, 0, 0, 1]);
+  const m0 = m[0]! * dScale,
+    m1 = m[1]! * dScale,
+    m2 = m[2]! * dScale,
+    m3 = m[3]! * dScale,
+    m4 = m[4]! * dScale,
+    m5 = m[5]! * dScale,
+    m6 = m[6]! * dScale,
+    m7 = m[7]! * dScale,
+    m8 = m[8]! * dScale;
+  const off = -dMin * dScale;
+  for (let i = start; i < end; i += 3) {
+    const d0 = dl[input[i]!]!,
+      d1 = dl[65536 + input[i + 1]!]!,
+      d2 = dl[131072 + input[i + 2]!]!;
+    // Written out by hand as in invertTables: no calls in the loop, clamps by conditional moves.
+    let x = m0 * d0 + m1 * d1 + m2 * d2 + off;
+    x = x > 0 ? x : 0;
+    x = x < top ? x : top;
+    let k = x | 0;
+    let v = table[k]! + (x - k) * (table[k + 1]! - table[k]!);
+    output[i] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
+    x = m3 * d0 + m4 * d1 + m5 * d2 + off;
+    x = x > 0 ? x : 0;
+    x = x < top ? x : top;
+    k = (x | 0) + n;
+    v = table[k]! + (x + n - k) * (table[k + 1]! - table[k]!);
+    output[i + 1] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
+    x = m6 * d0 + m7 * d1 + m8 * d2 + off;
+    x = x > 0 ? x : 0;
+    x = x < top ? x : top;
+    k = (x | 0) + n2;
+    v = table[k]! + (x + n2 - k) * (table[k + 1]! - table[k]!);
+    output[i + 2] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
+  }
 }
 
 /** The table path over samples [start, end) of `input`: densities, crosstalk, exposure, saturation, output. */

@@ -86,6 +86,8 @@ export function createPreviewPlanBuilder(
       outputLut,
       outputLutSize: PREVIEW_OUTPUT_LUT_SIZE,
       directLut: null,
+      // the template's composed table describes the template's own tables, not these
+      foldedLut: null,
     };
   };
 }
