@@ -8,3 +8,4 @@ export * from './stocks/stock';
 export * from './profiles/profile';
 export * from './orders/index';
 export * from './customers/index';
+export * from './calibrations/calibration';

@@ -1,5 +1,6 @@
 import type { Role } from '@clearbase/contracts';
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
+import type { CalibrationsTable } from '../calibrations/calibrations-table';
 import type { OrderTables } from '../orders/order-tables';
 import type { OutboxTable } from '../mail/outbox-table';
 import type { PaymentEventsTable, PaymentsTable } from '../payments/payment-tables';
@@ -105,6 +106,8 @@ export interface ProfileVersionsTable {
   published_at: string | null;
   published_by: number | null;
   retired_at: string | null;
+  /** The calibration the draft was fitted from, if any. */
+  calibration_id: ColumnType<number | null, number | null | undefined, number | null>;
 }
 
 /** The one database schema of Clearbase. */
@@ -128,6 +131,7 @@ export interface Database {
   frames: OrderTables['frames'];
   frame_outputs: OrderTables['frame_outputs'];
   jobs: OrderTables['jobs'];
+  calibrations: CalibrationsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
