@@ -9,6 +9,8 @@ export interface MailTemplateData {
   'password-reset': { name: string; url: string; expiresMinutes: number };
   'account-created': { name: string; url: string; expiresHours: number };
   'payment-receipt': { name: string; amount: string; reference: string };
+  'order-received': { name: string; reference: string; rolls: number; url: string };
+  'scans-ready': { name: string; reference: string; url: string; expiresDays: number };
 }
 export type MailKind = keyof MailTemplateData;
 
@@ -66,6 +68,24 @@ const templates: { [K in MailKind]: Template<K> } = {
       subject: `Payment received: ${d.reference}`,
       greetingName: d.name,
       paragraphs: [`We received your payment of ${d.amount} for ${d.reference}. Thank you.`],
+    }),
+  'order-received': (lab, d) =>
+    layMail(lab, {
+      subject: `We have your order: ${d.reference}`,
+      greetingName: d.name,
+      paragraphs: [
+        `${lab.name} has ${d.reference}, ${d.rolls} roll${d.rolls === 1 ? '' : 's'}.`,
+        'We write again when your scans are ready. You can follow each step on the order’s page.',
+      ],
+      action: { label: 'Follow my order', url: d.url },
+    }),
+  'scans-ready': (lab, d) =>
+    layMail(lab, {
+      subject: `Your scans are ready: ${d.reference}`,
+      greetingName: d.name,
+      paragraphs: [`The scans of ${d.reference} are ready to view and download.`],
+      action: { label: 'See and download my scans', url: d.url },
+      after: [`The download link works for ${d.expiresDays} days; after that, sign in to get a fresh one.`],
     }),
 };
 
