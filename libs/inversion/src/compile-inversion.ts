@@ -70,7 +70,7 @@ export function compileInversion(params: InversionParams): InversionPlan {
     outputBits: params.outputBits,
     densityLut: densityTable(params.scanner, params.base),
     crosstalk: identity ? null : Float32Array.from(m.flat()),
-    exposureLut: exposureTable(resolved),
+    exposureLut: exposureTable(resolved, JSON.stringify(params.profile.curves)),
     exposureLutSize: EXPOSURE_TABLE_SIZE,
     densityMin: dMin,
     densityMax: dMax,

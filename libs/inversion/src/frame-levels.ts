@@ -44,7 +44,7 @@ export function measureFrameLevels(
   const [x0, y0, w, h] = options.region ?? [0, 0, image.width, image.height];
   const step = Math.max(1, Math.floor(options.step ?? Math.ceil(Math.sqrt((w * h) / MAX_LEVEL_SAMPLES))));
   const dl = densityTable(params.scanner, params.base);
-  const el = exposureTable(resolved);
+  const el = exposureTable(resolved, JSON.stringify(params.profile.curves));
   const [dMin, dMax] = DENSITY_RANGE;
   const last = EXPOSURE_TABLE_SIZE - 1;
   const scale = last / (dMax - dMin);
