@@ -256,6 +256,13 @@ describe('paying for an order', () => {
     const rest = await manager.post(`/api/payments/${paymentId}/refund`, {});
     expect(rest.body.payment).toMatchObject({ status: 'refunded', refundedMinor: 2000 });
     expect(fake.sessions.get(sessionId)?.refunded).toBe(2000);
+    const audit = await t.db
+      .selectFrom('audit_log')
+      .selectAll()
+      .where('action', '=', 'payment-refunded')
+      .execute();
+    expect(audit.map((a) => JSON.parse(a.details!).amountMinor)).toEqual([500, 1500]);
+    expect(audit[0]).toMatchObject({ actor_email: 'manager@lab.test', target: `order:${orderId}` });
 
     expect((await payer.post(`/api/payments/${paymentId}/refund`, {})).status).toBe(403);
   });

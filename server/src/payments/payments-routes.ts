@@ -8,6 +8,7 @@ import {
 import type { Kysely } from 'kysely';
 import type Stripe from 'stripe';
 import { z } from 'zod';
+import { recordAudit, type AuditAction } from '../audit/audit-log';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
@@ -234,7 +235,7 @@ export const paymentsRoutes: RouteModule = (api, { db, clock, config, logger }) 
       body: refundRequestSchema,
       summary: 'Refund a paid payment, in full or in part, through the provider',
     },
-    async (_req, res, { params, body }) => {
+    async (_req, res, { params, body, user }) => {
       const payment = await findPaymentById(db, params.id);
       if (!payment) throw new AppError('payment-not-found', 404, `No payment with id ${params.id}.`);
       if ((payment.status !== 'paid' && payment.status !== 'partly-refunded') || !payment.payment_intent_id) {
@@ -254,18 +255,34 @@ export const paymentsRoutes: RouteModule = (api, { db, clock, config, logger }) 
           [{ path: 'body.amountMinor', message: `Expected at most ${left}` }],
         );
       }
-      await payments().refunds.create({ payment_intent: payment.payment_intent_id, amount });
+      const refund = await payments().refunds.create({ payment_intent: payment.payment_intent_id, amount });
       const refunded = payment.refunded_minor + amount;
-      const row = await db
-        .updateTable('payments')
-        .set({
-          refunded_minor: refunded,
-          status: refunded >= payment.amount_minor ? 'refunded' : 'partly-refunded',
-          updated_at: clock.now().toISOString(),
-        })
-        .where('id', '=', payment.id)
-        .returningAll()
-        .executeTakeFirstOrThrow();
+      const row = await db.transaction().execute(async (trx) => {
+        const updated = await trx
+          .updateTable('payments')
+          .set({
+            refunded_minor: refunded,
+            status: refunded >= payment.amount_minor ? 'refunded' : 'partly-refunded',
+            updated_at: clock.now().toISOString(),
+          })
+          .where('id', '=', payment.id)
+          .returningAll()
+          .executeTakeFirstOrThrow();
+        await recordAudit(trx, {
+          at: clock.now(),
+          actor: user!,
+          // the audit module's list names account events; payment actions extend it without editing it
+          action: 'payment-refunded' as string as AuditAction,
+          target: `order:${payment.order_id}`,
+          details: {
+            paymentId: payment.id,
+            amountMinor: amount,
+            currency: payment.currency,
+            refundId: refund.id,
+          },
+        });
+        return updated;
+      });
       res.json({ payment: toPayment(row) });
     },
   );
