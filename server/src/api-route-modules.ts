@@ -1,4 +1,5 @@
 import { auditRoutes } from './audit/audit-routes';
+import { calibrationsRoutes } from './calibrations/calibrations-routes';
 import { devMailboxRoutes } from './dev-mailbox/dev-mailbox-routes';
 import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
@@ -39,4 +40,5 @@ export const apiRouteModules: readonly RouteModule[] = [
   uploadsRoutes,
   framesRoutes,
   jobsRoutes,
+  calibrationsRoutes,
 ];
