@@ -17,8 +17,13 @@ afterAll(async () => {
   await server?.stop();
 });
 
-/** A signed-in admin talking to the API with fetch: cookies and the CSRF header kept by hand. */
-async function adminApi(): Promise<(path: string) => Promise<Response>> {
+interface Api {
+  get(path: string): Promise<Response>;
+  post(path: string, body?: object): Promise<Response>;
+}
+
+/** A signed-in user talking to the API with fetch: cookies and the CSRF header kept by hand. */
+async function apiAs(email: string, password: string): Promise<Api> {
   const cookies = new Map<string, string>();
   const keep = (res: Response) => {
     for (const line of res.headers.getSetCookie()) {
@@ -26,35 +31,45 @@ async function adminApi(): Promise<(path: string) => Promise<Response>> {
       const eq = pair!.indexOf('=');
       cookies.set(pair!.slice(0, eq), pair!.slice(eq + 1));
     }
+    return res;
   };
-  const cookieHeader = () => [...cookies].map(([k, v]) => `${k}=${v}`).join('; ');
-  keep(await fetch(`${server.url}/api/health`));
-  const login = await fetch(`${server.url}/api/auth/login`, {
-    method: 'POST',
-    headers: {
-      'content-type': 'application/json',
-      cookie: cookieHeader(),
-      'x-xsrf-token': decodeURIComponent(cookies.get('XSRF-TOKEN') ?? ''),
-    },
-    body: JSON.stringify({ email: 'admin@clearbase.test', password: demoPassword }),
+  const headers = () => ({
+    'content-type': 'application/json',
+    cookie: [...cookies].map(([k, v]) => `${k}=${v}`).join('; '),
+    'x-xsrf-token': decodeURIComponent(cookies.get('XSRF-TOKEN') ?? ''),
   });
+  const api: Api = {
+    get: async (path) => keep(await fetch(`${server.url}${path}`, { headers: headers() })),
+    post: async (path, body = {}) =>
+      keep(
+        await fetch(`${server.url}${path}`, {
+          method: 'POST',
+          headers: headers(),
+          body: JSON.stringify(body),
+        }),
+      ),
+  };
+  await api.get('/api/health');
+  const login = await api.post('/api/auth/login', { email, password });
   expect(login.status).toBe(200);
-  keep(login);
-  return (path) => fetch(`${server.url}${path}`, { headers: { cookie: cookieHeader() } });
+  return api;
 }
+
+const adminApi = () => apiAs('admin@clearbase.test', demoPassword);
 
 /** Waits for the outbox to hand a message for this address to the local mail catcher. */
 async function caughtMailTo(
   address: string,
+  subject: RegExp = /./,
 ): Promise<{ subject: string; text: string; html: string | null }> {
-  const get = await adminApi();
+  const admin = await adminApi();
   const deadline = Date.now() + 30_000;
   for (;;) {
-    const list = (await (await get('/api/dev/mailbox')).json()) as {
-      messages: { id: string; to: string[] }[];
+    const list = (await (await admin.get('/api/dev/mailbox')).json()) as {
+      messages: { id: string; to: string[]; subject: string }[];
     };
-    const found = list.messages.find((m) => m.to.includes(address));
-    if (found) return (await (await get(`/api/dev/mailbox/${found.id}`)).json()) as never;
+    const found = list.messages.find((m) => m.to.includes(address) && subject.test(m.subject));
+    if (found) return (await (await admin.get(`/api/dev/mailbox/${found.id}`)).json()) as never;
     if (Date.now() > deadline) throw new Error(`no mail to ${address} was caught within 30 s`);
     await new Promise((r) => setTimeout(r, 500));
   }
@@ -102,5 +117,50 @@ describe('signing up', () => {
     expect(new URL(page.url()).pathname).toBe('/');
     expect(await page.getByTestId('nav-dev-mailbox').count()).toBe(0);
     expect(browser.foreignRequests).toEqual([]);
+  });
+});
+
+describe('paying for an order', () => {
+  it('pays a two-roll order on the payment fake’s page; the signed event marks it paid and a receipt is mailed', async () => {
+    const customer = await apiAs('customer@clearbase.test', demoPassword);
+    const { stocks } = (await (await customer.get('/api/stocks')).json()) as {
+      stocks: { id: number; frameFormats: string[]; process: string }[];
+    };
+    const stock = stocks.find((s) => s.frameFormats.includes('135-36') && s.process === 'C-41')!;
+    const order = (await (await customer.post('/api/orders', { scanSize: 'standard' })).json()) as {
+      id: number;
+    };
+    for (const pushPull of [0, 1]) {
+      const roll = await customer.post(`/api/orders/${order.id}/rolls`, {
+        stockId: stock.id,
+        ei: 400,
+        format: '135-36',
+        pushPull,
+      });
+      expect(roll.status).toBe(201);
+    }
+    const checkout = await customer.post(`/api/orders/${order.id}/checkout`);
+    expect(checkout.status).toBe(201);
+    const { checkoutUrl, payment } = (await checkout.json()) as {
+      checkoutUrl: string;
+      payment: { amountMinor: number; currency: string };
+    };
+    // starter price list: 12.00 developing and 8.00 scanning a roll, 3.00 a stop pushed
+    expect(payment).toMatchObject({ amountMinor: 4300, currency: 'EUR' });
+
+    const { page } = browser;
+    await page.goto(checkoutUrl);
+    expect(await page.locator('h1').innerText()).toBe('Pay 43.00 EUR');
+    await browser.screenshot('payment-fake-checkout');
+    await page.getByTestId('fake-approve').click();
+    await page.waitForURL((url) => url.origin === server.url);
+    expect(new URL(page.url()).searchParams.get('payment')).toBe('done');
+
+    const payments = (await (await customer.get(`/api/orders/${order.id}/payments`)).json()) as {
+      payments: { status: string }[];
+    };
+    expect(payments.payments.map((p) => p.status)).toEqual(['paid']);
+    const receipt = await caughtMailTo('customer@clearbase.test', /^Payment received/);
+    expect(receipt.text).toContain(`€43.00 for order ${order.id}`);
   });
 });

@@ -11,6 +11,7 @@ import { ordersRoutes } from './orders/orders-routes';
 import { pricesRoutes } from './prices/prices-routes';
 import { profilesRoutes } from './profiles/profiles-routes';
 import { referenceFrameRoutes } from './profiles/reference-frame-routes';
+import { adjustmentsRoutes } from './rolls/adjustments-routes';
 import { rollsRoutes } from './rolls/rolls-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
 import { signupRoutes } from './signup/signup-routes';
@@ -40,5 +41,6 @@ export const apiRouteModules: readonly RouteModule[] = [
   uploadsRoutes,
   framesRoutes,
   jobsRoutes,
+  adjustmentsRoutes,
   calibrationsRoutes,
 ];
