@@ -14,3 +14,4 @@ export * from './forward-model';
 export * from './frame-levels';
 export * from './reference-linear';
 export * from './calibration/index';
+export * from './neutral-picker';
