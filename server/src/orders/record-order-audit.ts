@@ -11,6 +11,8 @@ export type OrderAuditAction =
   | 'roll-base-changed'
   | 'frames-uploaded'
   | 'frame-base-changed'
+  | 'roll-adjusted'
+  | 'frame-adjusted'
   | 'inversion-started'
   | 'inversion-cancelled';
 
