@@ -1,10 +1,9 @@
 import { execFile } from 'node:child_process';
-import { readdir, readFile } from 'node:fs/promises';
-import { dirname, join } from 'node:path';
+import { readFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
 import { describe, expect, it } from 'vitest';
-import { bundleWorker } from './worker-bundle';
+import { bundleManifestFile, bundleWorker } from './worker-bundle';
 
 describe('worker bundle', () => {
   const entry = new URL('./invert-chunk.ts', import.meta.url);
@@ -27,13 +26,8 @@ describe('worker bundle', () => {
 
   it('records every source it was made from, which is how a changed source is noticed', async () => {
     const bundle = fileURLToPath(bundleWorker(entry));
-    const dir = dirname(bundle);
-    const manifests = await Promise.all(
-      (await readdir(dir))
-        .filter((n) => n.endsWith('.json'))
-        .map(async (n) => JSON.parse(await readFile(join(dir, n), 'utf8')) as Manifest),
-    );
-    const manifest = manifests.find((m) => m.bundle === bundle)!;
+    const manifest = JSON.parse(await readFile(bundleManifestFile(entry), 'utf8')) as Manifest;
+    expect(manifest.bundle).toBe(bundle);
     const inputs = Object.keys(manifest.inputs);
     expect(inputs).toContain(fileURLToPath(entry));
     expect(inputs.some((f) => f.endsWith('libs/inversion/src/compile-inversion.ts'))).toBe(true);

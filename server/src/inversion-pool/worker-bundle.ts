@@ -33,13 +33,22 @@ export function bundleWorker(entry: URL): URL {
   const source = fileURLToPath(entry);
   const dir = join(tmpdir(), 'clearbase-workers');
   const name = basename(source).replace(/\.ts$/, '');
-  const manifestFile = join(
-    dir,
-    `${name}-${createHash('sha256').update(source).digest('hex').slice(0, 16)}.json`,
-  );
+  const manifestFile = bundleManifestFile(entry);
   const url = pathToFileURL(reuse(manifestFile) ?? build(source, dir, name, manifestFile));
   bundles.set(entry.href, url);
   return url;
+}
+
+/**
+ * Where the manifest of an entry's bundle is kept: one per entry path, so checkouts of the same sources in two
+ * folders (whose bundles may be byte-identical and share one file) each keep their own list of inputs.
+ * @example JSON.parse(readFileSync(bundleManifestFile(entry), 'utf8')).inputs
+ */
+export function bundleManifestFile(entry: URL): string {
+  const source = fileURLToPath(entry);
+  const name = basename(source).replace(/\.ts$/, '');
+  const key = createHash('sha256').update(source).digest('hex').slice(0, 16);
+  return join(tmpdir(), 'clearbase-workers', `${name}-${key}.json`);
 }
 
 function reuse(manifestFile: string): string | null {
