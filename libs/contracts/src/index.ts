@@ -9,3 +9,4 @@ export * from './profiles/profile';
 export * from './orders/index';
 export * from './customers/index';
 export * from './calibrations/calibration';
+export * from './tuning/tuning';

@@ -1,0 +1,108 @@
+import { z } from 'zod';
+import type { Adjustments } from '../orders/roll';
+import { frameSchema } from '../orders/frame';
+import { rollSchema } from '../orders/roll';
+import {
+  profileDocumentSchema,
+  scannerProfileSchema,
+  type Balance,
+  type ProfileDocument,
+} from '../profile/profile-document';
+
+/** What an operator decided about a rendered frame. `excluded`: not delivered (blank, fogged leader, double). */
+export const reviewDecisions = ['approved', 'rejected', 'excluded'] as const;
+export const reviewDecisionSchema = z.enum(reviewDecisions);
+export type ReviewDecision = z.infer<typeof reviewDecisionSchema>;
+
+/** An operator's review of one frame; a rejection says why. */
+export const frameReviewRequestSchema = z
+  .strictObject({
+    decision: reviewDecisionSchema,
+    // 500 characters hold a few sentences for the next operator: our choice
+    note: z.string().trim().max(500, 'Keep the note under 500 characters').default(''),
+  })
+  .refine((r) => r.decision !== 'rejected' || r.note.length > 0, {
+    path: ['note'],
+    message: 'Say what is wrong with a rejected frame',
+  });
+export type FrameReviewRequest = z.infer<typeof frameReviewRequestSchema>;
+
+/** A stored review. */
+export const frameReviewSchema = z.object({
+  decision: reviewDecisionSchema,
+  note: z.string(),
+  reviewedBy: z.string(),
+  reviewedAt: z.string(),
+});
+export type FrameReview = z.infer<typeof frameReviewSchema>;
+
+/** A frame as the tuning screen sees it: the frame and its review. */
+export const tuningFrameSchema = frameSchema.extend({ review: frameReviewSchema.nullable() });
+export type TuningFrame = z.infer<typeof tuningFrameSchema>;
+
+/**
+ * Everything the tuning screen needs to render a roll's frames as the server does: the pinned profile version's
+ * document, the scanner's input profile, the roll (its base and adjustments) and each frame with its review.
+ * `approved` is true when every frame is approved or excluded.
+ */
+export const rollTuningSchema = z.object({
+  roll: rollSchema,
+  profile: profileDocumentSchema,
+  scanner: scannerProfileSchema,
+  frames: z.array(tuningFrameSchema),
+  approved: z.boolean(),
+});
+export type RollTuning = z.infer<typeof rollTuningSchema>;
+
+/** The answer to a frame review: the frame, and whether its roll is now approved. */
+export const frameReviewResultSchema = z.object({
+  frame: tuningFrameSchema,
+  rollApproved: z.boolean(),
+});
+export type FrameReviewResult = z.infer<typeof frameReviewResultSchema>;
+
+/** Header names of a working negative's description; the body is raw little-endian 16-bit RGB. */
+export const workingNegativeHeaders = {
+  width: 'X-Negative-Width',
+  height: 'X-Negative-Height',
+  /** Film base the frame renders against, linear light 0..1, red,green,blue. */
+  base: 'X-Film-Base',
+  /** Where that base came from: frame, region or roll. */
+  baseSource: 'X-Film-Base-Source',
+  /** Full size of the scan, width×height, to map picked rectangles back. */
+  scanSize: 'X-Scan-Size',
+} as const;
+
+/** Long edge of a working negative, pixels: about 1.5 megapixels at 3:2, light to send and render live (our choice). */
+export const workingNegativeLongEdge = 1500;
+
+/** The adjustments one frame renders with once its roll's and its own are put together, over a profile. */
+export interface SummedAdjustments {
+  /** Printer points: profile + roll + frame. */
+  balance: Balance;
+  /** Stops: roll + frame. */
+  exposureStops: number;
+  /** The frame's contrast when set, else the roll's, else the profile's. */
+  contrast: number;
+}
+
+/**
+ * Puts a profile's, a roll's and a frame's adjustments together the way every render does: balances and exposures
+ * add; contrast is the nearest one set.
+ * @example sumAdjustments(profile, roll, frame).balance.magentaGreen // profile + roll + frame magenta–green points
+ */
+export function sumAdjustments(
+  profile: Pick<ProfileDocument, 'balance' | 'tone'>,
+  roll: Adjustments,
+  frame: Adjustments,
+): SummedAdjustments {
+  return {
+    balance: {
+      cyanRed: profile.balance.cyanRed + roll.balance.cyanRed + frame.balance.cyanRed,
+      magentaGreen: profile.balance.magentaGreen + roll.balance.magentaGreen + frame.balance.magentaGreen,
+      yellowBlue: profile.balance.yellowBlue + roll.balance.yellowBlue + frame.balance.yellowBlue,
+    },
+    exposureStops: roll.exposureStops + frame.exposureStops,
+    contrast: frame.contrast ?? roll.contrast ?? profile.tone.contrast,
+  };
+}
