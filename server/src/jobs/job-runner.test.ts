@@ -2,6 +2,7 @@ import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { pino } from 'pino';
 import sharp from 'sharp';
+import { parsePositiveXmp } from '../imaging/index';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
@@ -95,6 +96,13 @@ describe('batch inversion', () => {
     expect(tiff.status).toBe(200);
     expect(tiff.headers['content-disposition']).toBe('attachment; filename=f1.tif');
     expect((await sharp(tiff.body as Buffer).metadata()).depth).toBe('ushort');
+    const xmp = (await sharp(tiff.body as Buffer).metadata()).xmpAsString ?? '';
+    expect(parsePositiveXmp(xmp)).toMatchObject({
+      stock: 'Clearbase Polyclear 200',
+      profileVersion: 'testline@1',
+      sourceFile: 'f1.tif',
+      adjustments: { roll: { exposureStops: 0 }, frame: { exposureStops: 0 } },
+    });
     expect((await customer.get(`/api/frames/${frameId}/output?format=png16`)).status).toBe(404);
     expect(readdirSync(join(t.config.dataDir, 'tmp'))).toEqual([]);
   });
