@@ -5,6 +5,7 @@ import type { OrderTables } from '../orders/order-tables';
 import type { OutboxTable } from '../mail/outbox-table';
 import type { PaymentEventsTable, PaymentsTable } from '../payments/payment-tables';
 import type { PasswordTokensTable, PendingSignupsTable } from '../signup/signup-tables';
+import type { FrameReviewsTable } from '../tuning/frame-reviews-table';
 
 /** Times are ISO-8601 UTC text; booleans are 0/1 integers (SQLite has no boolean type). */
 export interface UsersTable {
@@ -132,6 +133,7 @@ export interface Database {
   frame_outputs: OrderTables['frame_outputs'];
   jobs: OrderTables['jobs'];
   calibrations: CalibrationsTable;
+  frame_reviews: FrameReviewsTable;
 }
 
 export type UserRow = Selectable<UsersTable>;
