@@ -1,0 +1,153 @@
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButton } from '@angular/material/button';
+import {
+  MAT_DIALOG_DATA,
+  MatDialogActions,
+  MatDialogClose,
+  MatDialogContent,
+  MatDialogRef,
+  MatDialogTitle,
+} from '@angular/material/dialog';
+import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
+import { MatInput } from '@angular/material/input';
+import { MatOption, MatSelect } from '@angular/material/select';
+import type { CreateRollRequest, Roll, Scanner, Stock } from '@clearbase/contracts';
+import { catchError, of } from 'rxjs';
+import { applyFieldProblems } from '../catalogue/apply-field-problems';
+import { CatalogueApi } from '../catalogue/catalogue-api';
+import { readProblem } from '../problem/read-problem';
+import { pushPullLabel } from '../rolls/roll-labels';
+import { ScannersApi } from '../scanners/scanners-api';
+import { OrdersApi } from './orders-api';
+
+// The server's bounds (createRollRequestSchema): EI 3 to 25600, push/pull −3 to +3 stops in half stops.
+const eiRange = { min: 3, max: 25600 } as const;
+const pushPullChoices = [-3, -2.5, -2, -1.5, -1, -0.5, 0, 0.5, 1, 1.5, 2, 2.5, 3] as const;
+
+/** What the dialog needs: the order the roll goes on. */
+export interface AddRollData {
+  orderId: number;
+}
+
+/** Lab staff add a roll to an order: its stock, the EI it was shot at, push/pull, frame format, scanner. */
+@Component({
+  selector: 'cb-add-roll-dialog',
+  imports: [
+    ReactiveFormsModule,
+    MatDialogTitle,
+    MatDialogContent,
+    MatDialogActions,
+    MatDialogClose,
+    MatButton,
+    MatFormField,
+    MatLabel,
+    MatError,
+    MatHint,
+    MatInput,
+    MatSelect,
+    MatOption,
+  ],
+  templateUrl: './add-roll-dialog.html',
+  styleUrl: './add-roll-dialog.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class AddRollDialog {
+  private readonly api = inject(OrdersApi);
+  private readonly ref = inject<MatDialogRef<AddRollDialog, Roll>>(MatDialogRef);
+  private readonly data = inject<AddRollData>(MAT_DIALOG_DATA);
+  private readonly fb = inject(NonNullableFormBuilder);
+
+  protected readonly pushPullChoices = pushPullChoices;
+  protected readonly pushPullLabel = pushPullLabel;
+  protected readonly eiRange = eiRange;
+
+  protected readonly stocks = toSignal(
+    inject(CatalogueApi)
+      .stocks({ q: '', process: '', masking: '' })
+      .pipe(catchError(() => of<Stock[]>([]))),
+    { initialValue: [] as Stock[] },
+  );
+  protected readonly scanners = toSignal(
+    inject(ScannersApi)
+      .list()
+      .pipe(catchError(() => of<Scanner[]>([]))),
+    { initialValue: [] as Scanner[] },
+  );
+
+  protected readonly form = this.fb.group({
+    stockId: this.fb.control<number | null>(null, Validators.required),
+    ei: this.fb.control<number | null>(null, [
+      Validators.required,
+      Validators.min(eiRange.min),
+      Validators.max(eiRange.max),
+      Validators.pattern(/^\d+$/),
+    ]),
+    pushPull: this.fb.control<number>(0),
+    format: this.fb.control('', [Validators.required, Validators.maxLength(40)]),
+    scannerId: this.fb.control<number | null>(null),
+  });
+  private readonly stockId = toSignal(this.form.controls.stockId.valueChanges, { initialValue: null });
+  protected readonly stock = computed(() => this.stocks().find((s) => s.id === this.stockId()) ?? null);
+  protected readonly busy = signal(false);
+  protected readonly problem = signal<string | null>(null);
+  protected readonly unclaimed = signal<string[]>([]);
+
+  constructor() {
+    // a stock suggests its own EI and frame format; what the operator typed is kept
+    this.form.controls.stockId.valueChanges.pipe(takeUntilDestroyed()).subscribe((id) => {
+      const stock = this.stocks().find((s) => s.id === id);
+      if (!stock) return;
+      const { ei, format } = this.form.controls;
+      if (!ei.dirty) ei.setValue(stock.recommendedEi ?? stock.iso);
+      if (!format.dirty && stock.frameFormats[0]) format.setValue(stock.frameFormats[0]);
+    });
+  }
+
+  protected errorOf(name: string): string {
+    const e = this.form.get(name)?.errors;
+    if (!e) return '';
+    if (e['server']) return String(e['server']);
+    if (e['required']) return 'Required';
+    if (e['min']) return `At least ${(e['min'] as { min: number }).min}`;
+    if (e['max']) return `At most ${(e['max'] as { max: number }).max}`;
+    if (e['pattern']) return 'A whole number';
+    if (e['maxlength']) return 'At most 40 characters';
+    return 'Check this value';
+  }
+
+  protected submit(): void {
+    this.form.markAllAsTouched();
+    if (this.form.invalid || this.busy()) return;
+    const v = this.form.getRawValue();
+    const request: CreateRollRequest = {
+      stockId: Number(v.stockId),
+      ei: Number(v.ei),
+      pushPull: v.pushPull,
+      format: v.format.trim(),
+      scannerId: v.scannerId,
+    };
+    this.busy.set(true);
+    this.problem.set(null);
+    this.unclaimed.set([]);
+    this.api.addRoll(this.data.orderId, request).subscribe({
+      next: (roll) => {
+        this.busy.set(false);
+        this.ref.close(roll);
+      },
+      error: (err: unknown) => {
+        this.busy.set(false);
+        const p = readProblem(err);
+        this.problem.set(p.message);
+        this.unclaimed.set(
+          applyFieldProblems(p.fieldErrors, (path) => this.form.get(path.replace(/^body\./, ''))),
+        );
+        // a stock with no published profile is refused without a field path: it is the stock's fault
+        if (p.status === 422 && Object.keys(p.fieldErrors).length === 0) {
+          applyFieldProblems({ stockId: p.message }, (path) => this.form.get(path));
+        }
+      },
+    });
+  }
+}

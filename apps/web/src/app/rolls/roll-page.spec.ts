@@ -1,0 +1,197 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpEventType } from '@angular/common/http';
+import { provideZonelessChangeDetection } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { provideRouter } from '@angular/router';
+import type { RollDetail, RollEvent } from '@clearbase/contracts';
+import { EVENT_SOURCE_FACTORY } from './roll-event-stream';
+import { RollPage } from './roll-page';
+import { testFrame, testJob, testRollDetail } from './roll-testing';
+
+/** Stands in for the browser's EventSource: the test opens it and sends it events. */
+class FakeEventSource {
+  readyState = 0;
+  closed = false;
+  onopen: (() => void) | null = null;
+  onerror: (() => void) | null = null;
+  private readonly listeners = new Map<string, ((e: MessageEvent<string>) => void)[]>();
+  constructor(readonly url: string) {}
+  addEventListener(type: string, listener: (e: MessageEvent<string>) => void) {
+    this.listeners.set(type, [...(this.listeners.get(type) ?? []), listener]);
+  }
+  removeEventListener(type: string, listener: (e: MessageEvent<string>) => void) {
+    this.listeners.set(
+      type,
+      (this.listeners.get(type) ?? []).filter((l) => l !== listener),
+    );
+  }
+  close() {
+    this.closed = true;
+    this.readyState = 2;
+  }
+  open() {
+    this.readyState = 1;
+    this.onopen?.();
+  }
+  send(event: RollEvent) {
+    for (const l of this.listeners.get(event.type) ?? []) {
+      l(new MessageEvent(event.type, { data: JSON.stringify(event) }));
+    }
+  }
+}
+
+async function render(detail: RollDetail) {
+  const sources: FakeEventSource[] = [];
+  TestBed.configureTestingModule({
+    imports: [RollPage],
+    providers: [
+      provideZonelessChangeDetection(),
+      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      provideHttpClient(),
+      provideHttpClientTesting(),
+      provideRouter([]),
+      {
+        provide: EVENT_SOURCE_FACTORY,
+        useValue: (url: string) => {
+          const source = new FakeEventSource(url);
+          sources.push(source);
+          return source as unknown as EventSource;
+        },
+      },
+    ],
+  });
+  const backend = TestBed.inject(HttpTestingController);
+  const fixture = TestBed.createComponent(RollPage);
+  fixture.componentRef.setInput('id', '7');
+  await fixture.whenStable();
+  backend.expectOne('/api/rolls/7').flush(detail);
+  await fixture.whenStable();
+  const root = fixture.nativeElement as HTMLElement;
+  const text = (selector: string) => root.querySelector(selector)?.textContent?.trim() ?? null;
+  return { fixture, backend, root, text, sources };
+}
+
+describe('RollPage', () => {
+  it('opens the roll’s live stream and closes it when the page goes', async () => {
+    const { fixture, sources } = await render(testRollDetail([testFrame(1, 'queued')]));
+    expect(sources.map((s) => s.url)).toEqual(['/api/rolls/7/events']);
+    fixture.destroy();
+    expect(sources[0]!.closed).toBe(true);
+  });
+
+  it('turns a frame’s chip to done and its thumbnail to the positive when the stream says so, without a reload', async () => {
+    const { fixture, backend, text, root, sources } = await render(
+      testRollDetail([testFrame(1, 'queued'), testFrame(2, 'queued')], testJob(4, 'running')),
+    );
+    sources[0]!.send({ type: 'frame', frameId: 101, status: 'inverting', qcFlags: [], error: null });
+    await fixture.whenStable();
+    expect(text('[data-testid="frame-1"] [data-testid="frame-status"]')).toBe('Inverting');
+
+    sources[0]!.send({
+      type: 'frame',
+      frameId: 101,
+      status: 'done',
+      qcFlags: ['clipped-highlights'],
+      error: null,
+    });
+    sources[0]!.send({
+      type: 'job',
+      job: { ...testJob(4, 'running'), progress: { done: 1, failed: 0, total: 2 } },
+    });
+    await fixture.whenStable();
+    backend.expectNone('/api/rolls/7');
+    expect(text('[data-testid="frame-1"] [data-testid="frame-status"]')).toBe('Done');
+    expect(text('[data-testid="frame-2"] [data-testid="frame-status"]')).toBe('Queued');
+    expect(text('[data-testid="frame-1"] [data-testid="qc-clipped-highlights"]')).toBe('Clipped highlights');
+    expect(root.querySelector('[data-testid="frame-1"] img')!.getAttribute('src')).toBe(
+      '/api/frames/101/preview?r=-1',
+    );
+    expect(text('[data-testid="job-progress"]')).toContain('1 of 2 done');
+  });
+
+  it('reloads the roll when the stream reconnects and when the job ends', async () => {
+    const { fixture, backend, sources } = await render(
+      testRollDetail([testFrame(1, 'queued')], testJob(4, 'running')),
+    );
+    sources[0]!.open();
+    await fixture.whenStable();
+    backend
+      .expectOne('/api/rolls/7')
+      .flush(testRollDetail([testFrame(1, 'inverting')], testJob(4, 'running')));
+    sources[0]!.send({
+      type: 'job',
+      job: { ...testJob(4, 'done'), progress: { done: 1, failed: 0, total: 1 } },
+    });
+    await fixture.whenStable();
+    backend.expectOne('/api/rolls/7').flush(testRollDetail([testFrame(1, 'done')], testJob(4, 'done')));
+    await fixture.whenStable();
+    backend.verify();
+  });
+
+  it('sends each picked file on its own and shows the server’s reason beside the refused one', async () => {
+    const { fixture, backend, root } = await render(testRollDetail([]));
+    const page = fixture.componentInstance;
+    page.addFiles([new File(['I am text'], 'notes.tif'), new File([new Uint8Array(2000)], 'frame-01.tif')]);
+    await fixture.whenStable();
+
+    const first = backend.expectOne('/api/rolls/7/frames');
+    expect((first.request.body as FormData).getAll('files').map((f) => (f as File).name)).toEqual([
+      'notes.tif',
+    ]);
+    first.event({ type: HttpEventType.UploadProgress, loaded: 9, total: 9 });
+    first.flush(
+      {
+        type: 'about:blank',
+        title: 'Unprocessable Content',
+        status: 422,
+        detail: 'None of the 1 files was kept: notes.tif: The file is not a TIFF or PNG image.',
+        errors: [{ path: 'files.notes.tif', message: 'notes.tif: The file is not a TIFF or PNG image.' }],
+      },
+      { status: 422, statusText: 'Unprocessable Content' },
+    );
+    await fixture.whenStable();
+
+    const second = backend.expectOne('/api/rolls/7/frames');
+    second.event({ type: HttpEventType.UploadProgress, loaded: 1100, total: 2200 });
+    await fixture.whenStable();
+    const line = (key: number) => root.querySelector(`[data-testid="upload-${key}"]`)!;
+    expect(line(2).querySelector('[data-testid="upload-state"]')!.textContent!.trim()).toBe('Sending 50 %');
+    second.flush({
+      accepted: [{ fileName: 'frame-01.tif', frameId: 101, index: 1, duplicate: false, warnings: [] }],
+      rejected: [],
+    });
+    await fixture.whenStable();
+    backend.expectOne('/api/rolls/7').flush(testRollDetail([testFrame(1, 'queued')]));
+    await fixture.whenStable();
+
+    expect(line(1).querySelector('[data-testid="upload-reason"]')!.textContent!.trim()).toBe(
+      'The file is not a TIFF or PNG image.',
+    );
+    expect(line(2).querySelector('[data-testid="upload-reason"]')).toBeNull();
+    expect(line(2).querySelector('[data-testid="upload-state"]')!.textContent!.trim()).toBe('Frame 1');
+    expect(root.querySelector('[data-testid="upload-batch-counts"]')!.textContent!.trim()).toBe(
+      '1 kept · 1 refused',
+    );
+    expect(root.querySelector('[data-testid="frame-1"]')).not.toBeNull();
+  });
+
+  it('starts the inversion and offers to cancel it while it runs', async () => {
+    const { fixture, backend, root } = await render(testRollDetail([testFrame(1, 'queued')]));
+    (root.querySelector('[data-testid="invert-roll"]') as HTMLButtonElement).click();
+    const req = backend.expectOne('/api/rolls/7/invert');
+    expect(req.request.body).toEqual({ frames: 'pending' });
+    req.flush(testJob(4, 'queued'), { status: 202, statusText: 'Accepted' });
+    await fixture.whenStable();
+    backend.expectOne('/api/rolls/7').flush(testRollDetail([testFrame(1, 'queued')], testJob(4, 'queued')));
+    await fixture.whenStable();
+    (root.querySelector('[data-testid="job-cancel"]') as HTMLButtonElement).click();
+    backend
+      .expectOne('/api/jobs/4/cancel')
+      .flush(testJob(4, 'cancelled'), { status: 202, statusText: 'Accepted' });
+    await fixture.whenStable();
+    expect(root.querySelector('[data-testid="job-state"]')!.textContent!.trim()).toBe('Cancelled');
+    expect(root.querySelector('[data-testid="invert-roll"]')).not.toBeNull();
+  });
+});

@@ -1,0 +1,10 @@
+import type { Routes } from '@angular/router';
+
+/** A roll's page; the tuning workspace adds its own child route beside it. Lab staff only (set on the parent). */
+export const rollsRoutes: Routes = [
+  {
+    path: ':id',
+    title: 'Roll · Clearbase',
+    loadComponent: () => import('./roll-page').then((m) => m.RollPage),
+  },
+];
