@@ -38,9 +38,9 @@ import {
 import { renderFrame } from './render-frame';
 import { onJobQueued, publishRollEvent } from './roll-events';
 
-/** Tries per frame before it is marked failed with its last error. */
+/** Tries per frame before it is marked failed with its last error (three: the product's rule). */
 export const maxFrameAttempts = 3;
-/** Tries per job (a process dying mid-job counts one) before it is marked failed. */
+/** Tries per job (a process dying mid-job counts one) before it is marked failed; as for frames (our choice). */
 export const maxJobAttempts = 3;
 // 30 s lease, renewed every 10 s: a dead process's job is picked up again within half a minute (our choice)
 const defaultLeaseMs = 30_000;

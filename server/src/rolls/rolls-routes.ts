@@ -195,9 +195,19 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
         res.write(`event: ${event.type}\ndata: ${JSON.stringify(event)}\n\n`);
       // reconnecting clients wait 3 s (the EventSource default is about that; we say it outright)
       res.write('retry: 3000\n\n');
+      // listen first, then send where things stand, so a client (re)connecting misses nothing in between
+      const unsubscribe = subscribeRollEvents(db, roll.id, send);
       const job = await latestJobOf(db, rollTarget(roll.id));
       if (job) send({ type: 'job', job: toJob(job) });
-      const unsubscribe = subscribeRollEvents(db, roll.id, send);
+      for (const frame of (await listFramesOfRoll(db, roll.id)).map((f) => toFrame(f))) {
+        send({
+          type: 'frame',
+          frameId: frame.id,
+          status: frame.status,
+          qcFlags: frame.qcFlags,
+          error: frame.error,
+        });
+      }
       const heartbeat = setInterval(() => res.write(': heartbeat\n\n'), heartbeatMs);
       heartbeat.unref();
       const close = () => {

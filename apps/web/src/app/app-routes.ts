@@ -72,6 +72,16 @@ export const appRoutes: Routes = [
         loadChildren: () => import('./catalogue/catalogue-routes').then((m) => m.catalogueRoutes),
       },
       {
+        path: 'orders',
+        loadChildren: () => import('./orders/orders-routes').then((m) => m.ordersRoutes),
+      },
+      {
+        path: 'rolls',
+        canActivateChild: [roleGuard],
+        data: { roles: ['operator', 'manager', 'admin'] },
+        loadChildren: () => import('./rolls/rolls-routes').then((m) => m.rollsRoutes),
+      },
+      {
         path: 'scanners',
         title: 'Scanners · Clearbase',
         canActivate: [roleGuard],

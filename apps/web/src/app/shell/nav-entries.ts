@@ -21,6 +21,7 @@ const everyone: readonly Role[] = ['customer', 'operator', 'manager', 'admin'];
  */
 export const navEntries: readonly NavEntry[] = [
   { name: 'home', label: 'Home', icon: 'home', path: '/', roles: everyone, group: 'work' },
+  { name: 'orders', label: 'Orders', icon: 'receipt_long', path: '/orders', roles: everyone, group: 'work' },
   {
     name: 'catalogue',
     label: 'Film stocks',
