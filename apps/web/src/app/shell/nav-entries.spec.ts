@@ -5,14 +5,21 @@ describe('navEntriesFor', () => {
     expect(navEntriesFor(null)).toEqual([]);
   });
 
-  it('gives customers home, the film stocks, prices and account', () => {
-    expect(navEntriesFor('customer').map((e) => e.name)).toEqual(['home', 'catalogue', 'prices', 'account']);
+  it('gives customers home, their orders, the film stocks, prices and account', () => {
+    expect(navEntriesFor('customer').map((e) => e.name)).toEqual([
+      'home',
+      'orders',
+      'catalogue',
+      'prices',
+      'account',
+    ]);
   });
 
   it('gives lab staff the scanners too, but no admin pages', () => {
     for (const role of ['operator', 'manager'] as const) {
       expect(navEntriesFor(role).map((e) => e.name)).toEqual([
         'home',
+        'orders',
         'catalogue',
         'scanners',
         'prices',
@@ -24,6 +31,7 @@ describe('navEntriesFor', () => {
   it('adds users, the audit log and the development mailbox for admins', () => {
     expect(navEntriesFor('admin').map((e) => e.name)).toEqual([
       'home',
+      'orders',
       'catalogue',
       'scanners',
       'prices',

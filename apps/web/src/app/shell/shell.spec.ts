@@ -34,14 +34,14 @@ async function renderFor(user: User) {
 }
 
 describe('Shell navigation', () => {
-  it('shows a customer only home, the film stocks and account', async () => {
+  it('shows a customer only home, their orders, the film stocks, prices and account', async () => {
     const { navNames } = await renderFor({
       id: 2,
       email: 'cy@home.test',
       name: 'Cy Orrin',
       role: 'customer',
     });
-    expect(navNames).toEqual(['nav-home', 'nav-catalogue', 'nav-account']);
+    expect(navNames).toEqual(['nav-home', 'nav-orders', 'nav-catalogue', 'nav-prices', 'nav-account']);
   });
 
   it('shows an operator no admin pages', async () => {
@@ -59,10 +59,13 @@ describe('Shell navigation', () => {
     const { navNames } = await renderFor({ id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' });
     expect(navNames).toEqual([
       'nav-home',
+      'nav-orders',
       'nav-catalogue',
       'nav-scanners',
+      'nav-prices',
       'nav-users',
       'nav-audit',
+      'nav-dev-mailbox',
       'nav-account',
     ]);
   });
