@@ -78,6 +78,8 @@ describe('uploading negative scans', () => {
     expect(res.body.accepted.map((a: { index: number }) => a.index)).toEqual([1, 2]);
     const detail = await operator.get(`/api/rolls/${roll}`).expect(200);
     expect(detail.body.roll.status).toBe('scanned');
+    expect(detail.body.roll.base).toMatchObject({ mode: 'auto', measured: { region: null } });
+    expect(detail.body.roll.base.measured.confidence).toBeGreaterThan(0);
     expect(detail.body.frames).toHaveLength(2);
     expect(detail.body.frames[0]).toMatchObject({
       fileName: 'frame-01.tif',

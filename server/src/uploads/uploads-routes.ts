@@ -7,7 +7,9 @@ import { createFileStore } from '../files/file-store';
 import type { RouteModule } from '../http/route-module';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { loadRollFor, scannerProfileOf } from '../rolls/roll-access';
+import { medianBaseOf } from '../rolls/median-base';
 import { setRollStatus } from '../rolls/roll-repository';
+import { listFramesOfRoll } from '../frames/frame-repository';
 import { acceptNegative } from './accept-negative';
 import { hashingDiskStorage, type HashedUpload } from './hashing-disk-storage';
 
@@ -101,6 +103,15 @@ export const uploadsRoutes: RouteModule = (api, { db, config, clock }) => {
       }
       const at = clock.now();
       if (roll.status === 'awaiting-scans') await setRollStatus(db, roll.id, 'scanned', at);
+      if (roll.base_mode === 'auto') {
+        // the roll base an operator sees follows its frames: the robust median of their bases
+        const measured = medianBaseOf(await listFramesOfRoll(db, roll.id));
+        await db
+          .updateTable('rolls')
+          .set({ base_measured: measured ? JSON.stringify(measured) : null })
+          .where('id', '=', roll.id)
+          .execute();
+      }
       await recordOrderAudit(db, {
         at,
         actor: user!,
