@@ -16,6 +16,7 @@ import { rollsRoutes } from './rolls/rolls-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
 import { signupRoutes } from './signup/signup-routes';
 import { stocksRoutes } from './stocks/stocks-routes';
+import { tuningRoutes } from './tuning/tuning-routes';
 import { uploadsRoutes } from './uploads/uploads-routes';
 import { usersRoutes } from './users/users-routes';
 
@@ -43,4 +44,5 @@ export const apiRouteModules: readonly RouteModule[] = [
   jobsRoutes,
   adjustmentsRoutes,
   calibrationsRoutes,
+  tuningRoutes,
 ];

@@ -71,6 +71,8 @@ export const workingNegativeHeaders = {
   baseSource: 'X-Film-Base-Source',
   /** Full size of the scan, width×height, to map picked rectangles back. */
   scanSize: 'X-Scan-Size',
+  /** The frame's levels measured on the full scan against that base, JSON: what the server's render uses. */
+  levels: 'X-Frame-Levels',
 } as const;
 
 /** Long edge of a working negative, pixels: about 1.5 megapixels at 3:2, light to send and render live (our choice). */

@@ -1,0 +1,138 @@
+import { workingNegativeHeaders, type RollTuning } from '@clearbase/contracts';
+import type { Response } from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
+import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { downsampleNegative } from './working-negative';
+
+let t: TestApp;
+let operator: Client;
+let customer: Client;
+let order: number;
+let roll: number;
+let frames: number[];
+
+/** Collects a binary body as a Buffer. */
+const binary = (res: Response, done: (err: Error | null, body: Buffer) => void) => {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => done(null, Buffer.concat(chunks)));
+};
+
+beforeAll(async () => {
+  t = await createTestApp();
+  const customerId = await addUser(t.db, 'customer', 'cass@lab.test');
+  await addUser(t.db, 'operator', 'oskar@lab.test');
+  const { stockId } = await addTestCatalogue(t.db);
+  operator = await signedIn(t.app, 'oskar@lab.test');
+  customer = await signedIn(t.app, 'cass@lab.test');
+  order = (await operator.post('/api/orders', { customerId }).expect(201)).body.id as number;
+  roll = (
+    await operator.post(`/api/orders/${order}/rolls`, { stockId, ei: 200, format: '135-36' }).expect(201)
+  ).body.id as number;
+  const up = await operator
+    .send('post', `/api/rolls/${roll}/frames`)
+    .attach('files', await negativeTiff({ width: 96, height: 64, seed: 1 }), 'a.tif')
+    .attach('files', await negativeTiff({ width: 96, height: 64, seed: 2 }), 'b.tif')
+    .expect(201);
+  frames = (up.body.accepted as { frameId: number }[]).map((a) => a.frameId);
+  await t.db.updateTable('orders').set({ status: 'tuning' }).where('id', '=', order).execute();
+});
+afterAll(() => t.close());
+
+describe('tuning sheet', () => {
+  it('holds the pinned profile, the scanner, the roll and each frame with no review yet', async () => {
+    const res = await operator.get(`/api/rolls/${roll}/tuning`).expect(200);
+    const sheet = res.body as RollTuning;
+    expect(sheet.roll.id).toBe(roll);
+    expect(sheet.profile.curves.green.points.length).toBeGreaterThan(1);
+    expect(sheet.scanner.encoding).toBe('linear');
+    expect(sheet.frames.map((f) => f.id)).toEqual(frames);
+    expect(sheet.frames.every((f) => f.review === null)).toBe(true);
+    expect(sheet.approved).toBe(false);
+  });
+
+  it('is for lab staff only', async () => {
+    const res = await customer.get(`/api/rolls/${roll}/tuning`);
+    expect(res.status).toBe(403);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+  });
+});
+
+describe('working negative', () => {
+  it('sends raw 16-bit RGB with its size, base, where the base came from and the levels of the full scan', async () => {
+    const res = await operator
+      .get(`/api/frames/${frames[0]}/working-negative`)
+      .buffer(true)
+      .parse(binary)
+      .expect(200);
+    const width = Number(res.headers[workingNegativeHeaders.width.toLowerCase()]);
+    const height = Number(res.headers[workingNegativeHeaders.height.toLowerCase()]);
+    expect([width, height]).toEqual([96, 64]);
+    expect((res.body as Buffer).length).toBe(width * height * 3 * 2);
+    const base = String(res.headers[workingNegativeHeaders.base.toLowerCase()]).split(',').map(Number);
+    expect(base.every((b) => b > 0 && b <= 1)).toBe(true);
+    expect(res.headers[workingNegativeHeaders.baseSource.toLowerCase()]).toBe('frame');
+    expect(res.headers[workingNegativeHeaders.scanSize.toLowerCase()]).toBe('96x64');
+    const levels = JSON.parse(String(res.headers[workingNegativeHeaders.levels.toLowerCase()]));
+    expect(levels.channelMeans).toHaveLength(3);
+    expect(levels.whiteLogExposure).toBeGreaterThan(levels.blackLogExposure);
+  });
+
+  it('reduces a large scan by a whole factor, each pixel the mean of its block', () => {
+    const data = new Uint16Array(4 * 2 * 3);
+    for (let i = 0; i < data.length; i++) data[i] = i * 100;
+    const small = downsampleNegative({ width: 4, height: 2, data }, 2);
+    expect([small.width, small.height]).toEqual([2, 1]);
+    // block of pixels 0, 1, 4, 5 → red samples 0, 300, 1200, 1500
+    expect(small.data[0]).toBe(750);
+    expect(downsampleNegative({ width: 4, height: 2, data }, 1500).data).toBe(data);
+  });
+});
+
+describe('frame review', () => {
+  it('refuses to approve a frame not rendered yet', async () => {
+    const res = await operator.post(`/api/frames/${frames[0]}/qc`, { decision: 'approved' });
+    expect(res.status).toBe(409);
+    expect(res.body.code ?? res.body.type).toBeTruthy();
+  });
+
+  it('asks for a note with a rejection, naming the field', async () => {
+    const res = await operator.post(`/api/frames/${frames[0]}/qc`, { decision: 'rejected', note: '' });
+    expect(res.status).toBe(400);
+    expect(res.body.errors).toEqual([
+      { path: 'body.note', message: 'Say what is wrong with a rejected frame' },
+    ]);
+  });
+
+  it('approves the roll and readies the order when every frame is approved or excluded, and takes it back', async () => {
+    await t.db.updateTable('frames').set({ status: 'done' }).where('id', '=', frames[0]!).execute();
+    const first = await operator
+      .post(`/api/frames/${frames[0]}/qc`, { decision: 'approved', note: 'fine' })
+      .expect(200);
+    expect(first.body.rollApproved).toBe(false);
+    expect(first.body.frame.review).toMatchObject({
+      decision: 'approved',
+      note: 'fine',
+      reviewedBy: 'Test operator',
+    });
+    const second = await operator
+      .post(`/api/frames/${frames[1]}/qc`, { decision: 'excluded', note: 'blank leader' })
+      .expect(200);
+    expect(second.body.rollApproved).toBe(true);
+    const sheet = (await operator.get(`/api/rolls/${roll}/tuning`).expect(200)).body as RollTuning;
+    expect(sheet.approved).toBe(true);
+    expect((await operator.get(`/api/orders/${order}`).expect(200)).body.order.status).toBe('ready');
+
+    await operator
+      .post(`/api/frames/${frames[0]}/qc`, { decision: 'rejected', note: 'scratch across the sky' })
+      .expect(200);
+    expect((await operator.get(`/api/orders/${order}`).expect(200)).body.order.status).toBe('tuning');
+    const audit = await t.db
+      .selectFrom('audit_log')
+      .select('action')
+      .where('action', '=', 'frame-reviewed')
+      .execute();
+    expect(audit).toHaveLength(3);
+  });
+});
