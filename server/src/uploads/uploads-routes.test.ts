@@ -190,6 +190,27 @@ describe('uploading negative scans', () => {
     expect(stored.filter((f) => String(f).length > 3)).toHaveLength(await rows('files'));
   });
 
+  it('refuses a greyscale scan and keeps an 8-bit one with a warning', async () => {
+    const roll = await newRoll();
+    const grey = await sharp(new Uint16Array(64 * 48).fill(30000), {
+      raw: { width: 64, height: 48, channels: 1 },
+    })
+      .toColourspace('grey16')
+      .png()
+      .toBuffer();
+    const eight = await sharp(await negativeTiff({ seed: 77 }))
+      .toColourspace('srgb')
+      .png()
+      .toBuffer();
+    const res = await upload(roll).attach('files', grey, 'grey.png').attach('files', eight, 'eight.png');
+    expect(res.status).toBe(201);
+    expect(res.body.rejected).toEqual([
+      { fileName: 'grey.png', code: 'not-colour', reason: expect.stringContaining('greyscale') },
+    ]);
+    expect(res.body.accepted[0].warnings).toEqual([expect.stringContaining('8 bits per channel')]);
+    expect(tmpFiles()).toEqual([]);
+  });
+
   it('asks for files when the request has none', async () => {
     const roll = await newRoll();
     const res = await operator.post(`/api/rolls/${roll}/frames`, {});
