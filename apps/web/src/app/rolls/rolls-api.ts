@@ -60,7 +60,10 @@ export class RollsApi {
 
   /** Starts (or joins) the roll's batch inversion; the server answers 202 with the job. */
   invert(rollId: number, frames: InvertRollRequest['frames']): Observable<Job> {
-    return this.http.post<Job>(`/api/rolls/${rollId}/invert`, { frames } satisfies InvertRollRequest);
+    return this.http.post<Job>(`/api/rolls/${rollId}/invert`, { frames } satisfies Pick<
+      InvertRollRequest,
+      'frames'
+    >);
   }
 
   cancelJob(jobId: number): Observable<Job> {

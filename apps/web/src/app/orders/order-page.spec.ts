@@ -1,0 +1,134 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { provideZonelessChangeDetection } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { provideRouter } from '@angular/router';
+import type { OrderDetail, Role, User } from '@clearbase/contracts';
+import { Session } from '../auth/session';
+import { testStocks } from '../catalogue/catalogue-testing';
+import { testRollDetail } from '../rolls/roll-testing';
+import { OrderPage } from './order-page';
+
+const detail: OrderDetail = {
+  order: {
+    id: 3,
+    customerId: 12,
+    customerName: 'Marit Olsen',
+    status: 'scanning',
+    notes: 'Two rolls from the coast.',
+    outputFormats: ['jpeg', 'tiff16'],
+    scanSize: 'large',
+    rollCount: 1,
+    createdAt: '2026-11-20T09:00:00.000Z',
+    updatedAt: '2026-11-20T09:00:00.000Z',
+  },
+  rolls: [testRollDetail([]).roll],
+};
+
+async function render(role: Role) {
+  TestBed.configureTestingModule({
+    imports: [OrderPage],
+    providers: [
+      provideZonelessChangeDetection(),
+      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      provideHttpClient(),
+      provideHttpClientTesting(),
+      provideRouter([]),
+    ],
+  });
+  const backend = TestBed.inject(HttpTestingController);
+  TestBed.inject(Session).load().subscribe();
+  const me: User = { id: 1, email: `${role}@lab.test`, name: 'Test', role };
+  backend.expectOne('/api/auth/me').flush(me);
+  const fixture = TestBed.createComponent(OrderPage);
+  fixture.componentRef.setInput('id', '3');
+  await fixture.whenStable();
+  backend.expectOne('/api/orders/3').flush(detail);
+  if (role !== 'customer') backend.expectOne('/api/scanners').flush({ scanners: [] });
+  await fixture.whenStable();
+  const root = fixture.nativeElement as HTMLElement;
+  const byId = (id: string) => root.querySelector(`[data-testid="${id}"]`) as HTMLElement | null;
+  return { fixture, backend, root, byId };
+}
+
+describe('OrderPage', () => {
+  it('draws the way of the order with the steps passed, the current one and those ahead', async () => {
+    const { root } = await render('customer');
+    const states = [...root.querySelectorAll('[data-testid^="step-"]')].map((li) => [
+      li.getAttribute('data-testid'),
+      li.getAttribute('data-state'),
+    ]);
+    expect(states).toEqual([
+      ['step-received', 'passed'],
+      ['step-developing', 'passed'],
+      ['step-scanning', 'current'],
+      ['step-tuning', 'ahead'],
+      ['step-ready', 'ahead'],
+      ['step-delivered', 'ahead'],
+    ]);
+  });
+
+  it('shows a customer their rolls without links, scanner, profile or staff actions', async () => {
+    const { root, byId } = await render('customer');
+    expect(byId('roll-row-7')!.textContent).toContain('+1 stop push');
+    expect(byId('roll-link-7')).toBeNull();
+    expect(byId('add-roll')).toBeNull();
+    expect(byId('order-advance')).toBeNull();
+    expect([...root.querySelectorAll('th')].map((th) => th.textContent!.trim())).not.toContain('Profile');
+  });
+
+  it('lets staff move the order to its next status', async () => {
+    const { fixture, backend, byId } = await render('operator');
+    expect(byId('order-advance')!.textContent).toContain('Move to tuning');
+    byId('order-advance')!.click();
+    const req = backend.expectOne('/api/orders/3');
+    expect(req.request.method).toBe('PATCH');
+    expect(req.request.body).toEqual({ status: 'tuning' });
+    req.flush({ ...detail.order, status: 'tuning' });
+    await fixture.whenStable();
+    backend.expectOne('/api/orders/3').flush({ ...detail, order: { ...detail.order, status: 'tuning' } });
+    await fixture.whenStable();
+    expect(byId('order-status')!.textContent!.trim()).toBe('Tuning');
+    expect(byId('roll-link-7')).not.toBeNull();
+  });
+
+  it('adds a roll in a dialog that shows the server’s complaint under the field it names', async () => {
+    const { fixture, backend, byId } = await render('manager');
+    byId('add-roll')!.click();
+    await fixture.whenStable();
+    backend.expectOne((r) => r.url === '/api/stocks').flush({ stocks: testStocks });
+    backend.expectOne('/api/scanners').flush({ scanners: [] });
+    await fixture.whenStable();
+    const dialog = document.querySelector('cb-add-roll-dialog') as HTMLElement;
+    const dialogId = (id: string) => dialog.querySelector(`[data-testid="${id}"]`) as HTMLElement;
+
+    // the stock fills its own EI and frame format
+    (dialogId('add-roll-stock') as HTMLElement).click();
+    await fixture.whenStable();
+    const option = [...document.querySelectorAll('mat-option')].find((o) =>
+      o.textContent!.includes('Glasswing'),
+    );
+    (option as HTMLElement).click();
+    await fixture.whenStable();
+    expect((dialogId('add-roll-ei') as HTMLInputElement).value).toBe('400');
+    expect((dialogId('add-roll-format') as HTMLInputElement).value).toBe('135-36');
+
+    (dialogId('add-roll-submit') as HTMLButtonElement).click();
+    const req = backend.expectOne('/api/orders/3/rolls');
+    expect(req.request.body).toEqual({ stockId: 1, ei: 400, pushPull: 0, format: '135-36', scannerId: null });
+    req.flush(
+      {
+        type: 'about:blank',
+        title: 'Bad Request',
+        status: 400,
+        detail: 'The request is not valid.',
+        errors: [{ path: 'body.ei', message: 'Too big: expected at most 25600' }],
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+    expect(dialogId('add-roll-ei-error').textContent!.trim()).toBe('Too big: expected at most 25600');
+    expect(dialogId('add-roll-error').textContent).toContain('The request is not valid.');
+  });
+});
