@@ -1,0 +1,85 @@
+import { HttpClient, HttpParams } from '@angular/common/http';
+import { Injectable, inject } from '@angular/core';
+import type {
+  Calibration,
+  CalibrationListResponse,
+  CalibrationSummary,
+  CreateCalibrationRequest,
+  Stock,
+} from '@clearbase/contracts';
+import { map, type Observable } from 'rxjs';
+
+/** A scan's preview before submitting: an object URL of the JPEG and the scan's full size in pixels. */
+export interface FramePreview {
+  url: string;
+  width: number;
+  height: number;
+}
+
+/** The JSON the form sends beside the files (before the server's defaults). */
+export type CalibrationRequestBody = Omit<
+  CreateCalibrationRequest,
+  'scannerId' | 'baseRegion' | 'bracket'
+> & {
+  scannerId?: number | null;
+  bracket: { stops: number }[];
+};
+
+/** Calls on calibrations: fitting a roll into a draft profile, its record, report and frame previews. */
+@Injectable({ providedIn: 'root' })
+export class CalibrationApi {
+  private readonly http = inject(HttpClient);
+
+  list(stockId?: number): Observable<CalibrationSummary[]> {
+    let params = new HttpParams();
+    if (stockId) params = params.set('stockId', stockId);
+    return this.http
+      .get<CalibrationListResponse>('/api/calibrations', { params })
+      .pipe(map((r) => r.calibrations));
+  }
+
+  get(id: number): Observable<Calibration> {
+    return this.http.get<Calibration>(`/api/calibrations/${id}`);
+  }
+
+  /** The stocks a calibration can be for. */
+  stocks(): Observable<Stock[]> {
+    return this.http.get<{ stocks: Stock[] }>('/api/stocks').pipe(map((r) => r.stocks));
+  }
+
+  /** POST /api/calibrations: the grey frames in bracket order, the chart, the leader if any, and the JSON marks. */
+  create(
+    body: CalibrationRequestBody,
+    files: { bracket: readonly File[]; chart: File; leader: File | null },
+  ): Observable<Calibration> {
+    const form = new FormData();
+    form.append('calibration', JSON.stringify(body));
+    for (const f of files.bracket) form.append('bracket', f, f.name);
+    form.append('chart', files.chart, files.chart.name);
+    if (files.leader) form.append('leader', files.leader, files.leader.name);
+    return this.http.post<Calibration>('/api/calibrations', form);
+  }
+
+  /** A JPEG preview of a scan not yet submitted, with the scan's size from the response headers. */
+  framePreview(file: File): Observable<FramePreview> {
+    const form = new FormData();
+    form.append('file', file, file.name);
+    return this.http
+      .post('/api/calibrations/frame-preview', form, { observe: 'response', responseType: 'blob' })
+      .pipe(
+        map((res) => ({
+          url: URL.createObjectURL(res.body!),
+          width: Number(res.headers.get('X-Frame-Width')),
+          height: Number(res.headers.get('X-Frame-Height')),
+        })),
+      );
+  }
+
+  frameUrl(id: number, n: number): string {
+    return `/api/calibrations/${id}/frames/${n}/preview`;
+  }
+
+  reportUrl(id: number): string {
+    return `/api/calibrations/${id}/report.pdf`;
+  }
+}
