@@ -82,6 +82,12 @@ export const appRoutes: Routes = [
         loadChildren: () => import('./rolls/rolls-routes').then((m) => m.rollsRoutes),
       },
       {
+        path: 'calibration',
+        canActivateChild: [roleGuard],
+        data: { roles: ['operator', 'manager', 'admin'] },
+        loadChildren: () => import('./calibration/calibration-routes').then((m) => m.calibrationRoutes),
+      },
+      {
         path: 'scanners',
         title: 'Scanners · Clearbase',
         canActivate: [roleGuard],

@@ -22,6 +22,7 @@ describe('navEntriesFor', () => {
         'orders',
         'catalogue',
         'scanners',
+        'calibration',
         'prices',
         'account',
       ]);
@@ -34,6 +35,7 @@ describe('navEntriesFor', () => {
       'orders',
       'catalogue',
       'scanners',
+      'calibration',
       'prices',
       'users',
       'audit',

@@ -38,6 +38,14 @@ export const navEntries: readonly NavEntry[] = [
     roles: ['operator', 'manager', 'admin'],
     group: 'work',
   },
+  {
+    name: 'calibration',
+    label: 'Calibration',
+    icon: 'tune',
+    path: '/calibration',
+    roles: ['operator', 'manager', 'admin'],
+    group: 'work',
+  },
   { name: 'prices', label: 'Prices', icon: 'sell', path: '/prices', roles: everyone, group: 'work' },
   { name: 'users', label: 'Users', icon: 'group', path: '/admin/users', roles: ['admin'], group: 'admin' },
   {
