@@ -7,7 +7,7 @@ import {
   type QcFlag,
   type ScanSize,
 } from '@clearbase/contracts';
-import type { FilmBase } from '@clearbase/inversion';
+import { rollLevels, type FilmBase, type FrameLevels } from '@clearbase/inversion';
 import type { Kysely } from 'kysely';
 import { readdir, rm } from 'node:fs/promises';
 import { join } from 'node:path';
@@ -21,7 +21,8 @@ import { createFileStore, type FileStore } from '../files/file-store';
 import { frameSourcePath } from '../frames/frame-negative';
 import { listFramesOfRoll, putFrameOutput, toFrame } from '../frames/frame-repository';
 import { createInversionPool, type InversionPool } from '../inversion-pool/inversion-pool';
-import { MIN_BASE_CONFIDENCE } from '../inversion-pool/invert-negative-file';
+import { measureLevels, MIN_BASE_CONFIDENCE } from '../inversion-pool/invert-negative-file';
+import { readNegative } from '../imaging/index';
 import type { FrameRow, JobRow } from '../orders/order-tables';
 import { scannerProfileOf } from '../rolls/roll-access';
 import { findRollById, setRollStatus, type RollListRow } from '../rolls/roll-repository';
@@ -196,6 +197,7 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
           formats: context.formats,
           longEdge: context.longEdge,
           maxPixels: config.uploads.maxPixels,
+          ...(context.levels ? { levels: context.levels } : {}),
         });
         const done = await db.transaction().execute(async (trx) => {
           const now = clock.now();
@@ -278,6 +280,8 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
     rollBase: MeasuredBase | null;
     formats: OutputFormat[];
     longEdge: number | null;
+    /** Roll-wide levels, when the job asked for them. */
+    levels?: FrameLevels;
   }
 
   async function rollContext(roll: RollListRow, all: FrameRow[]): Promise<RollContext> {
@@ -301,6 +305,27 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
     };
   }
 
+  /**
+   * Levels of the whole roll: every frame measured against the base it renders with, combined by `rollLevels`.
+   * Measured from all frames, done or not, so a resumed job renders with the same levels as before.
+   */
+  async function rollWideLevels(all: FrameRow[], context: RollContext): Promise<FrameLevels | undefined> {
+    const measured: FrameLevels[] = [];
+    for (const frame of all) {
+      try {
+        const { base } = chooseBase(frame, context.rollBase);
+        const negative = await readNegative(await frameSourcePath(db, store!, frame), {
+          maxPixels: config.uploads.maxPixels,
+        });
+        measured.push(measureLevels(negative, { ...context, render: 'print' }, base));
+      } catch (err) {
+        // a frame with no base or an unreadable scan fails on its own when rendered; it just does not count here
+        logger.debug({ err, frameId: frame.id }, 'frame left out of the roll levels');
+      }
+    }
+    return measured.length ? rollLevels(measured).roll : undefined;
+  }
+
   async function runJob(job: JobRow): Promise<void> {
     publishJob(job);
     const lease = setInterval(() => {
@@ -315,6 +340,11 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
       if (!roll) throw new Error(`Job ${job.id} targets ${job.target}, which does not exist.`);
       const all = await listFramesOfRoll(db, roll.id);
       const context = await rollContext(roll, all);
+      const payload = JSON.parse(job.payload) as { levels?: 'frame' | 'roll' };
+      if (payload.levels === 'roll') {
+        const levels = await rollWideLevels(all, context);
+        if (levels) context.levels = levels;
+      }
       const todo = all.filter((f) => f.status === 'queued' || f.status === 'inverting');
       store ??= createFileStore(config.dataDir);
       pool ??= createInversionPool(options.threads ? { threads: options.threads } : {});

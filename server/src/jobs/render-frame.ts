@@ -5,7 +5,7 @@ import type {
   QcFlag,
   ScannerProfile,
 } from '@clearbase/contracts';
-import { compileInversion, levelsToTone, type FilmBase } from '@clearbase/inversion';
+import { compileInversion, levelsToTone, type FilmBase, type FrameLevels } from '@clearbase/inversion';
 import type { FileStore } from '../files/file-store';
 import { positivePipeline, readNegative, type PositiveMetadata } from '../imaging/index';
 import type { InversionPool } from '../inversion-pool/inversion-pool';
@@ -36,6 +36,8 @@ export interface FrameRenderRequest {
   /** Long edge of the full-size outputs; null keeps the scan's size. */
   longEdge: number | null;
   maxPixels: number;
+  /** Roll-wide levels to render with; the frame's own when absent. */
+  levels?: FrameLevels;
 }
 
 export interface StoredRender {
@@ -64,7 +66,7 @@ export async function renderFrame(
   const positive = pool.buffers.acquire(Uint16Array, negative.data.length);
   try {
     const settings = { profile: request.profile, scanner: request.scanner, render: 'print' as const };
-    const levels = measureLevels(negative, settings, request.base);
+    const levels = request.levels ?? measureLevels(negative, settings, request.base);
     const params = inversionParams(settings, request.base, levels, 16);
     const contrast = request.frame.contrast ?? request.roll.contrast ?? request.profile.tone.contrast;
     params.profile = { ...params.profile, tone: levelsToTone(levels, contrast) };
@@ -88,6 +90,7 @@ export async function renderFrame(
         roll: request.roll,
         frame: request.frame,
         base: request.base.rgb.map((v) => Number(v.toFixed(6))),
+        levels: request.levels ? 'roll' : 'frame',
       },
       sourceFile: request.fileName,
     };

@@ -87,6 +87,7 @@ export async function negativeTiff(
     height: options.height ?? 64,
     stock: POLYCLEAR_200,
     seed: options.seed ?? 1,
+    exposureStops: options.exposureStops ?? 0,
   });
   return sharp(neg.data, { raw: { width: neg.width, height: neg.height, channels: 3 } })
     .toColourspace('rgb16')

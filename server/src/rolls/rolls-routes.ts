@@ -94,7 +94,7 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
         const job = await insertJob(trx, {
           kind: 'invert-roll',
           target,
-          payload: { rollId: roll.id, frames: body.frames },
+          payload: { rollId: roll.id, frames: body.frames, levels: body.levels },
           total: again.length,
           by: user!.id,
           at,
@@ -105,7 +105,7 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
           actor: user!,
           action: 'inversion-started',
           target,
-          details: { jobId: job.id, frames: body.frames, count: again.length },
+          details: { jobId: job.id, frames: body.frames, levels: body.levels, count: again.length },
         });
         return job;
       });

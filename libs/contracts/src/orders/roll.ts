@@ -104,8 +104,12 @@ export const rollBaseRequestSchema = z.discriminatedUnion('mode', [
 ]);
 export type RollBaseRequest = z.infer<typeof rollBaseRequestSchema>;
 
-/** Which frames an inversion job renders: those not done yet, or every frame again. */
+/**
+ * Which frames an inversion job renders (those not done yet, or every frame again), and whose levels set exposure,
+ * neutral balance and black and white points: each frame's own, or the whole roll's together for consistency.
+ */
 export const invertRollRequestSchema = z.strictObject({
   frames: z.enum(['pending', 'all']).default('pending'),
+  levels: z.enum(['frame', 'roll']).default('frame'),
 });
 export type InvertRollRequest = z.infer<typeof invertRollRequestSchema>;
