@@ -194,4 +194,58 @@ describe('RollPage', () => {
     expect(root.querySelector('[data-testid="job-state"]')!.textContent!.trim()).toBe('Cancelled');
     expect(root.querySelector('[data-testid="invert-roll"]')).not.toBeNull();
   });
+
+  it('draws the frame’s base rectangle, starts a roll base from it and shows the server’s complaint per field', async () => {
+    const frame = {
+      ...testFrame(1, 'done'),
+      base: {
+        mode: 'auto' as const,
+        region: null,
+        source: 'frame' as const,
+        measured: {
+          rgb: [0.8, 0.7, 0.6] as [number, number, number],
+          region: { x: 0, y: 0, width: 480, height: 20 },
+          confidence: 0.9,
+        },
+      },
+    };
+    const { fixture, backend, root } = await render(testRollDetail([frame]));
+    (root.querySelector('[data-testid="frame-1"] button') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    const region = root.querySelector('[data-testid="frame-base-region"]') as HTMLElement;
+    expect([region.style.left, region.style.top, region.style.width, region.style.height]).toEqual([
+      '0%',
+      '0%',
+      '100%',
+      `${(20 / 320) * 100}%`,
+    ]);
+    expect(root.querySelector('[data-testid="frame-base-source"]')!.textContent).toContain(
+      'base found in the frame',
+    );
+
+    (root.querySelector('[data-testid="use-for-roll-base"]') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    expect((root.querySelector('[data-testid="base-height"]') as HTMLInputElement).value).toBe('20');
+    (root.querySelector('[data-testid="base-save"]') as HTMLButtonElement).click();
+    const req = backend.expectOne('/api/rolls/7/base');
+    expect(req.request.body).toEqual({
+      mode: 'region',
+      frameId: 101,
+      region: { x: 0, y: 0, width: 480, height: 20 },
+    });
+    req.flush(
+      {
+        type: 'about:blank',
+        title: 'Unprocessable Content',
+        status: 422,
+        detail: 'The rectangle holds no film (only bare light or dust).',
+        errors: [{ path: 'body.region', message: 'No film in this rectangle' }],
+      },
+      { status: 422, statusText: 'Unprocessable Content' },
+    );
+    await fixture.whenStable();
+    expect(root.querySelector('[data-testid="base-error"]')!.textContent).toContain(
+      'The rectangle holds no film',
+    );
+  });
 });

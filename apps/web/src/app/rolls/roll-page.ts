@@ -11,7 +11,7 @@ import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatOption, MatSelect } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import type { Frame, FrameStatus, Job, RollBaseRequest, RollEvent } from '@clearbase/contracts';
+import type { Frame, FrameStatus, Job, PixelRegion, RollBaseRequest, RollEvent } from '@clearbase/contracts';
 import {
   catchError,
   concatMap,
@@ -229,6 +229,37 @@ export class RollPage {
 
   protected thumbnail(frame: Frame): string {
     return thumbnailUrl(frame, this.view()?.renders[frame.id] ?? 0);
+  }
+
+  /** The rectangle the frame's base was sampled from: the roll's when the roll base is drawn on this frame. */
+  protected baseRegionOf(frame: Frame): PixelRegion | null {
+    const roll = this.roll();
+    if (roll?.base.mode === 'region' && roll.base.frameId === frame.id && roll.base.region)
+      return roll.base.region;
+    return frame.base.region ?? frame.base.measured?.region ?? null;
+  }
+
+  protected baseSourceLabel(frame: Frame): string {
+    switch (frame.base.source) {
+      case 'frame':
+        return 'base found in the frame';
+      case 'region':
+        return 'base from the rectangle drawn';
+      case 'roll':
+        return 'the roll base was used';
+      default:
+        return frame.base.measured ? 'base found on upload' : 'no base found yet';
+    }
+  }
+
+  /** Starts a roll base on this frame, from the rectangle its own base came from when there is one. */
+  protected useForRollBase(frame: Frame): void {
+    const r = this.baseRegionOf(frame);
+    this.baseForm.patchValue({
+      mode: 'region',
+      frameId: frame.id,
+      ...(r ? { x: r.x, y: r.y, width: r.width, height: r.height } : {}),
+    });
   }
 
   protected statusTone(status: FrameStatus | Job['state']): string {
