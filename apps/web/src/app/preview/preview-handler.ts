@@ -41,17 +41,19 @@ export function createPreviewHandler(clock: () => number = () => performance.now
       try {
         const start = clock();
         const image = { width: message.width, height: message.height, data: message.pixels };
-        const levels = measureFrameLevels(
-          {
-            profile: message.levelsProfile,
-            scanner: message.scanner,
-            base: message.base,
-            render: 'print',
-            outputBits: 8,
-          },
-          image,
-          { step: LEVELS_STEP },
-        );
+        const levels =
+          message.levels ??
+          measureFrameLevels(
+            {
+              profile: message.levelsProfile,
+              scanner: message.scanner,
+              base: message.base,
+              render: 'print',
+              outputBits: 8,
+            },
+            image,
+            { step: LEVELS_STEP },
+          );
         negative = {
           width: message.width,
           height: message.height,

@@ -1,5 +1,15 @@
 import type { ScannerProfile } from '@clearbase/contracts';
-import type { InversionProfile, Rgb } from '@clearbase/inversion';
+import type { FrameLevels, InversionProfile, Rgb } from '@clearbase/inversion';
+
+/** A negative as the previews take it: interleaved 16-bit counts with their film base and scanner. */
+export interface PreviewNegative {
+  width: number;
+  height: number;
+  /** Interleaved RGB 16-bit counts. */
+  pixels: Uint16Array;
+  base: Rgb;
+  scanner: ScannerProfile;
+}
 
 /** Which half of the before/after preview a rendering is for. */
 export type PreviewSide = 'before' | 'after';
@@ -18,6 +28,8 @@ export interface LoadNegativeMessage {
   base: Rgb;
   scanner: ScannerProfile;
   levelsProfile: InversionProfile;
+  /** Levels measured elsewhere (the server's, on the full scan): their E_mid is used instead of measuring. */
+  levels?: FrameLevels;
 }
 
 /** Render the loaded negative through a profile; `id` grows with each request so stale answers can be dropped. */

@@ -1,7 +1,13 @@
 import { DestroyRef, Injectable, InjectionToken, inject, signal } from '@angular/core';
 import type { InversionProfile } from '@clearbase/inversion';
-import type { PreviewReply, PreviewRequest, PreviewSide, RenderedReply } from './preview-messages';
-import type { ReferenceNegative } from './profile-versions-api';
+import type { FrameLevels } from '@clearbase/inversion';
+import type {
+  PreviewNegative,
+  PreviewReply,
+  PreviewRequest,
+  PreviewSide,
+  RenderedReply,
+} from './preview-messages';
 
 /** What the renderer needs of a Worker; a test can hand in a fake that runs the handler in place. */
 export interface PreviewPort {
@@ -33,7 +39,7 @@ export const PREVIEW_FRAME_SCHEDULER = new InjectionToken<(run: () => void) => v
 export type PreviewImage = Omit<RenderedReply, 'kind'>;
 
 /**
- * The editor's live preview: one worker per editor, the negative sent once, then renderings of the saved profile
+ * A live before/after preview: one worker per screen, the negative sent once, then renderings of the saved profile
  * ("before") and the edited one ("after"). Requests made within one animation frame collapse to the last one per
  * side, and only one request is in the worker at a time, so a fast slider never queues stale work.
  */
@@ -59,8 +65,11 @@ export class PreviewRenderer {
     inject(DestroyRef).onDestroy(() => this.port?.terminate());
   }
 
-  /** Hands the negative to a fresh worker (its pixels are transferred, so the caller's copy becomes empty). */
-  load(negative: ReferenceNegative, levelsProfile: InversionProfile): void {
+  /**
+   * Hands the negative to a fresh worker (its pixels are transferred, so the caller's copy becomes empty); with
+   * `levels` the worker renders at their E_mid instead of measuring its own.
+   */
+  load(negative: PreviewNegative, levelsProfile: InversionProfile, levels?: FrameLevels): void {
     this.port?.terminate();
     this.ready.set(false);
     this.busy = true;
@@ -76,6 +85,7 @@ export class PreviewRenderer {
         base: negative.base,
         scanner: negative.scanner,
         levelsProfile,
+        ...(levels ? { levels } : {}),
       },
       [negative.pixels.buffer],
     );

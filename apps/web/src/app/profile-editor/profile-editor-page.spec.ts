@@ -6,9 +6,9 @@ import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
 import type { ProfileVersion, User } from '@clearbase/contracts';
 import { Session } from '../auth/session';
-import type { PreviewReply, PreviewRequest } from './preview-messages';
-import { createPreviewHandler } from './preview-handler';
-import { PREVIEW_FRAME_SCHEDULER, PREVIEW_PORT_FACTORY, type PreviewPort } from './preview-renderer';
+import type { PreviewReply, PreviewRequest } from '../preview/preview-messages';
+import { createPreviewHandler } from '../preview/preview-handler';
+import { PREVIEW_FRAME_SCHEDULER, PREVIEW_PORT_FACTORY, type PreviewPort } from '../preview/preview-renderer';
 import { ProfileEditorPage } from './profile-editor-page';
 
 const draft: ProfileVersion = {

@@ -30,8 +30,8 @@ import { readProblem } from '../problem/read-problem';
 import { CurveChart } from './curve-chart';
 import { curvePointProblems, type CurvePointProblem } from './curve-point-problems';
 import { CurveTable } from './curve-table';
-import type { PreviewImage } from './preview-renderer';
-import { PreviewRenderer } from './preview-renderer';
+import type { PreviewImage } from '../preview/preview-renderer';
+import { PreviewRenderer } from '../preview/preview-renderer';
 import {
   channels,
   controlAtPath,

@@ -3,16 +3,10 @@ import { Injectable, inject } from '@angular/core';
 import type { ProfileDiff, ProfileDocument, ProfileVersion, ScannerProfile } from '@clearbase/contracts';
 import type { Rgb } from '@clearbase/inversion';
 import { map, type Observable } from 'rxjs';
+import type { PreviewNegative } from '../preview/preview-messages';
 
 /** The reference negative a version previews on, as the server sends it. */
-export interface ReferenceNegative {
-  width: number;
-  height: number;
-  /** Interleaved RGB 16-bit counts. */
-  pixels: Uint16Array;
-  base: Rgb;
-  scanner: ScannerProfile;
-}
+export type ReferenceNegative = PreviewNegative;
 
 // The server's reference negatives come through a linear scanner: no black level, unit gains.
 const linearScanner: ScannerProfile = {
