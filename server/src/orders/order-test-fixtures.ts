@@ -80,7 +80,7 @@ export async function addTestCatalogue(
 
 /** A small 16-bit TIFF negative of the forward model's outdoor scene, with rebate and sprocket holes. */
 export async function negativeTiff(
-  options: { width?: number; height?: number; seed?: number } = {},
+  options: { width?: number; height?: number; seed?: number; exposureStops?: number } = {},
 ): Promise<Buffer> {
   const neg = demoNegative({
     width: options.width ?? 96,
