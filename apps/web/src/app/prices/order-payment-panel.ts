@@ -1,0 +1,106 @@
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { MatButton } from '@angular/material/button';
+import type { Payment, PaymentStatus } from '@clearbase/contracts';
+import { Session } from '../auth/session';
+import { readProblem } from '../problem/read-problem';
+import { BrowserLocation } from './browser-location';
+import { showMoney } from './money';
+import { PaymentsApi } from './payments-api';
+
+const statusLabels: Record<PaymentStatus, string> = {
+  open: 'Waiting for payment',
+  paid: 'Paid',
+  declined: 'Declined',
+  refunded: 'Refunded',
+  'partly-refunded': 'Partly refunded',
+};
+
+/**
+ * An order's payments: its customer pays on the provider's page (priced there from the price list); managers and
+ * admins refund. Place it on an order's page with `<cb-order-payment-panel [orderId]="id" />`.
+ */
+@Component({
+  selector: 'cb-order-payment-panel',
+  imports: [MatButton],
+  template: `
+    <section class="payment" aria-labelledby="payment-title">
+      <h2 id="payment-title">Payment</h2>
+      @if (problem(); as message) {
+        <div class="cb-problem" role="alert" data-testid="payment-error">{{ message }}</div>
+      }
+      @for (p of payments(); track p.id) {
+        <p data-testid="payment-line">
+          {{ showMoney(p.amountMinor, p.currency) }} · {{ statusLabels[p.status] }}
+          @if (p.refundedMinor > 0) {
+            · {{ showMoney(p.refundedMinor, p.currency) }} refunded
+          }
+          @if (canRefund() && (p.status === 'paid' || p.status === 'partly-refunded')) {
+            <button mat-stroked-button type="button" (click)="refund(p)" data-testid="payment-refund">
+              Refund the rest
+            </button>
+          }
+        </p>
+      } @empty {
+        <p>Not paid yet.</p>
+      }
+      @if (canPay()) {
+        <button mat-flat-button type="button" [disabled]="busy()" (click)="pay()" data-testid="payment-pay">
+          Pay now
+        </button>
+      }
+    </section>
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class OrderPaymentPanel {
+  private readonly api = inject(PaymentsApi);
+  private readonly location = inject(BrowserLocation);
+  private readonly role = inject(Session).role;
+
+  readonly orderId = input.required<number>();
+
+  protected readonly payments = signal<Payment[]>([]);
+  protected readonly busy = signal(false);
+  protected readonly problem = signal<string | null>(null);
+  protected readonly statusLabels = statusLabels;
+  protected readonly showMoney = showMoney;
+  protected readonly canRefund = computed(() => this.role() === 'manager' || this.role() === 'admin');
+  protected readonly canPay = computed(
+    () =>
+      this.role() === 'customer' &&
+      !this.payments().some(
+        (p) => p.status === 'paid' || p.status === 'partly-refunded' || p.status === 'refunded',
+      ),
+  );
+
+  constructor() {
+    effect(() => this.load(this.orderId()));
+  }
+
+  private load(orderId: number): void {
+    this.api.list(orderId).subscribe({
+      next: (list) => this.payments.set(list),
+      error: (err: unknown) => this.problem.set(readProblem(err).message),
+    });
+  }
+
+  protected pay(): void {
+    this.busy.set(true);
+    this.problem.set(null);
+    this.api.checkout(this.orderId()).subscribe({
+      next: (res) => this.location.assign(res.checkoutUrl),
+      error: (err: unknown) => {
+        this.busy.set(false);
+        this.problem.set(readProblem(err).message);
+      },
+    });
+  }
+
+  protected refund(payment: Payment): void {
+    this.problem.set(null);
+    this.api.refund(payment.id).subscribe({
+      next: (updated) => this.payments.update((list) => list.map((p) => (p.id === updated.id ? updated : p))),
+      error: (err: unknown) => this.problem.set(readProblem(err).message),
+    });
+  }
+}
