@@ -10,6 +10,7 @@ import { migrateToLatest } from './db/migrate';
 import { openDatabase } from './db/open-database';
 import { demoPassword, demoUsers, seedDemo } from './demo/seed';
 import { createJobRunner } from './jobs/job-runner';
+import { closeRollStreams } from './jobs/roll-events';
 import { createLogger } from './logging/create-logger';
 import { mailServices } from './mail/mail-services';
 import { paymentFakeServices } from './payment-fake/payment-fake-service';
@@ -109,6 +110,8 @@ async function shutdown(signal: string): Promise<void> {
   logger.info({ signal }, 'shutting down');
   const force = setTimeout(() => server.closeAllConnections(), shutdownGraceMs);
   force.unref();
+  // live roll streams never go idle; end them so the server can close
+  closeRollStreams(db);
   await new Promise<void>((resolve) => {
     server.close(() => resolve());
     server.closeIdleConnections();

@@ -48,3 +48,15 @@ export function onJobQueued(db: Kysely<Database>, listener: () => void): () => v
 export function announceJobQueued(db: Kysely<Database>): void {
   busOf(db).emit('job-queued');
 }
+
+/** Ends every open live stream of this database (on shutdown, so the server need not wait for them). */
+export function closeRollStreams(db: Kysely<Database>): void {
+  busOf(db).emit('close-streams');
+}
+
+/** Runs `listener` when the streams are told to close; returns the function that stops listening. */
+export function onCloseRollStreams(db: Kysely<Database>, listener: () => void): () => void {
+  const bus = busOf(db);
+  bus.on('close-streams', listener);
+  return () => bus.off('close-streams', listener);
+}

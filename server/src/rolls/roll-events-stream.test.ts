@@ -3,7 +3,7 @@ import type { Server } from 'node:http';
 import { pino } from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createJobRunner, type JobRunner } from '../jobs/job-runner';
-import { rollListenerCount } from '../jobs/roll-events';
+import { closeRollStreams, rollListenerCount } from '../jobs/roll-events';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, signedIn, testPassword, type TestApp } from '../test-support/test-app';
 
@@ -139,6 +139,17 @@ describe('a roll’s live events', () => {
     expect(frameStatuses.filter((s) => s === 'done')).toHaveLength(2);
 
     abort.abort();
+    await until(() => rollListenerCount(t.db, roll) === 0);
+  });
+
+  it('ends open streams when the server shuts down', async () => {
+    const res = await fetch(`${base}/api/rolls/${roll}/events`, {
+      headers: { cookie: await cookieFor('cass@lab.test') },
+    });
+    await until(() => rollListenerCount(t.db, roll) === 1);
+    closeRollStreams(t.db);
+    const reader = res.body!.getReader();
+    for (;;) if ((await reader.read()).done) break;
     await until(() => rollListenerCount(t.db, roll) === 0);
   });
 

@@ -13,7 +13,12 @@ import { frameNegative } from '../frames/frame-negative';
 import { listFramesOfRoll, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
 import type { RouteModule } from '../http/route-module';
 import { activeJobOf, insertJob, latestJobOf, rollTarget, toJob } from '../jobs/job-repository';
-import { announceJobQueued, publishRollEvent, subscribeRollEvents } from '../jobs/roll-events';
+import {
+  announceJobQueued,
+  onCloseRollStreams,
+  publishRollEvent,
+  subscribeRollEvents,
+} from '../jobs/roll-events';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { medianBaseOf } from './median-base';
 import { assertRegionInside } from './region-check';
@@ -210,9 +215,11 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
       }
       const heartbeat = setInterval(() => res.write(': heartbeat\n\n'), heartbeatMs);
       heartbeat.unref();
+      const stopClosing = onCloseRollStreams(db, () => res.end());
       const close = () => {
         clearInterval(heartbeat);
         unsubscribe();
+        stopClosing();
       };
       req.on('close', close);
       res.on('error', close);
