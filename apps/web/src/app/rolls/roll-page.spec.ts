@@ -177,11 +177,13 @@ describe('RollPage', () => {
     expect(root.querySelector('[data-testid="frame-1"]')).not.toBeNull();
   });
 
-  it('starts the inversion and offers to cancel it while it runs', async () => {
+  it('starts the inversion with the roll’s levels when asked, and offers to cancel it while it runs', async () => {
     const { fixture, backend, root } = await render(testRollDetail([testFrame(1, 'queued')]));
+    (root.querySelector('[data-testid="levels-roll"] button') as HTMLButtonElement).click();
+    await fixture.whenStable();
     (root.querySelector('[data-testid="invert-roll"]') as HTMLButtonElement).click();
     const req = backend.expectOne('/api/rolls/7/invert');
-    expect(req.request.body).toEqual({ frames: 'pending' });
+    expect(req.request.body).toEqual({ frames: 'pending', levels: 'roll' });
     req.flush(testJob(4, 'queued'), { status: 202, statusText: 'Accepted' });
     await fixture.whenStable();
     backend.expectOne('/api/rolls/7').flush(testRollDetail([testFrame(1, 'queued')], testJob(4, 'queued')));

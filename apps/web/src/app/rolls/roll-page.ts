@@ -11,7 +11,15 @@ import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatOption, MatSelect } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import type { Frame, FrameStatus, Job, PixelRegion, RollBaseRequest, RollEvent } from '@clearbase/contracts';
+import type {
+  Frame,
+  FrameStatus,
+  InvertRollRequest,
+  Job,
+  PixelRegion,
+  RollBaseRequest,
+  RollEvent,
+} from '@clearbase/contracts';
 import {
   catchError,
   concatMap,
@@ -173,6 +181,8 @@ export class RollPage {
   protected readonly selectedId = signal<number | null>(null);
   protected readonly selected = computed(() => this.frames().find((f) => f.id === this.selectedId()) ?? null);
   protected readonly acting = signal(false);
+  /** Whose levels the next inversion uses: each frame's own, or the roll's together. */
+  protected readonly levels = signal<InvertRollRequest['levels']>('frame');
 
   // uploads: every picked file keeps its line for as long as the page is open
   private readonly uploadActions = new Subject<UploadAction>();
@@ -303,7 +313,7 @@ export class RollPage {
     const roll = this.roll();
     if (!roll || this.acting()) return;
     this.acting.set(true);
-    this.api.invert(roll.id, frames).subscribe({
+    this.api.invert(roll.id, { frames, levels: this.levels() }).subscribe({
       next: (job) => {
         this.acting.set(false);
         this.localEvents.next({ type: 'job', job });

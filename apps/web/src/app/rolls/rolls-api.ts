@@ -58,12 +58,12 @@ export class RollsApi {
     });
   }
 
-  /** Starts (or joins) the roll's batch inversion; the server answers 202 with the job. */
-  invert(rollId: number, frames: InvertRollRequest['frames']): Observable<Job> {
-    return this.http.post<Job>(`/api/rolls/${rollId}/invert`, { frames } satisfies Pick<
-      InvertRollRequest,
-      'frames'
-    >);
+  /**
+   * Starts (or joins) the roll's batch inversion; the server answers 202 with the job. `levels` says whose levels set
+   * exposure, neutral balance and black and white points: each frame's own, or the whole roll's together.
+   */
+  invert(rollId: number, request: InvertRollRequest): Observable<Job> {
+    return this.http.post<Job>(`/api/rolls/${rollId}/invert`, request);
   }
 
   cancelJob(jobId: number): Observable<Job> {
