@@ -1,0 +1,136 @@
+import { calibrationRoll, LINEAR_SCANNER, TINTLINE_400, type FilmStock } from '../libs/inversion/src/index';
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openBrowser, type BrowserSession } from './support/browser-session';
+import { startTestServer, type TestServer } from './support/test-server';
+
+const demoPassword = 'clearbase-demo';
+
+// An invented stock whose curves bend inside the bracket, with a tinted base and crosstalk.
+const STOCK: FilmStock = {
+  ...TINTLINE_400,
+  name: 'Browser test 400',
+  gamma: [0.55, 0.62, 0.7],
+  toe: [-2.1, -2.05, -2.0],
+  maxDensity: [2.0, 2.1, 2.2],
+  softness: 0.2,
+};
+
+let server: TestServer;
+let browser: BrowserSession;
+let dir: string;
+let roll: ReturnType<typeof calibrationRoll>;
+let greyPaths: string[];
+let chartPath: string;
+
+/** 16-bit TIFF as a scanner writes it (sharp's TIFF default is JPEG compression, 8-bit: deflate keeps 16 bits). */
+function writeTiff(path: string, data: Uint16Array, width: number, height: number) {
+  return sharp(data, { raw: { width, height, channels: 3 } })
+    .toColourspace('rgb16')
+    .tiff({ compression: 'deflate', predictor: 'horizontal' })
+    .toFile(path);
+}
+
+beforeAll(async () => {
+  dir = await mkdtemp(join(tmpdir(), 'clearbase-calibration-e2e-'));
+  roll = calibrationRoll({
+    stock: STOCK,
+    scanner: LINEAR_SCANNER,
+    stops: Array.from({ length: 15 }, (_, i) => i - 6),
+    greySize: 48,
+    patchSize: 40,
+  });
+  greyPaths = roll.brackets.map((_, i) => join(dir, `grey-${String(i + 1).padStart(2, '0')}.tif`));
+  await Promise.all(
+    roll.brackets.map((b, i) =>
+      writeTiff(greyPaths[i]!, b.negative.data, b.negative.width, b.negative.height),
+    ),
+  );
+  chartPath = join(dir, 'chart.tif');
+  await writeTiff(chartPath, roll.chart.data, roll.chart.width, roll.chart.height);
+  server = await startTestServer();
+  browser = await openBrowser(server.url);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+  if (dir) await rm(dir, { recursive: true, force: true });
+});
+
+/** Where a point of the frame (full-size pixels) is on screen inside a marker's SVG, kept half a pixel inside it. */
+async function onScreen(testId: string, [x, y]: readonly number[], frame: { width: number; height: number }) {
+  await browser.page.getByTestId(testId).scrollIntoViewIfNeeded();
+  const box = (await browser.page.getByTestId(testId).boundingBox())!;
+  const fx = Math.min(frame.width - 0.5, Math.max(0.5, x!));
+  const fy = Math.min(frame.height - 0.5, Math.max(0.5, y!));
+  return { x: box.x + (fx / frame.width) * box.width, y: box.y + (fy / frame.height) * box.height };
+}
+
+describe('calibration', () => {
+  it('an operator uploads a calibration roll, marks the chart by clicking its corners and sees the report with its draft', async () => {
+    const { page } = browser;
+    await page.goto(`${server.url}/sign-in`);
+    await page.getByTestId('sign-in-email').fill('operator@clearbase.test');
+    await page.getByTestId('sign-in-password').fill(demoPassword);
+    await page.getByTestId('sign-in-submit').click();
+    await page.getByTestId('home-greeting').waitFor();
+
+    await page.getByTestId('nav-calibration').click();
+    // the field's floating label lies over the empty select: the click reaches the field, which opens it
+    await page.getByTestId('calibration-stock').click({ force: true });
+    await page.getByRole('option').first().click();
+
+    await page.getByTestId('grey-files').setInputFiles(greyPaths);
+    await page.getByTestId('bracket-table').waitFor();
+    for (const [i, b] of roll.brackets.entries()) await page.getByTestId(`stops-${i}`).fill(String(b.stops));
+
+    // the grey rectangle: dragged over the grey card of the first frame
+    const grey = roll.brackets[0]!.negative;
+    await page.getByTestId('grey-marker').waitFor();
+    const before = await page.getByTestId('grey-region').textContent();
+    const [gx, gy, gw, gh] = roll.greyRegion;
+    const from = await onScreen('grey-marker', [gx, gy], grey);
+    const to = await onScreen('grey-marker', [gx + gw, gy + gh], grey);
+    await page.mouse.move(from.x, from.y);
+    await page.mouse.down();
+    await page.mouse.move(to.x, to.y, { steps: 5 });
+    await page.mouse.up();
+    await page.getByTestId('grey-rectangle').waitFor();
+    expect(await page.getByTestId('grey-region').textContent()).not.toBe(before);
+
+    await page.getByTestId('chart-file').setInputFiles(chartPath);
+    await page.getByTestId('chart-marker').waitFor();
+    for (const corner of roll.chartCorners) {
+      const at = await onScreen('chart-marker', corner, roll.chart);
+      await page.mouse.click(at.x, at.y);
+    }
+    expect(await page.getByTestId('sample-area').count()).toBe(24);
+    expect(await page.getByTestId('corner-hint').textContent()).toContain('All four corners set');
+
+    await page.getByTestId('calibration-submit').click();
+    await page.getByTestId('report-title').waitFor({ timeout: 30_000 });
+
+    for (const [c, channel] of (['red', 'green', 'blue'] as const).entries()) {
+      const gamma = Number(await page.getByTestId(`gamma-${channel}`).textContent());
+      // γ of the forward model's stock within 3 %
+      expect(Math.abs(gamma / STOCK.gamma[c]! - 1)).toBeLessThan(0.03);
+    }
+    expect(await page.getByTestId('ei').textContent()).toMatch(/EI \d+/);
+    expect(await page.getByTestId('delta-e-row').count()).toBe(24);
+    expect(await page.getByTestId('swatch-reference').count()).toBe(24);
+
+    const href = await page.getByTestId('draft-link').getAttribute('href');
+    expect(href).toMatch(/^\/catalogue\/versions\/\d+$/);
+    const versionId = Number(href!.split('/').pop());
+    const status = await page.evaluate(async (id) => {
+      const res = await fetch(`/api/profile-versions/${id}`);
+      return ((await res.json()) as { version: { status: string } }).version.status;
+    }, versionId);
+    expect(status).toBe('draft');
+    expect(await page.getByTestId('pdf-link').getAttribute('href')).toMatch(/\/report\.pdf$/);
+  });
+});
