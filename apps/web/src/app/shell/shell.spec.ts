@@ -62,6 +62,7 @@ describe('Shell navigation', () => {
       'nav-orders',
       'nav-catalogue',
       'nav-scanners',
+      'nav-calibration',
       'nav-prices',
       'nav-users',
       'nav-audit',
