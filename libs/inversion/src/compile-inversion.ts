@@ -16,8 +16,8 @@ const OUTPUT_LUT_SIZE = 8192;
 
 /**
  * A compiled inversion: plain data and typed arrays only, so it survives structuredClone / postMessage.
- * Per pixel: D = densityLut[c·65536 + count]; D' = M·D; e = interp(exposureLut, D'); saturation;
- * code = clip(interp(outputLut, e), 0, max code).
+ * Per pixel: D = densityLut[c·65536 + count]; D' = M·D; e = interp(exposureLut, D'); the change of primaries (when
+ * the film's are not sRGB); saturation; code = clip(interp(outputLut, e), 0, max code).
  */
 export interface InversionPlan {
   outputBits: 8 | 16;
@@ -30,6 +30,12 @@ export interface InversionPlan {
   exposureLutSize: number;
   densityMin: number;
   densityMax: number;
+  /**
+   * Row-major 3×3 from the film's capture primaries to linear sRGB, applied in linear light (10^e) after the exposure
+   * table, or null when the film records in sRGB primaries. It mixes exposures, not densities, so it cannot fold into
+   * the crosstalk matrix; a plan with it has no `directLut` and no `foldedLut`. Absent (older plans) reads as null.
+   */
+  primaries?: Float64Array | null;
   /** Saturation factor in log exposure around the luminance-weighted mean; 1 = none. */
   saturation: number;
   weights: [number, number, number];
@@ -74,6 +80,7 @@ export function compileInversion(params: InversionParams): InversionPlan {
     exposureLutSize: EXPOSURE_TABLE_SIZE,
     densityMin: dMin,
     densityMax: dMax,
+    primaries: resolved.primaries ? Float64Array.from(resolved.primaries.flat()) : null,
     saturation: resolved.saturation,
     weights: [...LUMINANCE_WEIGHTS],
     outputLut,
@@ -83,6 +90,7 @@ export function compileInversion(params: InversionParams): InversionPlan {
     directLut: null,
     foldedLut: null,
   };
+  if (plan.primaries) return plan;
   if (resolved.saturation === 1) plan.foldedLut = composeTables(plan);
   if (identity && resolved.saturation === 1) {
     // Every stage is per channel: fold the whole chain into one table per channel, through the same tables.
@@ -135,6 +143,10 @@ export function applyInversion(
     );
   const start = firstPixel * 3,
     end = (firstPixel + pixelCount) * 3;
+  if (plan.primaries) {
+    invertWithPrimaries(plan, plan.primaries, input, output, start, end);
+    return;
+  }
   const direct = plan.directLut;
   if (direct) {
     for (let i = start; i < end; i += 3) {
@@ -281,6 +293,142 @@ function invertTables(
     x = x < oTop ? x : oTop;
     k = x | 0;
     let v = ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!);
+    output[i] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
+    x = (mean + s * eg - rMin) * rScale;
+    x = x > 0 ? x : 0;
+    x = x < oTop ? x : oTop;
+    k = x | 0;
+    v = ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!);
+    output[i + 1] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
+    x = (mean + s * eb - rMin) * rScale;
+    x = x > 0 ? x : 0;
+    x = x < oTop ? x : oTop;
+    k = x | 0;
+    v = ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!);
+    output[i + 2] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
+  }
+}
+
+/**
+ * Entries of the table of log2 of a double's mantissa, 1 + f for f in [0, 1]: 4096 steps, linearly interpolated,
+ * err by under 2e-8 (h²/8 · max |log2''| = 2^-24 / 8 · 1.44); the mantissa's bits below the top 20 are dropped,
+ * under 1.4e-6 in log2, far under a 16-bit code (sized by the equality test).
+ */
+const MANTISSA_STEPS = 4096;
+const MANTISSA_SCALE = MANTISSA_STEPS / 0x100000;
+/** log10 2, to turn log2 into log10. */
+const LOG10_2 = Math.log10(2);
+const MANTISSA_LOG2 = Float64Array.from({ length: MANTISSA_STEPS + 2 }, (_, i) =>
+  Math.log2(1 + Math.min(i, MANTISSA_STEPS) / MANTISSA_STEPS),
+);
+
+/**
+ * The table path with a change of primaries over samples [start, end): densities, crosstalk, exposure, then in linear
+ * light (grey = 1) the primaries matrix and back to log (a component at or below zero held to the range's floor, as
+ * `applyPrimaries`), saturation, output.
+ */
+function invertWithPrimaries(
+  plan: InversionPlan,
+  p: Float64Array,
+  input: Uint16Array,
+  output: Uint8Array | Uint16Array,
+  start: number,
+  end: number,
+): void {
+  const dl = plan.densityLut,
+    el = plan.exposureLut,
+    ol = plan.outputLut;
+  const n = plan.exposureLutSize,
+    eTop = n - 1 - 1e-6;
+  const dMin = plan.densityMin,
+    dScale = (n - 1) / (plan.densityMax - dMin);
+  const rMin = plan.relativeMin,
+    rMax = plan.relativeMax,
+    rScale = (plan.outputLutSize - 1) / (rMax - rMin),
+    oTop = plan.outputLutSize - 1 - 1e-6;
+  const floor = 10 ** rMin;
+  const s = plan.saturation;
+  const [wr, wg, wb] = plan.weights;
+  const maxCode = plan.outputBits === 8 ? 255 : 65535;
+  const m = plan.crosstalk ?? new Float32Array([1, 0, 0, 0, 1, 0, 0, 0, 1]);
+  const p0 = p[0]!,
+    p1 = p[1]!,
+    p2 = p[2]!,
+    p3 = p[3]!,
+    p4 = p[4]!,
+    p5 = p[5]!,
+    p6 = p[6]!,
+    p7 = p[7]!,
+    p8 = p[8]!;
+  // The exposure table in linear light, made per call (3 × 32768 exponentials, a few milliseconds): the loop then
+  // interpolates linear exposure directly, as exact as interpolating the log (the steps are 0.00015 D).
+  const linear = new Float64Array(el.length);
+  for (let j = 0; j < el.length; j++) linear[j] = 10 ** el[j]!;
+  const m0 = m[0]! * dScale,
+    m1 = m[1]! * dScale,
+    m2 = m[2]! * dScale,
+    m3 = m[3]! * dScale,
+    m4 = m[4]! * dScale,
+    m5 = m[5]! * dScale,
+    m6 = m[6]! * dScale,
+    m7 = m[7]! * dScale,
+    m8 = m[8]! * dScale;
+  const off = -dMin * dScale,
+    n2 = 2 * n;
+  const ml = MANTISSA_LOG2;
+  // One double and its two 32-bit words (little-endian, as every platform the engine runs on): words[1] holds the
+  // sign, the exponent and the mantissa's top 20 bits.
+  const bits = new Float64Array(1),
+    words = new Uint32Array(bits.buffer);
+  for (let i = start; i < end; i += 3) {
+    const d0 = dl[input[i]!]!,
+      d1 = dl[65536 + input[i + 1]!]!,
+      d2 = dl[131072 + input[i + 2]!]!;
+    // Written out by hand as in invertTables: no calls in the loop but the three logarithms.
+    let x = m0 * d0 + m1 * d1 + m2 * d2 + off;
+    x = x > 0 ? x : 0;
+    x = x < eTop ? x : eTop;
+    let k = x | 0;
+    const lr = linear[k]! + (x - k) * (linear[k + 1]! - linear[k]!);
+    x = m3 * d0 + m4 * d1 + m5 * d2 + off;
+    x = x > 0 ? x : 0;
+    x = x < eTop ? x : eTop;
+    k = (x | 0) + n;
+    const lg = linear[k]! + (x + n - k) * (linear[k + 1]! - linear[k]!);
+    x = m6 * d0 + m7 * d1 + m8 * d2 + off;
+    x = x > 0 ? x : 0;
+    x = x < eTop ? x : eTop;
+    k = (x | 0) + n2;
+    const lb = linear[k]! + (x + n2 - k) * (linear[k + 1]! - linear[k]!);
+    // log10 by the number's bits: exponent, plus log2 of the mantissa from a table (see MANTISSA_LOG2).
+    let v = p0 * lr + p1 * lg + p2 * lb;
+    bits[0] = v > floor ? v : floor;
+    let hi = words[1]!;
+    let t = (hi & 0xfffff) * MANTISSA_SCALE;
+    let q = t | 0;
+    let er = ((hi >>> 20) - 1023 + ml[q]! + (t - q) * (ml[q + 1]! - ml[q]!)) * LOG10_2;
+    v = p3 * lr + p4 * lg + p5 * lb;
+    bits[0] = v > floor ? v : floor;
+    hi = words[1]!;
+    t = (hi & 0xfffff) * MANTISSA_SCALE;
+    q = t | 0;
+    let eg = ((hi >>> 20) - 1023 + ml[q]! + (t - q) * (ml[q + 1]! - ml[q]!)) * LOG10_2;
+    v = p6 * lr + p7 * lg + p8 * lb;
+    bits[0] = v > floor ? v : floor;
+    hi = words[1]!;
+    t = (hi & 0xfffff) * MANTISSA_SCALE;
+    q = t | 0;
+    let eb = ((hi >>> 20) - 1023 + ml[q]! + (t - q) * (ml[q + 1]! - ml[q]!)) * LOG10_2;
+    er = er < rMax ? er : rMax;
+    eg = eg < rMax ? eg : rMax;
+    eb = eb < rMax ? eb : rMax;
+    // Saturation always applied (s = 1 leaves e as it is to the last bit or two): no branch in the loop.
+    const mean = (1 - s) * (wr * er + wg * eg + wb * eb);
+    x = (mean + s * er - rMin) * rScale;
+    x = x > 0 ? x : 0;
+    x = x < oTop ? x : oTop;
+    k = x | 0;
+    v = ol[k]! + (x - k) * (ol[k + 1]! - ol[k]!);
     output[i] = v <= 0 ? 0 : v >= maxCode ? maxCode : (v + 0.5) | 0;
     x = (mean + s * eg - rMin) * rScale;
     x = x > 0 ? x : 0;

@@ -3,7 +3,8 @@ import type { Region, RgbImage } from './film-base';
 import { adaptD50ToD65, D50_WHITE, D65_WHITE, labToXyz, xyzToLab } from './lab';
 import { stopsToLogExposure } from './printer-points';
 import { encodeScannerValue, FULL_SCALE_16 } from './scanner-input';
-import { invert3, LINEAR_SRGB_TO_XYZ, multiply3, xyzToLinearSrgb, type Matrix3, type Rgb } from './srgb';
+import { CAPTURE_PRIMARIES_TO_XYZ, LINEAR_SRGB_TO_WIDE } from './capture-primaries';
+import { invert3, multiply3, xyzToLinearSrgb, type Matrix3, type Rgb } from './srgb';
 
 /** An invented film stock for the forward model: per-channel curve shape, fog, base and dye crosstalk. */
 export interface FilmStock {
@@ -32,24 +33,15 @@ export interface FilmStock {
 }
 
 /**
- * A wide-gamut film sensitivity: linear sRGB → linear ITU-R BT.2020 RGB (ITU-R BT.2087-0 (2015), the
- * BT.709 → BT.2020 matrix; same D65 white, so neutrals stay neutral). Every chart colour exposes it positively.
- * Scene-linear values recovered from such a film are in these primaries: `WIDE_GAMUT_TO_XYZ` takes them to XYZ.
+ * A wide-gamut film sensitivity: linear sRGB → linear ITU-R BT.2020 RGB (`LINEAR_SRGB_TO_WIDE`, ITU-R BT.2087-0
+ * (2015); same D65 white, so neutrals stay neutral). Every chart colour exposes it positively. Scene-linear values
+ * recovered from such a film are in these primaries: `WIDE_GAMUT_TO_XYZ` takes them to XYZ, and its profile says
+ * `capturePrimaries: 'wide'` so the inversion renders them in sRGB primaries.
  */
-export const WIDE_GAMUT_SENSITIVITY: Matrix3 = [
-  [0.6274, 0.3293, 0.0433],
-  [0.0691, 0.9195, 0.0114],
-  [0.0164, 0.088, 0.8956],
-];
+export const WIDE_GAMUT_SENSITIVITY: Matrix3 = LINEAR_SRGB_TO_WIDE;
 
 /** Linear RGB in the wide-gamut film's primaries → CIE XYZ (D65): the sRGB matrix after the sensitivity's inverse. */
-export const WIDE_GAMUT_TO_XYZ: Matrix3 = multiply3x3(LINEAR_SRGB_TO_XYZ, invert3(WIDE_GAMUT_SENSITIVITY));
-
-function multiply3x3(a: Matrix3, b: Matrix3): Matrix3 {
-  return a.map((row) =>
-    [0, 1, 2].map((k) => row[0] * b[0][k]! + row[1] * b[1][k]! + row[2] * b[2][k]!),
-  ) as Matrix3;
-}
+export const WIDE_GAMUT_TO_XYZ: Matrix3 = CAPTURE_PRIMARIES_TO_XYZ.wide;
 
 // Invented stocks for tests and the demo. Gammas around 0.6 (common practice of the trade); toe, shoulder,
 // fog and base densities are invented values in ranges typical of colour negative film, from memory.
@@ -141,7 +133,13 @@ export function profileForStock(stock: FilmStock): ProfileDocument {
     balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
     tone: { contrast: 1.15, blackPoint: 0.002, whitePoint: 1.1 },
     saturation: 1,
+    // A film of the wide sensitivity says so; one of sRGB sensitivity (absent) keeps the older document's shape.
+    ...(sameMatrix(stock.sensitivity, LINEAR_SRGB_TO_WIDE) ? { capturePrimaries: 'wide' as const } : {}),
   };
+}
+
+function sameMatrix(a: Matrix3 | undefined, b: Matrix3): boolean {
+  return a !== undefined && a.every((row, r) => row.every((x, k) => x === b[r]![k]));
 }
 
 /** A scene in linear sRGB (D65), width × height × 3 floats. */

@@ -15,3 +15,4 @@ export * from './frame-levels';
 export * from './reference-linear';
 export * from './calibration/index';
 export * from './neutral-picker';
+export * from './capture-primaries';

@@ -1,4 +1,5 @@
 import type { Balance, ProfileDocument, ScannerProfile } from '@clearbase/contracts';
+import { capturePrimariesToSrgb } from './capture-primaries';
 import { densityAboveBase } from './density';
 import { createMonotoneCurve, type MonotoneCurve } from './monotone-curve';
 import { addBalances, balanceToLogExposure, stopsToLogExposure } from './printer-points';
@@ -16,7 +17,7 @@ export const LUMINANCE_WEIGHTS: Rgb = [0.2126, 0.7152, 0.0722];
 /** The parts of a stock profile the inversion uses. */
 export type InversionProfile = Pick<
   ProfileDocument,
-  'curves' | 'crosstalk' | 'balance' | 'tone' | 'saturation'
+  'curves' | 'crosstalk' | 'balance' | 'tone' | 'saturation' | 'capturePrimaries'
 >;
 
 /**
@@ -45,6 +46,11 @@ export interface ResolvedInversion {
   crosstalk: Matrix3;
   /** Added to the recovered log exposure per channel: balance + exposure − E_mid. */
   offset: Rgb;
+  /**
+   * Film's capture primaries → linear sRGB, applied to the recovered exposures (in linear light) before saturation
+   * and tone; null when the film records in sRGB primaries (the profile says nothing, or 'srgb').
+   */
+  primaries: Matrix3 | null;
   saturation: number;
   /** Relative log exposure → output code value (not rounded), clipped to 0…maxCode. */
   encode: (relativeLogExposure: number) => number;
@@ -118,6 +124,7 @@ export function resolveInversion(params: InversionParams): ResolvedInversion {
     curves: [curve('red'), curve('green'), curve('blue')],
     crosstalk: profile.crosstalk,
     offset: [balance[0] + shift, balance[1] + shift, balance[2] + shift],
+    primaries: capturePrimariesToSrgb(profile.capturePrimaries),
     saturation: params.render === 'reference' ? 1 : profile.saturation,
     encode,
     encodeUnclipped,
@@ -145,16 +152,42 @@ export function pixelDensities(
 }
 
 /**
- * Log exposure relative to E_mid per channel (after balance, exposure and saturation) of one pixel.
+ * Log exposure relative to E_mid per channel as the film recorded it, in its capture primaries (after balance and
+ * exposure; before the change of primaries and saturation) of one pixel, held to the relative range.
+ * @example filmLogExposure(resolveInversion(params), params, [30000, 30000, 30000])
+ */
+export function filmLogExposure(resolved: ResolvedInversion, params: InversionParams, counts: Rgb): Rgb {
+  const dp = pixelDensities(params, resolved.crosstalk, counts);
+  const [lo, hi] = RELATIVE_LOG_EXPOSURE_RANGE;
+  return [0, 1, 2].map((c) =>
+    clamp(resolved.curves[c]!.inverse(dp[c]!) + resolved.offset[c]!, lo, hi),
+  ) as Rgb;
+}
+
+/**
+ * Log exposure relative to E_mid per channel (after balance, exposure, change of primaries and saturation) of one pixel.
  * @example relativeLogExposure(resolveInversion(params), params, [30000, 30000, 30000])
  */
 export function relativeLogExposure(resolved: ResolvedInversion, params: InversionParams, counts: Rgb): Rgb {
-  const dp = pixelDensities(params, resolved.crosstalk, counts);
+  const e = filmLogExposure(resolved, params, counts);
+  return applySaturation(resolved.primaries ? applyPrimaries(e, resolved.primaries) : e, resolved.saturation);
+}
+
+/**
+ * Changes the primaries of relative log exposures: to linear light (grey = 1), the matrix, back to log. A colour
+ * the output primaries cannot hold (a component at or below zero) is held to the relative range's floor.
+ * @example applyPrimaries([0, 0, 0], WIDE_TO_LINEAR_SRGB) // ≈ [0, 0, 0]: grey stays grey
+ */
+export function applyPrimaries(e: Rgb, m: Matrix3): Rgb {
   const [lo, hi] = RELATIVE_LOG_EXPOSURE_RANGE;
-  const e = [0, 1, 2].map((c) =>
-    clamp(resolved.curves[c]!.inverse(dp[c]!) + resolved.offset[c]!, lo, hi),
-  ) as Rgb;
-  return applySaturation(e, resolved.saturation);
+  const floor = 10 ** lo;
+  const r = 10 ** e[0],
+    g = 10 ** e[1],
+    b = 10 ** e[2];
+  return [0, 1, 2].map((k) => {
+    const v = m[k]![0] * r + m[k]![1] * g + m[k]![2] * b;
+    return clamp(Math.log10(v > floor ? v : floor), lo, hi);
+  }) as Rgb;
 }
 
 /**

@@ -69,7 +69,20 @@ export const toneSchema = z
   });
 export type Tone = z.infer<typeof toneSchema>;
 
-/** A versioned stock profile: everything needed to invert one film stock. */
+/**
+ * The primaries a film records its three exposures in: 'srgb' (the sRGB / BT.709 primaries) or 'wide' (the
+ * ITU-R BT.2020 primaries, a film of wide-gamut sensitivity). Same D65 white for both.
+ */
+export const capturePrimariesSchema = z.enum(['srgb', 'wide']);
+export type CapturePrimaries = z.infer<typeof capturePrimariesSchema>;
+
+/**
+ * A versioned stock profile: everything needed to invert one film stock.
+ *
+ * Schema version 1 grows only by optional fields; a document without one reads as it always did:
+ * - `capturePrimaries` (optional, added later in version 1): absent reads as 'srgb', the recovered exposures are
+ *   taken as linear sRGB and rendered exactly as before; 'wide' converts them from BT.2020 to sRGB primaries.
+ */
 export const profileDocumentSchema = z.strictObject({
   schemaVersion: z.literal(1),
   id: z.string().min(1),
@@ -87,6 +100,8 @@ export const profileDocumentSchema = z.strictObject({
   tone: toneSchema,
   /** Saturation factor, 1 = unchanged. */
   saturation: z.number().min(0).max(3),
+  /** Primaries of the film's recorded exposures; absent = 'srgb'. */
+  capturePrimaries: capturePrimariesSchema.optional(),
 });
 export type ProfileDocument = z.infer<typeof profileDocumentSchema>;
 

@@ -82,6 +82,7 @@ export function createPreviewPlanBuilder(
       ...template,
       crosstalk: identity ? null : Float32Array.from(m.flat()),
       exposureLut,
+      primaries: resolved.primaries ? Float64Array.from(resolved.primaries.flat()) : null,
       saturation: resolved.saturation,
       outputLut,
       outputLutSize: PREVIEW_OUTPUT_LUT_SIZE,
