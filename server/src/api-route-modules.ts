@@ -1,6 +1,8 @@
 import { auditRoutes } from './audit/audit-routes';
 import { calibrationsRoutes } from './calibrations/calibrations-routes';
 import { devMailboxRoutes } from './dev-mailbox/dev-mailbox-routes';
+import { downloadsRoutes } from './downloads/downloads-routes';
+import { markReadyRoutes } from './downloads/mark-ready-routes';
 import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
 import { paymentsRoutes } from './payments/payments-routes';
@@ -45,4 +47,6 @@ export const apiRouteModules: readonly RouteModule[] = [
   adjustmentsRoutes,
   calibrationsRoutes,
   tuningRoutes,
+  downloadsRoutes,
+  markReadyRoutes,
 ];

@@ -10,3 +10,4 @@ export * from './orders/index';
 export * from './customers/index';
 export * from './calibrations/calibration';
 export * from './tuning/tuning';
+export * from './downloads/downloads';

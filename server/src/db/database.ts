@@ -1,6 +1,7 @@
 import type { Role } from '@clearbase/contracts';
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
 import type { CalibrationsTable } from '../calibrations/calibrations-table';
+import type { DownloadTokensTable } from '../downloads/download-tokens-table';
 import type { OrderTables } from '../orders/order-tables';
 import type { OutboxTable } from '../mail/outbox-table';
 import type { PaymentEventsTable, PaymentsTable } from '../payments/payment-tables';
@@ -134,6 +135,7 @@ export interface Database {
   jobs: OrderTables['jobs'];
   calibrations: CalibrationsTable;
   frame_reviews: FrameReviewsTable;
+  download_tokens: DownloadTokensTable;
 }
 
 export type UserRow = Selectable<UsersTable>;

@@ -14,8 +14,14 @@ const samples: { [K in MailKind]: MailTemplateData[K] } = {
   'password-reset': { name: 'Cass', url: 'https://lab.test/reset-password?token=t', expiresMinutes: 60 },
   'account-created': { name: 'Cass', url: 'https://lab.test/reset-password?token=t', expiresHours: 72 },
   'payment-receipt': { name: 'Cass', amount: '€23.00', reference: 'order 4' },
-  'order-received': { name: 'Cass', reference: 'order 4', rolls: 2, url: 'https://lab.test/orders/4' },
-  'scans-ready': { name: 'Cass', reference: 'order 4', url: 'https://lab.test/orders/4', expiresDays: 14 },
+  'order-received': { name: 'Cass', reference: 'order 4', url: 'https://lab.test/orders/4' },
+  'scans-ready': {
+    name: 'Cass',
+    reference: 'order 4',
+    url: 'https://lab.test/api/downloads/abc',
+    galleryUrl: 'https://lab.test/orders/4/gallery',
+    expiresDays: 7,
+  },
 };
 
 describe('mail templates', () => {

@@ -9,8 +9,8 @@ export interface MailTemplateData {
   'password-reset': { name: string; url: string; expiresMinutes: number };
   'account-created': { name: string; url: string; expiresHours: number };
   'payment-receipt': { name: string; amount: string; reference: string };
-  'order-received': { name: string; reference: string; rolls: number; url: string };
-  'scans-ready': { name: string; reference: string; url: string; expiresDays: number };
+  'order-received': { name: string; reference: string; url: string };
+  'scans-ready': { name: string; reference: string; url: string; galleryUrl: string; expiresDays: number };
 }
 export type MailKind = keyof MailTemplateData;
 
@@ -74,7 +74,7 @@ const templates: { [K in MailKind]: Template<K> } = {
       subject: `We have your order: ${d.reference}`,
       greetingName: d.name,
       paragraphs: [
-        `${lab.name} has ${d.reference}, ${d.rolls} roll${d.rolls === 1 ? '' : 's'}.`,
+        `${lab.name} has received ${d.reference}. Send or bring us your film, with the order’s number on the parcel.`,
         'We write again when your scans are ready. You can follow each step on the order’s page.',
       ],
       action: { label: 'Follow my order', url: d.url },
@@ -83,9 +83,14 @@ const templates: { [K in MailKind]: Template<K> } = {
     layMail(lab, {
       subject: `Your scans are ready: ${d.reference}`,
       greetingName: d.name,
-      paragraphs: [`The scans of ${d.reference} are ready to view and download.`],
-      action: { label: 'See and download my scans', url: d.url },
-      after: [`The download link works for ${d.expiresDays} days; after that, sign in to get a fresh one.`],
+      paragraphs: [
+        `The scans of ${d.reference} are ready to view and download.`,
+        `See them one by one in your gallery: ${d.galleryUrl}`,
+      ],
+      action: { label: 'Download all my scans', url: d.url },
+      after: [
+        `Sign in first: the link works only for your account, for ${d.expiresDays} days; after that the gallery gives you a fresh one.`,
+      ],
     }),
 };
 

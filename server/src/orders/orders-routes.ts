@@ -8,6 +8,7 @@ import {
   updateOrderStatusRequestSchema,
 } from '@clearbase/contracts';
 import { AppError } from '../errors/app-error';
+import { enqueueTemplatedMail } from '../mail/outbox-repository';
 import type { RouteModule } from '../http/route-module';
 import {
   currentPublishedVersion,
@@ -26,7 +27,7 @@ import { recordOrderAudit } from './record-order-audit';
 const everyone = ['customer', ...staffRoles] as const;
 
 /** Orders and the rolls on them: customers see and place only their own, staff see all. */
-export const ordersRoutes: RouteModule = (api, { db, clock }) => {
+export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
   api.define(
     {
       method: 'get',
@@ -77,6 +78,18 @@ export const ordersRoutes: RouteModule = (api, { db, clock }) => {
           target: `order:${row.id}`,
           details: { after: order },
         });
+        const customer = (await findUserById(trx, customerId))!;
+        await enqueueTemplatedMail(
+          trx,
+          customer.email,
+          'order-received',
+          {
+            name: customer.name,
+            reference: `order ${order.id}`,
+            url: `${config.publicUrl}/orders/${order.id}`,
+          },
+          at,
+        );
         return order;
       });
       res.status(201).json(order);

@@ -1,0 +1,43 @@
+import { z } from 'zod';
+import { outputFormatSchema } from '../orders/order';
+
+/** A signed link to an order's finished scans, as the API hands it out. */
+export const downloadLinkSchema = z.object({
+  /** Absolute URL of the whole order as a zip; add `?frame=ID` for one frame. */
+  url: z.string(),
+  expiresAt: z.string(),
+});
+export type DownloadLink = z.infer<typeof downloadLinkSchema>;
+
+/** `?frame=ID` on a download link: one frame instead of the whole order. */
+export const downloadQuerySchema = z.strictObject({
+  frame: z.coerce.number().int().positive('Expected a whole frame id').optional(),
+});
+export type DownloadQuery = z.infer<typeof downloadQuerySchema>;
+
+export const downloadTokenParamsSchema = z.object({
+  token: z.string().min(1).max(200),
+});
+
+/** One finished frame of an order's gallery. */
+export const galleryFrameSchema = z.object({
+  id: z.number().int().positive(),
+  rollId: z.number().int().positive(),
+  /** Position of the roll in the order, from 1. */
+  rollNumber: z.number().int().positive(),
+  index: z.number().int().min(0),
+  fileName: z.string(),
+  width: z.number().int().positive(),
+  height: z.number().int().positive(),
+  thumbnailUrl: z.string(),
+  previewUrl: z.string(),
+  /** Full-size files, one per format made: `/api/frames/ID/output?format=…`. */
+  downloads: z.array(z.object({ format: outputFormatSchema, url: z.string() })),
+});
+export type GalleryFrame = z.infer<typeof galleryFrameSchema>;
+
+export const galleryResponseSchema = z.object({
+  orderId: z.number().int().positive(),
+  frames: z.array(galleryFrameSchema),
+});
+export type GalleryResponse = z.infer<typeof galleryResponseSchema>;

@@ -1,0 +1,117 @@
+import { idParamsSchema, staffRoles } from '@clearbase/contracts';
+import type { Kysely } from 'kysely';
+import type { Database } from '../db/database';
+import { AppError } from '../errors/app-error';
+import type { RouteModule } from '../http/route-module';
+import { enqueueTemplatedMail } from '../mail/outbox-repository';
+import { loadOrderFor } from '../orders/order-access';
+import { findOrderById, setOrderStatus, toOrder } from '../orders/order-repository';
+import { recordOrderAudit } from '../orders/record-order-audit';
+import { findUserById } from '../users/user-repository';
+import { downloadLinkDays, downloadLinkValidMs, downloadUrl } from './download-link-validity';
+import { insertDownloadToken } from './download-token-repository';
+
+/** Each roll of the order that is not yet approved, with the reason, in roll order. */
+export async function rollsNotApproved(
+  db: Kysely<Database>,
+  orderId: number,
+): Promise<{ rollId: number; rollNumber: number; reason: string }[]> {
+  const rolls = await db
+    .selectFrom('rolls')
+    .select('id')
+    .where('order_id', '=', orderId)
+    .orderBy('id')
+    .execute();
+  const waiting: { rollId: number; rollNumber: number; reason: string }[] = [];
+  for (const [i, roll] of rolls.entries()) {
+    const frames = await db
+      .selectFrom('frames')
+      .leftJoin('frame_reviews', 'frame_reviews.frame_id', 'frames.id')
+      .select(['frames.id', 'frame_reviews.decision'])
+      .where('frames.roll_id', '=', roll.id)
+      .execute();
+    const open = frames.filter((f) => f.decision !== 'approved' && f.decision !== 'excluded').length;
+    if (frames.length === 0) waiting.push({ rollId: roll.id, rollNumber: i + 1, reason: 'has no scans yet' });
+    else if (open > 0) {
+      waiting.push({
+        rollId: roll.id,
+        rollNumber: i + 1,
+        reason: `has ${open} frame${open === 1 ? '' : 's'} not approved`,
+      });
+    }
+  }
+  return waiting;
+}
+
+/** Staff tell the customer an order is ready: status `ready` and the scans-ready mail with a download link. */
+export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
+  api.define(
+    {
+      method: 'post',
+      path: '/api/orders/:id/ready',
+      roles: staffRoles,
+      params: idParamsSchema,
+      summary: 'Mark an order ready once every roll is approved; mails the customer a download link',
+    },
+    async (_req, res, { params, user }) => {
+      const order = await loadOrderFor(db, params.id, user!);
+      if (order.status === 'delivered' || order.status === 'cancelled') {
+        throw new AppError(
+          'order-closed',
+          409,
+          `Order ${order.id} is ${order.status}; it cannot be marked ready.`,
+        );
+      }
+      if (order.roll_count === 0) {
+        throw new AppError('order-not-approved', 409, `Order ${order.id} has no rolls to deliver.`);
+      }
+      const waiting = await rollsNotApproved(db, order.id);
+      if (waiting.length > 0) {
+        throw new AppError(
+          'order-not-approved',
+          409,
+          `Order ${order.id} is not ready: ${waiting.map((w) => `roll ${w.rollNumber} ${w.reason}`).join('; ')}.`,
+          waiting.map((w) => ({ path: `rolls.${w.rollId}`, message: `Roll ${w.rollNumber} ${w.reason}` })),
+        );
+      }
+      const customer = (await findUserById(db, order.customer_id))!;
+      const updated = await db.transaction().execute(async (trx) => {
+        const at = clock.now();
+        if (order.status !== 'ready') await setOrderStatus(trx, order.id, 'ready', at);
+        const { token } = await insertDownloadToken(trx, {
+          orderId: order.id,
+          by: user!.id,
+          at,
+          validMs: downloadLinkValidMs,
+        });
+        await enqueueTemplatedMail(
+          trx,
+          customer.email,
+          'scans-ready',
+          {
+            name: customer.name,
+            reference: `order ${order.id}`,
+            url: downloadUrl(config.publicUrl, token),
+            galleryUrl: `${config.publicUrl}/orders/${order.id}/gallery`,
+            expiresDays: downloadLinkDays,
+          },
+          at,
+        );
+        await recordOrderAudit(trx, {
+          at,
+          actor: user!,
+          action: 'order-status-changed',
+          target: `order:${order.id}`,
+          details: {
+            before: order.status,
+            after: 'ready',
+            because: 'marked ready',
+            mailedTo: customer.email,
+          },
+        });
+        return toOrder((await findOrderById(trx, order.id))!);
+      });
+      res.json(updated);
+    },
+  );
+};
