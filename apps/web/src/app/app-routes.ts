@@ -76,6 +76,13 @@ export const appRoutes: Routes = [
         loadChildren: () => import('./orders/orders-routes').then((m) => m.ordersRoutes),
       },
       {
+        path: 'rolls/:id/tune',
+        title: 'Tuning · Clearbase',
+        canActivate: [roleGuard],
+        data: { roles: ['operator', 'manager', 'admin'] },
+        loadComponent: () => import('./roll-workspace/roll-workspace-page').then((m) => m.RollWorkspacePage),
+      },
+      {
         path: 'rolls',
         canActivateChild: [roleGuard],
         data: { roles: ['operator', 'manager', 'admin'] },

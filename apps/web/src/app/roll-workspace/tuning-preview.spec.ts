@@ -1,4 +1,4 @@
-import type { Adjustments } from '@clearbase/contracts';
+import { sumAdjustments as contractsSum, type Adjustments } from '@clearbase/contracts';
 import {
   exposeNegative,
   greySteps,
@@ -12,7 +12,13 @@ import {
   type Rgb,
 } from '@clearbase/inversion';
 import { describe, expect, it } from 'vitest';
-import { previewParams, previewProfile, serverRenderParams, stopsAsPoints } from './tuning-preview';
+import {
+  previewParams,
+  previewProfile,
+  serverRenderParams,
+  stopsAsPoints,
+  sumAdjustments,
+} from './tuning-preview';
 
 const profile = {
   ...profileForStock(POLYCLEAR_200),
@@ -48,6 +54,10 @@ describe('the tuning preview', () => {
     expect(folded.balance.magentaGreen).toBeCloseTo(-2 + 4 + 3 + grey.magentaGreen + lift, 10);
     expect(folded.balance.yellowBlue).toBeCloseTo(3 - 1 + 0 + grey.yellowBlue + lift, 10);
     expect(folded.tone.contrast).toBe(1.2);
+  });
+
+  it('sums as the contracts’ sum does', () => {
+    expect(sumAdjustments(profile, roll, frame)).toEqual(contractsSum(profile, roll, frame));
   });
 
   it('counts a stop as 12.04 printer points (log10 2 / 0.025, common practice of the trade, from memory)', () => {

@@ -1,5 +1,4 @@
 import type { Adjustments, Balance, ProfileDocument, ScannerProfile } from '@clearbase/contracts';
-import { sumAdjustments } from '@clearbase/contracts';
 import {
   addBalances,
   levelsToTone,
@@ -11,6 +10,22 @@ import {
   type InversionProfile,
   type Rgb,
 } from '@clearbase/inversion';
+
+/**
+ * Profile + roll + frame: balances and exposures add, the nearest contrast set wins. The same sum as the contracts'
+ * `sumAdjustments`, written here because the browser takes only types from the contracts (they carry zod).
+ */
+export function sumAdjustments(
+  profile: Pick<ProfileDocument, 'balance' | 'tone'>,
+  roll: Adjustments,
+  frame: Adjustments,
+): { balance: Balance; exposureStops: number; contrast: number } {
+  return {
+    balance: addBalances(profile.balance, roll.balance, frame.balance),
+    exposureStops: roll.exposureStops + frame.exposureStops,
+    contrast: frame.contrast ?? roll.contrast ?? profile.tone.contrast,
+  };
+}
 
 /** Printer points on every axis that make the same log exposure as `stops` (a stop is log10 2, a point 0.025). */
 export function stopsAsPoints(stops: number): number {
