@@ -37,6 +37,7 @@ import {
   updateJob,
 } from './job-repository';
 import { renderFrame } from './render-frame';
+import { advanceOrderWithWork } from '../orders/advance-order-with-work';
 import { onJobQueued, publishRollEvent } from './roll-events';
 
 /** Tries per frame before it is marked failed with its last error (three: the product's rule). */
@@ -374,6 +375,7 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
         const after = await listFramesOfRoll(db, roll.id);
         const attention = after.some((f) => f.status === 'failed' || f.status === 'queued');
         await setRollStatus(db, roll.id, attention ? 'needs-attention' : 'inverted', at);
+        await advanceOrderWithWork(db, roll.order_id, at);
       }
       if (finished) publishJob(finished);
     } catch (err) {

@@ -5,6 +5,7 @@ import { unlink } from 'node:fs/promises';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
 import type { RouteModule } from '../http/route-module';
+import { advanceOrderWithWork } from '../orders/advance-order-with-work';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { loadRollFor, scannerProfileOf } from '../rolls/roll-access';
 import { medianBaseOf } from '../rolls/median-base';
@@ -122,6 +123,7 @@ export const uploadsRoutes: RouteModule = (api, { db, config, clock }) => {
           rejected: rejected.map((r) => ({ fileName: r.fileName, code: r.code })),
         },
       });
+      await advanceOrderWithWork(db, roll.order_id, at);
       res.status(201).json({ accepted, rejected });
     },
   );
