@@ -63,6 +63,13 @@ export interface FittedCalibrationRoll {
   warnings: CalibrationWarning[];
 }
 
+/**
+ * Pixels read at most from one grey rectangle: 2^16, a quarter of the library's default. The trimmed mean's standard
+ * error at 0.01 D of grain is then about 0.01 / 256 D, far inside the 0.03 D residual limit (statistics; our choice),
+ * and a full-size bracket samples four times faster.
+ */
+export const GREY_SAMPLE_PIXELS = 65_536;
+
 const tuple = (r: PixelRegion): Region => [r.x, r.y, r.width, r.height];
 
 /** Path of a frame in error messages: `bracket[3]`, `chart`, `leader`. */
@@ -155,7 +162,7 @@ export async function fitCalibrationRoll(
     }
     samples.push({
       stops: request.bracket[u.index]!.stops,
-      sample: sampleRegion(image, scanner, tuple(region)),
+      sample: sampleRegion(image, scanner, tuple(region), { maxSamples: GREY_SAMPLE_PIXELS }),
     });
     if (!leader) measureBase(image);
   }
