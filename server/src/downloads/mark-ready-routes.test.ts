@@ -1,0 +1,190 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pino } from 'pino';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { listCaughtMail, readCaughtMail } from '../dev-mailbox/caught-mail-store';
+import { startMailCatcher, type MailCatcher } from '../dev-mailbox/mail-catcher';
+import { recordFile } from '../files/file-repository';
+import { createFileStore } from '../files/file-store';
+import { smtpTransport } from '../mail/mail-transport';
+import { createOutboxSender, type OutboxSender } from '../mail/outbox-sender';
+import { addTestCatalogue } from '../orders/order-test-fixtures';
+import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+
+const logger = pino({ level: 'silent' });
+const folder = mkdtempSync(join(tmpdir(), 'clearbase-ready-mail-'));
+let t: TestApp;
+let catcher: MailCatcher;
+let sender: OutboxSender;
+let customer: Client;
+let operator: Client;
+let operatorId: number;
+let stockId: number;
+
+beforeAll(async () => {
+  t = await createTestApp({ PUBLIC_URL: 'http://scans.lab.test' });
+  await t.db
+    .insertInto('settings')
+    .values({
+      key: 'lab',
+      value: JSON.stringify({
+        name: 'Heronsgate Film Lab',
+        town: 'Marlow Fen',
+        address: '9 Sluice Row, Marlow Fen',
+      }),
+    })
+    .execute();
+  catcher = await startMailCatcher({ folder, logger });
+  sender = createOutboxSender({
+    db: t.db,
+    clock: t.clock,
+    logger,
+    transport: smtpTransport({
+      host: '127.0.0.1',
+      port: catcher.port,
+      secure: false,
+      from: 'desk@heronsgate.test',
+    }),
+    fromAddress: 'desk@heronsgate.test',
+    messageIdHost: 'heronsgate.test',
+  });
+  await addUser(t.db, 'customer', 'maud@example.test');
+  operatorId = await addUser(t.db, 'operator', 'op@lab.test');
+  ({ stockId } = await addTestCatalogue(t.db));
+  customer = await signedIn(t.app, 'maud@example.test');
+  operator = await signedIn(t.app, 'op@lab.test');
+});
+afterAll(async () => {
+  await sender.stop();
+  await catcher.stop();
+  await t.close();
+  rmSync(folder, { recursive: true, force: true });
+});
+
+async function caughtWithSubject(subject: string) {
+  await sender.runOnce();
+  for (const summary of await listCaughtMail(folder)) {
+    const mail = await readCaughtMail(folder, summary.id);
+    if (mail?.subject === subject) return mail;
+  }
+  throw new Error(`no caught mail with subject ${subject}`);
+}
+
+async function addFrame(
+  rollId: number,
+  index: number,
+  decision: 'approved' | 'rejected' | null,
+): Promise<number> {
+  const store = createFileStore(t.config.dataDir);
+  const stored = await store.putBytes(
+    await sharp({ create: { width: 8, height: 8, channels: 3, background: '#808080' } })
+      .jpeg()
+      .toBuffer(),
+  );
+  const at = t.clock.now().toISOString();
+  const file = await recordFile(t.db, {
+    sha256: stored.sha256,
+    size: stored.size,
+    mediaType: 'image/jpeg',
+    at: t.clock.now(),
+  });
+  const frame = await t.db
+    .insertInto('frames')
+    .values({
+      roll_id: rollId,
+      frame_index: index,
+      source_file_id: file.id,
+      file_name: `neg-${index}.tif`,
+      width: 8,
+      height: 8,
+      bit_depth: 16,
+      base_region: null,
+      base_source: null,
+      base_measured: null,
+      adjustments: '{}',
+      status: 'done',
+      error: null,
+      rendered_at: at,
+      created_at: at,
+    })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  await t.db
+    .insertInto('frame_outputs')
+    .values({ frame_id: frame.id, kind: 'jpeg', file_id: file.id, created_at: at })
+    .execute();
+  if (decision) {
+    await t.db
+      .insertInto('frame_reviews')
+      .values({
+        frame_id: frame.id,
+        decision,
+        note: decision === 'rejected' ? 'soft' : '',
+        reviewed_by: operatorId,
+        reviewed_at: at,
+      })
+      .execute();
+  }
+  return frame.id;
+}
+
+describe('a placed order', () => {
+  it('mails its customer that the lab has it, with a link to the order', async () => {
+    const order = await customer.post('/api/orders', {}).expect(201);
+    const mail = await caughtWithSubject(`We have your order: order ${order.body.id}`);
+    expect(mail.to).toEqual(['maud@example.test']);
+    expect(mail.text).toContain('Heronsgate Film Lab has received order');
+    expect(mail.text).toContain(`http://scans.lab.test/orders/${order.body.id}`);
+    expect(mail.text).toContain('9 Sluice Row, Marlow Fen');
+    expect(mail.html).toContain(`href="http://scans.lab.test/orders/${order.body.id}"`);
+  });
+});
+
+describe('marking an order ready', () => {
+  it('says which rolls are not approved yet and changes nothing', async () => {
+    const order = await customer.post('/api/orders', {}).expect(201);
+    const first = await customer
+      .post(`/api/orders/${order.body.id}/rolls`, { stockId, ei: 200, format: '135-36' })
+      .expect(201);
+    await customer
+      .post(`/api/orders/${order.body.id}/rolls`, { stockId, ei: 400, format: '135-36' })
+      .expect(201);
+    await addFrame(first.body.id as number, 1, 'approved');
+    await addFrame(first.body.id as number, 2, 'rejected');
+
+    const res = await operator.post(`/api/orders/${order.body.id}/ready`).expect(409);
+
+    expect(res.headers['content-type']).toContain('application/problem+json');
+    expect(res.body.detail).toBe(
+      `Order ${order.body.id} is not ready: roll 1 has 1 frame not approved; roll 2 has no scans yet.`,
+    );
+    expect((await customer.get(`/api/orders/${order.body.id}`)).body.order.status).toBe('received');
+  });
+
+  it('is for staff only', async () => {
+    const order = await customer.post('/api/orders', {}).expect(201);
+    await customer.post(`/api/orders/${order.body.id}/ready`).expect(403);
+  });
+
+  it('sets the order ready and mails the customer a working download link and the gallery', async () => {
+    const order = await customer.post('/api/orders', {}).expect(201);
+    const roll = await customer
+      .post(`/api/orders/${order.body.id}/rolls`, { stockId, ei: 200, format: '135-36' })
+      .expect(201);
+    await addFrame(roll.body.id as number, 1, 'approved');
+
+    const res = await operator.post(`/api/orders/${order.body.id}/ready`).expect(200);
+
+    expect(res.body.status).toBe('ready');
+    const mail = await caughtWithSubject(`Your scans are ready: order ${order.body.id}`);
+    expect(mail.to).toEqual(['maud@example.test']);
+    expect(mail.text).toContain(`http://scans.lab.test/orders/${order.body.id}/gallery`);
+    expect(mail.text).toContain('7 days');
+    const link = /http:\/\/scans\.lab\.test(\/api\/downloads\/[\w-]+)/.exec(mail.text)?.[1];
+    expect(link).toBeDefined();
+    const zip = await customer.get(link!).expect(200);
+    expect(zip.headers['content-type']).toBe('application/zip');
+  });
+});
