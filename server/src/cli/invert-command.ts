@@ -1,4 +1,5 @@
 import { mkdir } from 'node:fs/promises';
+import { freemem } from 'node:os';
 import { basename, extname, join } from 'node:path';
 import sharp from 'sharp';
 import {
@@ -23,6 +24,7 @@ import {
   type PositiveFormat,
 } from '../imaging/index';
 import { createInversionPool, type InversionPool } from '../inversion-pool/inversion-pool';
+import { mayKeepFrame } from '../inversion-pool/roll-keep-budget';
 import { runPipelined } from '../inversion-pool/run-pipelined';
 import {
   FilmBaseError,
@@ -42,9 +44,6 @@ import { UsageError } from './usage-error';
 const FORMATS: PositiveFormat[] = ['jpeg', 'tiff16', 'png16'];
 // Frames in flight at once: one decoding or encoding while another is on the pool.
 const FRAMES_IN_FLIGHT = 2;
-// Decoded frames of a roll kept from the measuring pass for the inverting pass, at most this many bytes (36
-// frames of 1200 × 800 fit; 24 MP frames are decoded again); a budget that suits a small server, from memory.
-const ROLL_KEEP_BYTES = 256 * 1024 * 1024;
 
 /**
  * `clearbase invert <negative...> --out DIR ...`: see the usage text. Resolves to 0 when every
@@ -82,7 +81,7 @@ export async function invertCommand(args: string[]): Promise<number> {
     : LINEAR_SCANNER;
 
   await mkdir(values.out, { recursive: true });
-  // Each file is decoded once (twice for a roll too large to keep); libvips' operation cache would only hold memory.
+  // Each file is decoded once (twice for a roll too large to keep in memory); libvips' operation cache would only hold memory.
   sharp.cache(false);
   const settings: FrameSettings = {
     profile,
@@ -125,7 +124,8 @@ export async function invertCommand(args: string[]): Promise<number> {
  * The measuring pass of a roll: decodes each frame once, measures its base and keeps a small strided sample
  * for levels; the roll base is the frames' robust median and the roll-wide levels are measured on the samples
  * against it (`settings` gets both). Frames that fail are reported and taken out of `todo`. Decoded frames are
- * kept for the inverting pass while they fit in ROLL_KEEP_BYTES; the others are decoded again there.
+ * kept for the inverting pass while they fit in a quarter of the free memory (`mayKeepFrame`, at least 256 MB);
+ * the others are decoded again there.
  */
 async function measureRoll(
   pool: InversionPool,
@@ -148,7 +148,7 @@ async function measureRoll(
       try {
         bases[index] = measureBase(negative, settings).base;
         samples[index] = levelSample(negative);
-        keep = keptBytes + negative.data.byteLength <= ROLL_KEEP_BYTES;
+        keep = mayKeepFrame(negative.data.byteLength, keptBytes, freemem());
         if (keep) {
           kept.set(index, negative);
           keptBytes += negative.data.byteLength;
