@@ -104,21 +104,31 @@ export function makeReferenceNegative(
   };
 }
 
+/** Makes a reference negative somewhere other than the caller's thread (a worker pool in the server). */
+export type ReferenceNegativeMaker = (
+  stock: Pick<StockRow, 'name' | 'iso' | 'masked' | 'base_material'>,
+  size: { width: number; height: number },
+) => Promise<ReferenceNegative>;
+
 /**
- * A per-stock cache of reference negatives: each is made once (it takes a second or two) and kept.
- * @example const referenceFor = createReferenceNegativeCache(); referenceFor(stockRow) === referenceFor(stockRow) // true
+ * A per-stock cache of reference negatives: each is made once (it takes a second or two, on `make`'s thread) and
+ * kept; requests that arrive while it is being made wait for that one making. A making that fails is forgotten, so
+ * the next request tries again.
+ * @example const referenceFor = createReferenceNegativeCache(); (await referenceFor(stockRow)) === (await referenceFor(stockRow)) // true
  */
 export function createReferenceNegativeCache(
   size: { width: number; height: number } = REFERENCE_SIZE,
-): (stock: StockRow) => ReferenceNegative {
-  const cache = new Map<string, ReferenceNegative>();
+  make: ReferenceNegativeMaker = async (stock, at) => makeReferenceNegative(stock, at),
+): (stock: StockRow) => Promise<ReferenceNegative> {
+  const cache = new Map<string, Promise<ReferenceNegative>>();
   return (stock) => {
     // the stock's fields the negative depends on, so an edited stock gets a fresh negative
     const key = JSON.stringify([stock.id, stock.name, stock.iso, stock.masked, stock.base_material]);
     let negative = cache.get(key);
     if (!negative) {
-      negative = makeReferenceNegative(stock, size);
+      negative = make(stock, size);
       cache.set(key, negative);
+      negative.catch(() => cache.delete(key));
     }
     return negative;
   };

@@ -8,12 +8,13 @@ import { createReferenceNegativeCache, filmStockFor, makeReferenceNegative } fro
 let t: TestApp;
 let operator: Client;
 let customer: Client;
+let manager: Client;
 let draftId: number;
 
 beforeAll(async () => {
   t = await createTestApp();
   for (const role of ['manager', 'operator', 'customer'] as const) await addUser(t.db, role);
-  const manager = await signedIn(t.app, 'manager@lab.test');
+  manager = await signedIn(t.app, 'manager@lab.test');
   operator = await signedIn(t.app, 'operator@lab.test');
   customer = await signedIn(t.app, 'customer@lab.test');
   const stock = await manager.post('/api/stocks', {
@@ -75,12 +76,74 @@ describe('reference negatives for the profile editor', () => {
     expect(res.body.code).toBe('profile-version-not-found');
   });
 
-  it('makes each stock’s negative once and the same bytes every time', () => {
+  it('makes each stock’s negative once and the same bytes every time', async () => {
     const size = { width: 44, height: 20 };
     const referenceFor = createReferenceNegativeCache(size);
     const row = { ...tinted, id: 1 } as StockRow;
-    expect(referenceFor(row)).toBe(referenceFor(row));
-    expect(makeReferenceNegative(tinted, size).data).toEqual(referenceFor(row).data);
+    expect(await referenceFor(row)).toBe(await referenceFor(row));
+    expect(makeReferenceNegative(tinted, size).data).toEqual((await referenceFor(row)).data);
+  });
+
+  it('lets requests that arrive while a negative is made share that one making, and retries one that failed', async () => {
+    const size = { width: 44, height: 20 };
+    let makings = 0;
+    let fail = true;
+    const referenceFor = createReferenceNegativeCache(size, async (stock, at) => {
+      makings++;
+      await new Promise((r) => setTimeout(r, 20));
+      if (fail) throw new Error('worker gone');
+      return makeReferenceNegative(stock, at);
+    });
+    const row = { ...tinted, id: 2 } as StockRow;
+    await expect(Promise.all([referenceFor(row), referenceFor(row)])).rejects.toThrow('worker gone');
+    expect(makings).toBe(1);
+    fail = false;
+    const [a, b] = await Promise.all([referenceFor(row), referenceFor(row)]);
+    expect(a).toBe(b);
+    expect(makings).toBe(2);
+  });
+
+  it('keeps the server answering while a stock’s negative is made on a worker thread', async () => {
+    const stock = await manager.post('/api/stocks', {
+      name: 'Mistral 160',
+      maker: 'Harrowgate Emulsions',
+      iso: 160,
+      process: 'C-41',
+      masked: false,
+      baseMaterial: 'clear polyester',
+      frameFormats: ['135-36'],
+    });
+    const version = (await operator.post('/api/profiles', { stockId: stock.body.stock.id, name: 'House' }))
+      .body.version.id as number;
+    const finished: number[] = [];
+    const fetchNegative = () =>
+      operator.agent
+        .get(`/api/profile-versions/${version}/reference-negative`)
+        .buffer(true)
+        .parse((r, done) => {
+          const chunks: Buffer[] = [];
+          r.on('data', (c: Buffer) => chunks.push(c));
+          r.on('end', () => done(null, Buffer.concat(chunks)));
+        })
+        .then((res) => {
+          finished.push(Date.now());
+          return res;
+        });
+    const negatives = Promise.all([fetchNegative(), fetchNegative()]);
+    await new Promise((r) => setTimeout(r, 100));
+    const waits: number[] = [];
+    for (let i = 0; i < 3; i++) {
+      const start = performance.now();
+      await request(t.app).get('/api/health').expect(200);
+      waits.push(performance.now() - start);
+    }
+    const answered = Date.now();
+    const [a, b] = await negatives;
+    // the health checks were answered while the negative was still being made
+    expect(finished.every((f) => f > answered)).toBe(true);
+    for (const wait of waits) expect(wait).toBeLessThan(200);
+    expect(a.status).toBe(200);
+    expect((a.body as Buffer).equals(b.body as Buffer)).toBe(true);
   });
 
   it('holds a neutral wedge that the stock’s matching profile renders grey', () => {

@@ -4,7 +4,8 @@ import { z } from 'zod';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import { findStockById } from '../stocks/stock-repository';
-import { createReferenceNegativeCache } from './demo-reference-frames';
+import { createReferenceNegativeCache, REFERENCE_SIZE } from './demo-reference-frames';
+import { generateReferenceNegative } from './generate-reference-negative';
 import { findProfileById, findVersionById } from './profile-repository';
 
 const idParams = z.object({ id: z.coerce.number().int().positive('Expected a positive version id') });
@@ -24,7 +25,8 @@ export const referenceNegativeHeaders = {
  * its size and film base in headers.
  */
 export const referenceFrameRoutes: RouteModule = (api, { db }) => {
-  const referenceFor = createReferenceNegativeCache();
+  // made on a worker thread: the forward model would otherwise hold the event loop for seconds
+  const referenceFor = createReferenceNegativeCache(REFERENCE_SIZE, generateReferenceNegative);
 
   api.define(
     {
@@ -41,7 +43,7 @@ export const referenceFrameRoutes: RouteModule = (api, { db }) => {
       const profile = await findProfileById(db, version.profile_id);
       const stock = profile && (await findStockById(db, profile.stock_id));
       if (!stock) throw new AppError('stock-not-found', 404, `The stock of version ${params.id} is gone.`);
-      const negative = referenceFor(stock);
+      const negative = await referenceFor(stock);
       const body = Buffer.from(negative.data.buffer, negative.data.byteOffset, negative.data.byteLength);
       // the pixels are promised little-endian; a big-endian host swaps a copy
       const wire = endianness() === 'LE' ? body : Buffer.from(body).swap16();
