@@ -7,6 +7,7 @@ import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
 import { paymentsRoutes } from './payments/payments-routes';
 import { framesRoutes } from './frames/frames-routes';
+import { galleryRoutes } from './gallery/gallery-routes';
 import { jobsRoutes } from './jobs/jobs-routes';
 import { labRoutes } from './lab/lab-routes';
 import { ordersRoutes } from './orders/orders-routes';
@@ -49,4 +50,5 @@ export const apiRouteModules: readonly RouteModule[] = [
   tuningRoutes,
   downloadsRoutes,
   markReadyRoutes,
+  galleryRoutes,
 ];

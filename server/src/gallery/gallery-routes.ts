@@ -1,0 +1,77 @@
+import { idParamsSchema, staffRoles, type GalleryResponse } from '@clearbase/contracts';
+import sharp from 'sharp';
+import { finishedFramesOfOrder } from '../downloads/finished-frames';
+import { AppError } from '../errors/app-error';
+import { createFileStore } from '../files/file-store';
+import { findFrameOutput } from '../frames/frame-repository';
+import { loadFrameFor } from '../frames/frames-routes';
+import type { RouteModule } from '../http/route-module';
+import { loadOrderFor } from '../orders/order-access';
+
+const everyone = ['customer', ...staffRoles] as const;
+/** Long edge of gallery thumbnails, pixels: two rows fit a laptop screen at four across (our choice). */
+export const thumbnailLongEdge = 360;
+// JPEG quality 80 for a small picture to pick from, not to keep: common practice for web thumbnails, from memory
+const thumbnailQuality = 80;
+
+/** An order's gallery of finished scans, for its owner or staff, and the thumbnails it shows. */
+export const galleryRoutes: RouteModule = (api, { db, config }) => {
+  const store = createFileStore(config.dataDir);
+
+  api.define(
+    {
+      method: 'get',
+      path: '/api/orders/:id/gallery',
+      roles: everyone,
+      params: idParamsSchema,
+      summary: 'The order’s finished frames with thumbnail, preview and download URLs',
+    },
+    async (_req, res, { params, user }) => {
+      const order = await loadOrderFor(db, params.id, user!);
+      const frames = await finishedFramesOfOrder(db, order.id);
+      const body: GalleryResponse = {
+        orderId: order.id,
+        frames: frames.map((f) => ({
+          id: f.id,
+          rollId: f.rollId,
+          rollNumber: f.rollNumber,
+          index: f.index,
+          fileName: f.fileName,
+          width: f.width,
+          height: f.height,
+          thumbnailUrl: `/api/frames/${f.id}/thumbnail`,
+          previewUrl: `/api/frames/${f.id}/preview`,
+          downloads: f.outputs.map((o) => ({
+            format: o.format,
+            url: `/api/frames/${f.id}/output?format=${o.format}`,
+          })),
+        })),
+      };
+      res.json(body);
+    },
+  );
+
+  api.define(
+    {
+      method: 'get',
+      path: '/api/frames/:id/thumbnail',
+      roles: everyone,
+      params: idParamsSchema,
+      summary: 'The positive as a small JPEG for the gallery, long edge 360 (404 until rendered)',
+    },
+    async (_req, res, { params, user }) => {
+      const frame = await loadFrameFor(db, params.id, user!);
+      const preview = await findFrameOutput(db, frame.id, 'preview');
+      if (!preview) {
+        throw new AppError('preview-not-ready', 404, `Frame ${frame.id} has not been inverted yet.`);
+      }
+      const bytes = await sharp(store.pathOf(preview.sha256))
+        .resize(thumbnailLongEdge, thumbnailLongEdge, { fit: 'inside', withoutEnlargement: true })
+        .jpeg({ quality: thumbnailQuality })
+        .toBuffer();
+      res.type('image/jpeg');
+      res.set('Cache-Control', 'private, max-age=3600');
+      res.send(bytes);
+    },
+  );
+};
