@@ -42,6 +42,25 @@ for (let round = 0; round < 2; round++) {
   await span('encode JPEG + write', () =>
     writePositive(out, { path: join(OUT_DIR, 'profile.jpg'), width, height, format: 'jpeg' }),
   );
+  // Where (b) − (a) goes beyond the inversion: the decode alone, into sharp's own Buffer (what the floor does),
+  // the copy of that Buffer into a pooled shared buffer, and the floor's bare JPEG encode of the same positive.
+  const decoded = await span('  of which: decode to Buffer', () =>
+    sharp(file, { ignoreIcc: true, sequentialRead: true })
+      .removeAlpha()
+      .toColourspace('rgb16')
+      .raw({ depth: 'ushort' })
+      .toBuffer(),
+  );
+  const copy = pool.buffers.acquire(Uint16Array, decoded.byteLength / 2);
+  await span('  of which: copy to shared', () =>
+    new Uint8Array(copy.buffer, copy.byteOffset, decoded.byteLength).set(decoded),
+  );
+  pool.buffers.release(copy);
+  await span('  JPEG, no ICC or metadata', () =>
+    sharp(out, { raw: { width, height, channels: 3 } })
+      .jpeg({ quality: 92, chromaSubsampling: '4:4:4', optimiseCoding: false })
+      .toFile(join(OUT_DIR, 'profile-bare.jpg')),
+  );
   pool.buffers.release(negative.data);
   pool.buffers.release(out);
 }
