@@ -1,12 +1,13 @@
 import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { pino } from 'pino';
 import sharp from 'sharp';
 import { parsePositiveXmp } from '../imaging/index';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
+import { startTestJobRunner } from '../test-support/start-test-job-runner';
+import { until } from '../test-support/until';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
-import { createJobRunner, type JobRunner } from './job-runner';
+import type { JobRunner } from './job-runner';
 
 let t: TestApp;
 let operator: Client;
@@ -15,16 +16,6 @@ let stranger: Client;
 let runner: JobRunner;
 let stockId: number;
 let customerId: number;
-
-async function until<T>(what: () => Promise<T | undefined | false>, ms = 20_000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = await what();
-    if (v) return v;
-    if (Date.now() > end) throw new Error('timed out waiting');
-    await new Promise((r) => setTimeout(r, 25));
-  }
-}
 
 async function rollWithFrames(n: number, formats: string[] = ['jpeg', 'tiff16']): Promise<number> {
   const order = (await operator.post('/api/orders', { customerId, outputFormats: formats }).expect(201)).body
@@ -50,15 +41,7 @@ beforeAll(async () => {
   operator = await signedIn(t.app, 'oskar@lab.test');
   customer = await signedIn(t.app, 'cass@lab.test');
   stranger = await signedIn(t.app, 'ines@lab.test');
-  runner = createJobRunner({
-    db: t.db,
-    config: t.config,
-    clock: { now: () => new Date() },
-    logger: pino({ level: 'silent' }),
-    threads: 1,
-    pollMs: 50,
-  });
-  await runner.start();
+  runner = await startTestJobRunner(t);
 });
 afterAll(async () => {
   await runner.stop();

@@ -1,9 +1,9 @@
-import { pino } from 'pino';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
+import { addRollWithScans, addTestCatalogue } from '../orders/order-test-fixtures';
+import { startTestJobRunner } from '../test-support/start-test-job-runner';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
-import { createJobRunner, type JobRunner } from './job-runner';
+import type { JobRunner } from './job-runner';
 
 let t: TestApp;
 let operator: Client;
@@ -33,26 +33,16 @@ beforeAll(async () => {
   await addUser(t.db, 'operator', 'oskar@lab.test');
   const { stockId } = await addTestCatalogue(t.db);
   operator = await signedIn(t.app, 'oskar@lab.test');
-  const order = (await operator.post('/api/orders', { customerId }).expect(201)).body.id as number;
-  roll = (
-    await operator.post(`/api/orders/${order}/rolls`, { stockId, ei: 200, format: '135-36' }).expect(201)
-  ).body.id as number;
   // the same scene, grain and dust a stop apart: on frames this small, specks of dust move the white point
-  const up = await operator
-    .send('post', `/api/rolls/${roll}/frames`)
-    .attach('files', await negativeTiff({ seed: 5, exposureStops: 0 }), 'normal.tif')
-    .attach('files', await negativeTiff({ seed: 5, exposureStops: 1 }), 'one-over.tif')
-    .expect(201);
-  frames = up.body.accepted.map((a: { frameId: number }) => a.frameId);
-  runner = createJobRunner({
-    db: t.db,
-    config: { ...t.config, jobConcurrency: 1 },
-    clock: { now: () => new Date() },
-    logger: pino({ level: 'silent' }),
-    threads: 1,
-    pollMs: 50,
-  });
-  await runner.start();
+  ({ roll, frames } = await addRollWithScans(operator, {
+    customerId,
+    stockId,
+    scans: [
+      { name: 'normal.tif', seed: 5, exposureStops: 0 },
+      { name: 'one-over.tif', seed: 5, exposureStops: 1 },
+    ],
+  }));
+  runner = await startTestJobRunner(t);
 });
 afterAll(async () => {
   await runner.stop();

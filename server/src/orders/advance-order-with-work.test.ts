@@ -1,6 +1,7 @@
-import { pino } from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createJobRunner, type JobRunner } from '../jobs/job-runner';
+import type { JobRunner } from '../jobs/job-runner';
+import { startTestJobRunner } from '../test-support/start-test-job-runner';
+import { until } from '../test-support/until';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 import { addTestCatalogue, negativeTiff } from './order-test-fixtures';
 
@@ -9,16 +10,6 @@ let operator: Client;
 let runner: JobRunner;
 let stockId: number;
 let customerId: number;
-
-async function until<T>(what: () => Promise<T | undefined | false>, ms = 20_000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = await what();
-    if (v) return v;
-    if (Date.now() > end) throw new Error('timed out waiting');
-    await new Promise((r) => setTimeout(r, 25));
-  }
-}
 
 async function orderWithRolls(rolls: number): Promise<{ order: number; rolls: number[] }> {
   const order = (await operator.post('/api/orders', { customerId, outputFormats: ['jpeg'] }).expect(201)).body
@@ -63,15 +54,7 @@ beforeAll(async () => {
   await addUser(t.db, 'operator', 'oskar@lab.test');
   ({ stockId } = await addTestCatalogue(t.db));
   operator = await signedIn(t.app, 'oskar@lab.test');
-  runner = createJobRunner({
-    db: t.db,
-    config: t.config,
-    clock: { now: () => new Date() },
-    logger: pino({ level: 'silent' }),
-    threads: 1,
-    pollMs: 50,
-  });
-  await runner.start();
+  runner = await startTestJobRunner(t);
 });
 afterAll(async () => {
   await runner.stop();

@@ -5,6 +5,7 @@ import { demoNegative } from '../cli/synth-command';
 import type { Database } from '../db/database';
 import { insertDraft, insertProfile } from '../profiles/profile-repository';
 import { insertStock } from '../stocks/stock-repository';
+import type { Client } from '../test-support/test-app';
 
 const at = new Date('2026-03-01T08:00:00Z');
 
@@ -93,4 +94,35 @@ export async function negativeTiff(
     .toColourspace('rgb16')
     .tiff({ compression: 'deflate', predictor: 'horizontal' })
     .toBuffer();
+}
+
+/**
+ * An order of one roll (135-36 at EI 200) placed by staff for a customer, with the given test negatives uploaded
+ * to it; returns the ids, frames in upload order.
+ * @example const { roll, frames } = await addRollWithScans(operator, { customerId, stockId, scans: [{ name: 'a.tif', seed: 1 }] });
+ */
+export async function addRollWithScans(
+  staff: Client,
+  options: {
+    customerId: number;
+    stockId: number;
+    scans: { name: string; seed: number; exposureStops?: number }[];
+    outputFormats?: string[];
+  },
+): Promise<{ order: number; roll: number; frames: number[] }> {
+  const formats = options.outputFormats ? { outputFormats: options.outputFormats } : {};
+  const order = (await staff.post('/api/orders', { customerId: options.customerId, ...formats }).expect(201))
+    .body.id as number;
+  const roll = (
+    await staff
+      .post(`/api/orders/${order}/rolls`, { stockId: options.stockId, ei: 200, format: '135-36' })
+      .expect(201)
+  ).body.id as number;
+  let upload = staff.send('post', `/api/rolls/${roll}/frames`);
+  for (const scan of options.scans) {
+    const tiff = await negativeTiff({ seed: scan.seed, exposureStops: scan.exposureStops ?? 0 });
+    upload = upload.attach('files', tiff, scan.name);
+  }
+  const up = await upload.expect(201);
+  return { order, roll, frames: (up.body.accepted as { frameId: number }[]).map((a) => a.frameId) };
 }

@@ -1,6 +1,8 @@
 import type { ProfileDocument } from '@clearbase/contracts';
 import { sql } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { signInRoles } from '../test-support/sign-in-roles';
+import { tintedTestStock } from '../test-support/tinted-test-stock';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 
 let t: TestApp;
@@ -10,19 +12,8 @@ let customer: Client;
 let stockId: number;
 beforeAll(async () => {
   t = await createTestApp();
-  for (const role of ['manager', 'operator', 'customer'] as const) await addUser(t.db, role);
-  manager = await signedIn(t.app, 'manager@lab.test');
-  operator = await signedIn(t.app, 'operator@lab.test');
-  customer = await signedIn(t.app, 'customer@lab.test');
-  const stock = await manager.post('/api/stocks', {
-    name: 'Glasswing 400',
-    maker: 'Harrowgate Emulsions',
-    iso: 400,
-    process: 'C-41',
-    masked: false,
-    baseMaterial: 'tinted polyester',
-    frameFormats: ['135-36'],
-  });
+  ({ manager, operator, customer } = await signInRoles(t, ['manager', 'operator', 'customer']));
+  const stock = await manager.post('/api/stocks', tintedTestStock);
   stockId = stock.body.stock.id;
 });
 afterAll(() => t.close());

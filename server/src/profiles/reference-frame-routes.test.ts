@@ -2,7 +2,9 @@ import { profileForStock, sceneLinearPixel, type Rgb } from '@clearbase/inversio
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { StockRow } from '../db/database';
-import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { signInRoles } from '../test-support/sign-in-roles';
+import { tintedTestStock } from '../test-support/tinted-test-stock';
+import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
 import { createReferenceNegativeCache, filmStockFor, makeReferenceNegative } from './demo-reference-frames';
 
 let t: TestApp;
@@ -13,19 +15,8 @@ let draftId: number;
 
 beforeAll(async () => {
   t = await createTestApp();
-  for (const role of ['manager', 'operator', 'customer'] as const) await addUser(t.db, role);
-  manager = await signedIn(t.app, 'manager@lab.test');
-  operator = await signedIn(t.app, 'operator@lab.test');
-  customer = await signedIn(t.app, 'customer@lab.test');
-  const stock = await manager.post('/api/stocks', {
-    name: 'Glasswing 400',
-    maker: 'Harrowgate Emulsions',
-    iso: 400,
-    process: 'C-41',
-    masked: false,
-    baseMaterial: 'tinted polyester',
-    frameFormats: ['135-36'],
-  });
+  ({ manager, operator, customer } = await signInRoles(t, ['manager', 'operator', 'customer']));
+  const stock = await manager.post('/api/stocks', tintedTestStock);
   const created = await operator.post('/api/profiles', { stockId: stock.body.stock.id, name: 'House' });
   draftId = created.body.version.id;
 });

@@ -1,7 +1,7 @@
-import { pino } from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createJobRunner, type JobRunner } from '../jobs/job-runner';
-import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
+import type { JobRunner } from '../jobs/job-runner';
+import { addRollWithScans, addTestCatalogue } from '../orders/order-test-fixtures';
+import { startTestJobRunner } from '../test-support/start-test-job-runner';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 
 let t: TestApp;
@@ -26,25 +26,15 @@ beforeAll(async () => {
   await addUser(t.db, 'operator', 'oskar@lab.test');
   const { stockId } = await addTestCatalogue(t.db);
   operator = await signedIn(t.app, 'oskar@lab.test');
-  const order = (await operator.post('/api/orders', { customerId }).expect(201)).body.id as number;
-  roll = (
-    await operator.post(`/api/orders/${order}/rolls`, { stockId, ei: 200, format: '135-36' }).expect(201)
-  ).body.id as number;
-  const up = await operator
-    .send('post', `/api/rolls/${roll}/frames`)
-    .attach('files', await negativeTiff({ seed: 1 }), 'a.tif')
-    .attach('files', await negativeTiff({ seed: 2 }), 'b.tif')
-    .expect(201);
-  frames = up.body.accepted.map((a: { frameId: number }) => a.frameId);
-  runner = createJobRunner({
-    db: t.db,
-    config: { ...t.config, jobConcurrency: 1 },
-    clock: { now: () => new Date() },
-    logger: pino({ level: 'silent' }),
-    threads: 1,
-    pollMs: 50,
-  });
-  await runner.start();
+  ({ roll, frames } = await addRollWithScans(operator, {
+    customerId,
+    stockId,
+    scans: [
+      { name: 'a.tif', seed: 1 },
+      { name: 'b.tif', seed: 2 },
+    ],
+  }));
+  runner = await startTestJobRunner(t);
   await operator.post(`/api/rolls/${roll}/invert`, {}).expect(202);
   await settled();
 });

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { signInRoles } from '../test-support/sign-in-roles';
+import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
 
 let t: TestApp;
 let manager: Client;
@@ -7,10 +8,7 @@ let operator: Client;
 let customer: Client;
 beforeAll(async () => {
   t = await createTestApp();
-  for (const role of ['manager', 'operator', 'customer'] as const) await addUser(t.db, role);
-  manager = await signedIn(t.app, 'manager@lab.test');
-  operator = await signedIn(t.app, 'operator@lab.test');
-  customer = await signedIn(t.app, 'customer@lab.test');
+  ({ manager, operator, customer } = await signInRoles(t, ['manager', 'operator', 'customer']));
 });
 afterAll(() => t.close());
 
