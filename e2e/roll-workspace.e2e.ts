@@ -1,0 +1,237 @@
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { D65_WHITE, linearSrgbToXyz, srgbDecode, xyzToLab } from '../libs/inversion/src/index';
+import { openBrowser, type BrowserSession } from './support/browser-session';
+import { startTestServer, type TestServer } from './support/test-server';
+
+const demoPassword = 'clearbase-demo';
+// a roll-wide cast of 8 points towards magenta: plainly visible, common practice of the trade, from memory
+const magentaCast = { cyanRed: 0, magentaGreen: -8, yellowBlue: 0 };
+
+let server: TestServer;
+let browser: BrowserSession;
+let scans: string;
+let rollId: number;
+let frameId: number;
+
+beforeAll(async () => {
+  // one 16-bit negative of grey steps on an 18 % grey surround, from the forward model (the command line's synth)
+  scans = mkdtempSync(join(tmpdir(), 'clearbase-grey-'));
+  execFileSync(
+    process.execPath,
+    [
+      'bin/clearbase.mjs',
+      'synth',
+      '--out',
+      scans,
+      '--frames',
+      '1',
+      '--width',
+      '360',
+      '--height',
+      '240',
+      '--scene',
+      'grey-steps',
+    ],
+    { stdio: 'ignore' },
+  );
+  server = await startTestServer();
+  browser = await openBrowser(server.url);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+  if (scans) rmSync(scans, { recursive: true, force: true });
+});
+
+async function signIn(role: string): Promise<void> {
+  const { page } = browser;
+  await page.goto(`${server.url}/sign-in`);
+  await page.getByTestId('sign-in-email').fill(`${role}@clearbase.test`);
+  await page.getByTestId('sign-in-password').fill(demoPassword);
+  await page.getByTestId('sign-in-submit').click();
+  await page.getByTestId('home-greeting').waitFor();
+}
+
+async function signOut(): Promise<void> {
+  await browser.page.getByTestId('user-menu').click();
+  await browser.page.getByTestId('sign-out').click();
+  await browser.page.getByTestId('sign-in-email').waitFor();
+}
+
+/** A JSON call from the signed-in page, with its CSRF token; answers status and body. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- the answers of several routes, read field by field
+async function api(method: string, path: string, body?: unknown): Promise<{ status: number; body: any }> {
+  return browser.page.evaluate(
+    async ({ method, path, body }) => {
+      const token = decodeURIComponent(/(?:^|; )XSRF-TOKEN=([^;]+)/.exec(document.cookie)?.[1] ?? '');
+      const res = await fetch(path, {
+        method,
+        headers: { 'content-type': 'application/json', 'x-xsrf-token': token },
+        ...(body === undefined ? {} : { body: JSON.stringify(body) }),
+      });
+      const text = await res.text();
+      return { status: res.status, body: text ? JSON.parse(text) : null };
+    },
+    { method, path, body },
+  );
+}
+
+/** The frame's finished JPEG, fetched by the signed-in page. */
+async function outputJpeg(id: number): Promise<Buffer> {
+  const bytes = await browser.page.evaluate(async (id) => {
+    // the output keeps its address when rendered again; skip the browser's cache
+    const res = await fetch(`/api/frames/${id}/output?format=jpeg`, { cache: 'no-store' });
+    return Array.from(new Uint8Array(await res.arrayBuffer()));
+  }, id);
+  return Buffer.from(bytes);
+}
+
+/** CIELAB (D65) of the mean sRGB of a rectangle given as fractions of the image. */
+async function labOf(
+  jpeg: Buffer,
+  box: { x0: number; y0: number; x1: number; y1: number },
+): Promise<number[]> {
+  const { data, info } = await sharp(jpeg).removeAlpha().raw().toBuffer({ resolveWithObject: true });
+  const sum = [0, 0, 0];
+  let n = 0;
+  for (let y = Math.floor(box.y0 * info.height); y < Math.floor(box.y1 * info.height); y++)
+    for (let x = Math.floor(box.x0 * info.width); x < Math.floor(box.x1 * info.width); x++, n++)
+      for (let c = 0; c < 3; c++) sum[c]! += data[(y * info.width + x) * 3 + c]!;
+  const linear = sum.map((s) => srgbDecode(s / n / 255)) as [number, number, number];
+  return xyzToLab(linearSrgbToXyz(linear), D65_WHITE);
+}
+
+async function renderedAfter(since: string | null): Promise<void> {
+  await expect
+    .poll(
+      async () => {
+        const sheet = (await api('GET', `/api/rolls/${rollId}/tuning`)).body;
+        const f = sheet.frames[0];
+        return f.status === 'done' && f.renderedAt !== since;
+      },
+      { timeout: 60_000, interval: 500 },
+    )
+    .toBe(true);
+}
+
+// the middle of the frame: one grey step, well inside it
+const patch = { x0: 0.47, y0: 0.4, x1: 0.53, y1: 0.6 };
+
+describe('tuning a roll', () => {
+  it('sets up a roll whose grey renders magenta', async () => {
+    await signIn('customer');
+    const order = await api('POST', '/api/orders', { notes: 'Grey card test.', outputFormats: ['jpeg'] });
+    expect(order.status).toBe(201);
+    await signOut();
+
+    await signIn('operator');
+    const { stocks } = (await api('GET', '/api/stocks')).body as { stocks: { id: number }[] };
+    for (const stock of stocks) {
+      const made = await api('POST', `/api/orders/${order.body.id}/rolls`, {
+        stockId: stock.id,
+        ei: 200,
+        format: '135-36',
+      });
+      if (made.status === 201) {
+        rollId = made.body.id;
+        break;
+      }
+    }
+    expect(rollId).toBeGreaterThan(0);
+    const file = readdirSync(scans)[0]!;
+    const bytes = Array.from(readFileSync(join(scans, file)));
+    const uploaded = await browser.page.evaluate(
+      async ({ rollId, bytes, file }) => {
+        const token = decodeURIComponent(/(?:^|; )XSRF-TOKEN=([^;]+)/.exec(document.cookie)?.[1] ?? '');
+        const form = new FormData();
+        form.append('files', new Blob([new Uint8Array(bytes)], { type: 'image/tiff' }), file);
+        const res = await fetch(`/api/rolls/${rollId}/frames`, {
+          method: 'POST',
+          headers: { 'x-xsrf-token': token },
+          body: form,
+        });
+        return (await res.json()) as { accepted: { frameId: number }[] };
+      },
+      { rollId, bytes, file },
+    );
+    frameId = uploaded.accepted[0]!.frameId;
+    expect((await api('PUT', `/api/rolls/${rollId}/adjustments`, { balance: magentaCast })).status).toBe(200);
+    expect((await api('POST', `/api/rolls/${rollId}/invert`, { frames: 'pending' })).status).toBe(202);
+    await renderedAfter(null);
+    const [, a] = await labOf(await outputJpeg(frameId), patch);
+    // magenta: a* well above zero
+    expect(a!).toBeGreaterThan(4);
+  });
+
+  it('lets an operator take the cast out with the neutral picker, save, and get a neutral grey', async () => {
+    const { page } = browser;
+    await page.goto(`${server.url}/rolls/${rollId}/tune`);
+    const canvas = page.getByTestId('after-canvas');
+    await expect
+      .poll(() => canvas.evaluate((c) => (c as HTMLCanvasElement).width), { timeout: 30_000 })
+      .toBeGreaterThan(0);
+    await page.getByText('Toggle', { exact: true }).click();
+    await browser.screenshot('roll-workspace-before-pick');
+
+    await page.getByTestId('neutral-picker').click();
+    const box = (await canvas.boundingBox())!;
+    const at = (fx: number, fy: number) => [box.x + fx * box.width, box.y + fy * box.height] as const;
+    await page.mouse.move(...at(0.48, 0.42));
+    await page.mouse.down();
+    await page.mouse.move(...at(0.5, 0.5), { steps: 4 });
+    await page.mouse.move(...at(0.52, 0.58), { steps: 4 });
+    await page.mouse.up();
+    // the frame now carries the green the roll's cast took away (relative to red and blue)
+    await expect
+      .poll(async () => Number(await page.getByTestId('value-magentaGreen').innerText()))
+      .not.toBe(0);
+    const mg = Number(await page.getByTestId('value-magentaGreen').innerText());
+    const cr = Number(await page.getByTestId('value-cyanRed').innerText());
+    expect(Math.abs(mg - cr - 8)).toBeLessThanOrEqual(1);
+    await browser.screenshot('roll-workspace-picked');
+
+    const since = (await api('GET', `/api/rolls/${rollId}/tuning`)).body.frames[0].renderedAt as string;
+    await page.getByTestId('save').click();
+    await renderedAfter(since);
+    const [L, a, b] = await labOf(await outputJpeg(frameId), patch);
+    expect(L!).toBeGreaterThan(10);
+    expect(Math.abs(a!)).toBeLessThan(2);
+    expect(Math.abs(b!)).toBeLessThan(2);
+  });
+
+  it('undoes and redoes a reset, and shows the keys on ?', async () => {
+    const { page } = browser;
+    const value = async () => Number(await page.getByTestId('value-magentaGreen').innerText());
+    const picked = await value();
+    expect(picked).not.toBe(0);
+    await page.getByTestId('reset').click();
+    await expect.poll(value).toBe(0);
+    await page.keyboard.press('Control+z');
+    await expect.poll(value).toBe(picked);
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(value).toBe(0);
+    await page.keyboard.press('Control+z');
+    await expect.poll(value).toBe(picked);
+    await page.keyboard.press('?');
+    await page.getByRole('dialog', { name: 'Keyboard keys' }).waitFor();
+    await page.keyboard.press('Escape');
+    expect(await page.getByRole('dialog', { name: 'Keyboard keys' }).count()).toBe(0);
+  });
+
+  it('approves the only frame, which approves the roll', async () => {
+    const { page } = browser;
+    await page.getByTestId('approve').click();
+    await page.getByTestId('roll-approved').waitFor();
+    expect(await page.getByTestId('review').innerText()).toContain('approved');
+  });
+
+  it('loads nothing from any other origin', () => {
+    expect(browser.foreignRequests).toEqual([]);
+  });
+});
