@@ -1,6 +1,5 @@
-import { pino } from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createJobRunner } from '../jobs/job-runner';
+import { startTestJobRunner } from '../test-support/start-test-job-runner';
 import { createTestApp, type TestApp } from '../test-support/test-app';
 import { seedDemo } from './seed';
 
@@ -31,15 +30,7 @@ describe('demo orders', () => {
       'harbour-wall.tif',
     ]);
     expect(frames.every((f) => f.status === 'queued' && f.bit_depth === 16)).toBe(true);
-    const runner = createJobRunner({
-      db: t.db,
-      config: { ...t.config, jobConcurrency: 1 },
-      clock: { now: () => new Date() },
-      logger: pino({ level: 'silent' }),
-      threads: 1,
-      pollMs: 50,
-    });
-    await runner.start();
+    const runner = await startTestJobRunner(t);
     try {
       const end = Date.now() + 60_000;
       for (;;) {

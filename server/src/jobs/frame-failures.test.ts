@@ -1,10 +1,10 @@
 import { truncateSync } from 'node:fs';
-import { pino } from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createFileStore } from '../files/file-store';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
-import { createJobRunner, maxFrameAttempts, type JobRunner } from './job-runner';
+import { createTestJobRunner } from '../test-support/create-test-job-runner';
+import { maxFrameAttempts, type JobRunner } from './job-runner';
 
 let t: TestApp;
 let operator: Client;
@@ -25,15 +25,7 @@ async function rollWithFrames(n: number): Promise<{ roll: number; frames: number
 }
 
 function runner(afterFrame?: (frameId: number) => Promise<void>): JobRunner {
-  const r = createJobRunner({
-    db: t.db,
-    config: { ...t.config, jobConcurrency: 1 },
-    clock: { now: () => new Date() },
-    logger: pino({ level: 'silent' }),
-    threads: 1,
-    pollMs: 50,
-    ...(afterFrame ? { afterFrame } : {}),
-  });
+  const r = createTestJobRunner(t, afterFrame ? { afterFrame } : {});
   started.push(r);
   return r;
 }

@@ -3,12 +3,11 @@ import { existsSync, readdirSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { pino } from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createFileStore } from '../files/file-store';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, signedIn, type TestApp } from '../test-support/test-app';
-import { createJobRunner } from './job-runner';
+import { createTestJobRunner } from '../test-support/create-test-job-runner';
 
 const frameCount = 6;
 let t: TestApp;
@@ -75,13 +74,7 @@ describe('a server killed mid-roll', () => {
     expect(job.state).toBe('running');
 
     const resumed: number[] = [];
-    const runner = createJobRunner({
-      db: t.db,
-      config: { ...t.config, jobConcurrency: 1 },
-      clock: { now: () => new Date() },
-      logger: pino({ level: 'silent' }),
-      threads: 1,
-      pollMs: 50,
+    const runner = createTestJobRunner(t, {
       leaseMs: 1000,
       afterFrame: (id) => {
         resumed.push(id);

@@ -1,8 +1,8 @@
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
-import { pino } from 'pino';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createJobRunner, type JobRunner } from '../jobs/job-runner';
+import type { JobRunner } from '../jobs/job-runner';
+import { startTestJobRunner } from '../test-support/start-test-job-runner';
 import { closeRollStreams, rollListenerCount } from '../jobs/roll-events';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, signedIn, testPassword, type TestApp } from '../test-support/test-app';
@@ -84,15 +84,7 @@ beforeAll(async () => {
   server = t.app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
   base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  runner = createJobRunner({
-    db: t.db,
-    config: { ...t.config, jobConcurrency: 1 },
-    clock: { now: () => new Date() },
-    logger: pino({ level: 'silent' }),
-    threads: 1,
-    pollMs: 50,
-  });
-  await runner.start();
+  runner = await startTestJobRunner(t);
 });
 afterAll(async () => {
   await runner.stop();
