@@ -1,12 +1,27 @@
-import { calibrationRoll, LINEAR_SCANNER, TINTLINE_400, type FilmStock } from '@clearbase/inversion';
+import {
+  calibrationRoll,
+  CHART_REFERENCE,
+  chartGridFromCorners,
+  detectFilmBase,
+  fitCalibration,
+  LINEAR_SCANNER,
+  rollBase,
+  sampleRegion,
+  TINTLINE_400,
+  type FilmStock,
+  type Region,
+} from '@clearbase/inversion';
 import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { Writable } from 'node:stream';
 import sharp from 'sharp';
+import request_ from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { insertStock } from '../stocks/stock-repository';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 import { writeCalibrationReport } from './calibration-report-pdf';
+import { describeFit, residualsOf } from './describe-fit';
+import { GREY_SAMPLE_PIXELS } from './fit-calibration-roll';
 
 // An invented stock whose curves bend inside the bracket, with a tinted base and crosstalk.
 const STOCK: FilmStock = {
@@ -243,4 +258,76 @@ describe('calibrations API', () => {
     expect(await t.db.selectFrom('files').select('id').execute()).toHaveLength(files.length);
     expect(readdirSync(join(t.config.dataDir, 'tmp'))).toEqual([]);
   }, 30_000);
+
+  it('fits on the worker thread exactly the values the library computes in process', async () => {
+    const res = await submit(operator, request()).expect(201);
+    // the same measurements taken on the main thread, as the route did before it used a worker
+    const samples = roll.brackets.map((b) => ({
+      stops: b.stops,
+      sample: sampleRegion(b.negative, LINEAR_SCANNER, roll.greyRegion, { maxSamples: GREY_SAMPLE_PIXELS }),
+    }));
+    const grid = chartGridFromCorners(roll.chartCorners);
+    const chart = grid.patches.map((p) => sampleRegion(roll.chart, LINEAR_SCANNER, p.sample));
+    const base = rollBase(
+      [...roll.brackets.map((b) => b.negative), roll.chart].map((n) => detectFilmBase(n, LINEAR_SCANNER)),
+    );
+    const result = fitCalibration({
+      base: base.rgb,
+      brackets: samples,
+      chart,
+      stock: { name: 'Route test 400', iso: 400, base: 'tinted' },
+      reference: CHART_REFERENCE,
+    });
+    const { seconds: _s, ...expected } = describeFit(result, samples, base.rgb, 'frames', 400, 0);
+    const { seconds: _t, ...actual } = res.body.fit;
+    expect(actual).toEqual(expected);
+    expect(res.body.residuals).toEqual(residualsOf(result));
+    const version = await operator.get(`/api/profile-versions/${res.body.profileVersionId}`).expect(200);
+    expect(version.body.version.parameters.curves).toEqual(result.profileDocument.curves);
+  }, 30_000);
+
+  it('keeps the server answering while a calibration is measured and fitted', async () => {
+    // the roll scaled up 24 times (nearest neighbour, the same counts), so the frames take a while to measure
+    const scale = 24;
+    const big = (data: Uint16Array, width: number, height: number) =>
+      sharp(data, { raw: { width, height, channels: 3 } })
+        .resize(width * scale, height * scale, { kernel: 'nearest' })
+        .toColourspace('rgb16')
+        .tiff({ compression: 'deflate', predictor: 'horizontal' })
+        .toBuffer();
+    const grey = await Promise.all(
+      roll.brackets.map((b) => big(b.negative.data, b.negative.width, b.negative.height)),
+    );
+    const chartBig = await big(roll.chart.data, roll.chart.width, roll.chart.height);
+    const json = request({
+      greyRegion: region(roll.greyRegion.map((v) => v * scale) as Region),
+      chartCorners: roll.chartCorners.map(([x, y]) => [x * scale, y * scale]),
+    });
+    let finished = 0;
+    let req = operator.send('post', '/api/calibrations').field('calibration', json);
+    grey.forEach((f, i) => (req = req.attach('bracket', f, `grey-${i + 1}.tif`)));
+    const fitting = req.attach('chart', chartBig, 'chart.tif').then((res) => {
+      finished = performance.now();
+      return res;
+    });
+    await new Promise((r) => setTimeout(r, 300));
+    const waits: number[] = [];
+    let answered = 0;
+    while (!finished && waits.length < 50) {
+      const start = performance.now();
+      await request_(t.app).get('/api/health').expect(200);
+      answered = performance.now();
+      waits.push(answered - start);
+      await new Promise((r) => setTimeout(r, 20));
+    }
+    const res = await fitting;
+    expect(res.status, res.text).toBe(201);
+    // health was answered while the calibration was still running, every time within 200 ms
+    expect(waits.length).toBeGreaterThan(1);
+    expect(answered).toBeLessThan(finished);
+    for (const wait of waits) expect(wait).toBeLessThan(200);
+    res.body.fit.gamma.forEach((g: number, c: number) =>
+      expect(Math.abs(g / STOCK.gamma[c]! - 1)).toBeLessThan(0.03),
+    );
+  }, 60_000);
 });

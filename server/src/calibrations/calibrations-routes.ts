@@ -331,7 +331,7 @@ export const calibrationsRoutes: RouteModule = (api, { db, config, clock }) => {
           const draft = await addCalibratedDraft(trx, {
             stock,
             scannerId: request.scannerId,
-            document: fitted.result.profileDocument,
+            document: fitted.profileDocument,
             calibrationId: row.id,
             at,
             user: user!,

@@ -3,36 +3,25 @@ import type {
   CalibrationResiduals,
   CalibrationWarning,
   CreateCalibrationRequest,
-  FittedCurve,
   PixelRegion,
+  ProfileDocument,
   ScannerProfile,
 } from '@clearbase/contracts';
 import {
-  baseFromRegion,
   chartGridFromCorners,
   chartGridFromRegion,
-  CHART_REFERENCE,
-  detectFilmBase,
-  fitCalibration,
-  LOG_EXPOSURE_PER_STOP,
-  multiply3,
   rollBase,
-  sampleRegion,
-  type CalibrationResult,
   type CalibrationStock,
-  type CharacteristicCurveFit,
   type ChartGrid,
   type FilmBase,
   type Point,
   type Region,
   type RegionSample,
-  type Rgb,
-  type RgbImage,
 } from '@clearbase/inversion';
-import { clampRgb, formatHex } from 'culori';
 import type { FieldError } from '../errors/app-error';
 import { AppError } from '../errors/app-error';
 import { ImageInputError, readNegative, type NegativeImage } from '../imaging/index';
+import { fitCalibrationRollMeasurements, measureCalibrationFrame } from './calibration-worker';
 
 /** One uploaded frame of a calibration roll, still in the temp folder. */
 export interface CalibrationUpload {
@@ -56,7 +45,8 @@ export interface ReadFrame {
 /** The outcome of fitting a calibration roll. */
 export interface FittedCalibrationRoll {
   frames: ReadFrame[];
-  result: CalibrationResult;
+  /** The draft profile the fit makes. */
+  profileDocument: ProfileDocument;
   grid: ChartGrid;
   fit: CalibrationFit;
   residuals: CalibrationResiduals;
@@ -113,7 +103,11 @@ export async function fitCalibrationRoll(
   const frames: ReadFrame[] = [];
   const read = async (u: CalibrationUpload): Promise<NegativeImage | null> => {
     try {
-      const image = await readNegative(u.path, { maxPixels: options.maxPixels });
+      // a plain array of its own, so the pixels move to the worker thread without a copy
+      const image = await readNegative(u.path, {
+        maxPixels: options.maxPixels,
+        allocate: (n) => new Uint16Array(n),
+      });
       if (image.format === 'jpeg') {
         errors.push({
           path: framePath(u),
@@ -142,12 +136,11 @@ export async function fitCalibrationRoll(
     : chartGridOrThrow(() => chartGridFromRegion(tuple(request.chartRegion!)));
   const leader = uploads.find((u) => u.role === 'leader');
   const bases: FilmBase[] = [];
-  const measureBase = (image: RgbImage) =>
-    bases.push(
-      request.baseRegion
-        ? baseFromRegion(image, scanner, tuple(request.baseRegion))
-        : detectFilmBase(image, scanner),
-    );
+  // Without a leader, every grey and chart frame gives a base: from the marked rebate, or found on the frame.
+  const frameBase = leader ? null : request.baseRegion ? tuple(request.baseRegion) : ('detect' as const);
+  const keepBase = (base: FilmBase | null) => {
+    if (base) bases.push(base);
+  };
 
   const samples: { stops: number; sample: RegionSample }[] = [];
   for (const u of uploads.filter((f) => f.role === 'bracket')) {
@@ -160,11 +153,15 @@ export async function fitCalibrationRoll(
       errors.push(...wrong.map((e) => ({ ...e, message: `${u.fileName}: ${e.message}` })));
       continue;
     }
-    samples.push({
-      stops: request.bracket[u.index]!.stops,
-      sample: sampleRegion(image, scanner, tuple(region), { maxSamples: GREY_SAMPLE_PIXELS }),
+    const measured = await measureCalibrationFrame({
+      kind: 'measure',
+      image,
+      scanner,
+      areas: [{ area: tuple(region), maxSamples: GREY_SAMPLE_PIXELS }],
+      base: frameBase,
     });
-    if (!leader) measureBase(image);
+    samples.push({ stops: request.bracket[u.index]!.stops, sample: measured.samples[0]! });
+    keepBase(measured.base);
   }
 
   const chartUpload = uploads.find((u) => u.role === 'chart')!;
@@ -179,8 +176,17 @@ export async function fitCalibrationRoll(
         path: request.chartCorners ? 'chartCorners' : 'chartRegion',
         message: `${chartUpload.fileName}: the chart's marks reach past the ${chartImage.width} × ${chartImage.height} frame`,
       });
-    else chart = grid.patches.map((p) => sampleRegion(chartImage, scanner, p.sample));
-    if (!leader) measureBase(chartImage);
+    else {
+      const measured = await measureCalibrationFrame({
+        kind: 'measure',
+        image: chartImage,
+        scanner,
+        areas: grid.patches.map((p) => ({ area: p.sample })),
+        base: frameBase,
+      });
+      chart = measured.samples;
+      keepBase(measured.base);
+    }
   }
 
   if (leader) {
@@ -189,7 +195,11 @@ export async function fitCalibrationRoll(
       const region = request.baseRegion ?? { x: 0, y: 0, width: image.width, height: image.height };
       const wrong = regionErrors(region, image, 'baseRegion');
       if (wrong.length) errors.push(...wrong);
-      else bases.push(baseFromRegion(image, scanner, tuple(region)));
+      else
+        keepBase(
+          (await measureCalibrationFrame({ kind: 'measure', image, scanner, areas: [], base: tuple(region) }))
+            .base,
+        );
     }
   }
 
@@ -210,33 +220,24 @@ export async function fitCalibrationRoll(
       [{ path: leader ? 'leader' : 'baseRegion', message: 'no unexposed film found' }],
     );
 
-  let result: CalibrationResult;
-  try {
-    result = fitCalibration({
-      base: base.rgb,
-      brackets: samples,
-      chart,
-      stock: options.stock,
-      reference: CHART_REFERENCE,
-    });
-  } catch (error) {
-    if (error instanceof RangeError)
-      throw new AppError(
-        'calibration-not-fitted',
-        422,
-        `The calibration cannot be fitted: ${error.message}.`,
-        [{ path: 'bracket', message: error.message }],
-      );
-    throw error;
-  }
+  const baseSource = leader ? 'leader' : 'frames';
+  const fitted = await fitCalibrationRollMeasurements({
+    kind: 'fit',
+    measurements: { base: base.rgb, brackets: samples, chart, stock: options.stock },
+    baseSource,
+  });
+  if (!fitted.ok)
+    throw new AppError('calibration-not-fitted', 422, `The calibration cannot be fitted: ${fitted.reason}.`, [
+      { path: 'bracket', message: fitted.reason },
+    ]);
   const seconds = (performance.now() - started) / 1000;
   return {
     frames,
-    result,
+    profileDocument: fitted.profileDocument,
     grid,
-    fit: describeFit(result, samples, base.rgb, leader ? 'leader' : 'frames', options.stock.iso, seconds),
-    residuals: residualsOf(result),
-    warnings: result.warnings.map((w) => ({ ...w })),
+    fit: { ...fitted.fit, seconds: Math.round(seconds * 1000) / 1000 },
+    residuals: fitted.residuals,
+    warnings: fitted.warnings,
   };
 }
 
@@ -253,80 +254,4 @@ function chartGridOrThrow(make: () => ChartGrid): ChartGrid {
       );
     throw error;
   }
-}
-
-const round = (v: number, digits = 6) => Math.round(v * 10 ** digits) / 10 ** digits;
-const finiteOrNull = (v: number) => (Number.isFinite(v) ? round(v) : null);
-
-function curveOf(f: CharacteristicCurveFit): FittedCurve {
-  const { curve: _curve, ...rest } = f;
-  return rest;
-}
-
-/** #rrggbb of a L*a*b* (D65) colour, clipped into sRGB. */
-function labHex(lab: Rgb): string {
-  return formatHex(clampRgb({ mode: 'lab65', l: lab[0], a: lab[1], b: lab[2] }));
-}
-
-/** The stored form of a fit: plain numbers, swatches as hex, the grey frames' densities after crosstalk. */
-export function describeFit(
-  r: CalibrationResult,
-  samples: readonly { stops: number; sample: RegionSample }[],
-  base: Rgb,
-  baseSource: 'leader' | 'frames',
-  iso: number,
-  seconds: number,
-): CalibrationFit {
-  const m = r.crosstalk.matrix;
-  const greyPoints = r.usedFrames.map((frame) => {
-    const s = samples[frame]!;
-    const densities = s.sample.rgb.map((v, c) => Math.log10(base[c]! / v)) as Rgb;
-    return {
-      stops: s.stops,
-      logExposure: round(s.stops * LOG_EXPOSURE_PER_STOP),
-      densities: multiply3(m, densities).map((d) => round(d)) as Rgb,
-    };
-  });
-  return {
-    gamma: r.gamma.map((g) => round(g)) as Rgb,
-    curves: { red: curveOf(r.curves.red), green: curveOf(r.curves.green), blue: curveOf(r.curves.blue) },
-    greyPoints,
-    speedPoint: r.speedPoint,
-    ei: r.ei,
-    iso,
-    balance: { frames: r.balance.frames, mean: r.balance.mean },
-    spread: r.spread,
-    crosstalk: m,
-    chartExposureStops: r.chartExposureStops,
-    deltaE: {
-      patches: r.deltaE.patches.map((p) => ({
-        index: p.index,
-        name: p.name,
-        reference: p.reference,
-        after: p.measured ? p.after : null,
-        deltaEBefore: finiteOrNull(p.deltaEBefore),
-        deltaEAfter: finiteOrNull(p.deltaEAfter),
-        inGamut: p.inGamut,
-        measured: p.measured,
-        referenceHex: labHex(p.reference),
-        afterHex: p.measured ? labHex(p.after) : null,
-      })),
-      before: { mean: finiteOrNull(r.deltaE.before.mean), max: finiteOrNull(r.deltaE.before.max) },
-      after: { mean: finiteOrNull(r.deltaE.after.mean), max: finiteOrNull(r.deltaE.after.max) },
-    },
-    base: { rgb: base, source: baseSource },
-    usedFrames: r.usedFrames,
-    seconds: round(seconds, 3),
-  };
-}
-
-function residualsOf(r: CalibrationResult): CalibrationResiduals {
-  const per = (c: CalibrationResult['curves'], pick: (f: CharacteristicCurveFit) => number) =>
-    [pick(c.red), pick(c.green), pick(c.blue)].map((v) => round(v)) as Rgb;
-  return {
-    measuredCurves: per(r.measuredCurves, (f) => f.residualRms),
-    profileCurves: per(r.curves, (f) => f.residualRms),
-    straightParts: per(r.curves, (f) => f.straightPart.residualRms),
-    crosstalk: r.crosstalk.residualRms.map((v) => round(v)) as Rgb,
-  };
 }
