@@ -1,8 +1,8 @@
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addRollWithScans, addTestCatalogue } from '../orders/order-test-fixtures';
+import { addOrderTestLab, addRollWithScans } from '../orders/order-test-fixtures';
 import { startTestJobRunner } from '../test-support/start-test-job-runner';
-import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
 import type { JobRunner } from './job-runner';
 
 let t: TestApp;
@@ -29,10 +29,8 @@ async function previewMean(frameId: number): Promise<number> {
 
 beforeAll(async () => {
   t = await createTestApp();
-  const customerId = await addUser(t.db, 'customer', 'cass@lab.test');
-  await addUser(t.db, 'operator', 'oskar@lab.test');
-  const { stockId } = await addTestCatalogue(t.db);
-  operator = await signedIn(t.app, 'oskar@lab.test');
+  const { customerId, stockId, ...lab } = await addOrderTestLab(t);
+  operator = lab.operator;
   // the same scene, grain and dust a stop apart: on frames this small, specks of dust move the white point
   ({ roll, frames } = await addRollWithScans(operator, {
     customerId,

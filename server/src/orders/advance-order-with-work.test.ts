@@ -2,8 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { JobRunner } from '../jobs/job-runner';
 import { startTestJobRunner } from '../test-support/start-test-job-runner';
 import { until } from '../test-support/until';
-import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
-import { addTestCatalogue, negativeTiff } from './order-test-fixtures';
+import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
+import { addOrderTestLab, negativeTiff } from './order-test-fixtures';
 
 let t: TestApp;
 let operator: Client;
@@ -50,10 +50,7 @@ const systemChanges = (order: number) =>
 
 beforeAll(async () => {
   t = await createTestApp({ JOB_CONCURRENCY: '1' });
-  customerId = await addUser(t.db, 'customer', 'cass@lab.test');
-  await addUser(t.db, 'operator', 'oskar@lab.test');
-  ({ stockId } = await addTestCatalogue(t.db));
-  operator = await signedIn(t.app, 'oskar@lab.test');
+  ({ customerId, stockId, operator } = await addOrderTestLab(t));
   runner = await startTestJobRunner(t);
 });
 afterAll(async () => {

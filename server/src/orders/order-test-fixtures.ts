@@ -5,7 +5,7 @@ import { demoNegative } from '../cli/synth-command';
 import type { Database } from '../db/database';
 import { insertDraft, insertProfile } from '../profiles/profile-repository';
 import { insertStock } from '../stocks/stock-repository';
-import type { Client } from '../test-support/test-app';
+import { addUser, signedIn, type Client, type TestApp } from '../test-support/test-app';
 
 const at = new Date('2026-03-01T08:00:00Z');
 
@@ -125,4 +125,23 @@ export async function addRollWithScans(
   }
   const up = await upload.expect(201);
   return { order, roll, frames: (up.body.accepted as { frameId: number }[]).map((a) => a.frameId) };
+}
+
+/**
+ * The lab an order test works in: a customer (cass@lab.test), an operator (oskar@lab.test) signed in, and the test
+ * catalogue of `addTestCatalogue`.
+ * @example const { customerId, operator, stockId } = await addOrderTestLab(t);
+ */
+export async function addOrderTestLab(t: TestApp): Promise<{
+  customerId: number;
+  operator: Client;
+  stockId: number;
+  versionId: number;
+  unpublishedStockId: number;
+}> {
+  const customerId = await addUser(t.db, 'customer', 'cass@lab.test');
+  await addUser(t.db, 'operator', 'oskar@lab.test');
+  const catalogue = await addTestCatalogue(t.db);
+  const operator = await signedIn(t.app, 'oskar@lab.test');
+  return { customerId, operator, ...catalogue };
 }

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { JobRunner } from '../jobs/job-runner';
-import { addRollWithScans, addTestCatalogue } from '../orders/order-test-fixtures';
+import { addOrderTestLab, addRollWithScans } from '../orders/order-test-fixtures';
 import { startTestJobRunner } from '../test-support/start-test-job-runner';
-import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
 
 let t: TestApp;
 let operator: Client;
@@ -22,10 +22,8 @@ async function settled() {
 
 beforeAll(async () => {
   t = await createTestApp();
-  const customerId = await addUser(t.db, 'customer', 'cass@lab.test');
-  await addUser(t.db, 'operator', 'oskar@lab.test');
-  const { stockId } = await addTestCatalogue(t.db);
-  operator = await signedIn(t.app, 'oskar@lab.test');
+  const { customerId, stockId, ...lab } = await addOrderTestLab(t);
+  operator = lab.operator;
   ({ roll, frames } = await addRollWithScans(operator, {
     customerId,
     stockId,

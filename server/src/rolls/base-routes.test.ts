@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
-import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { addOrderTestLab, addRollWithScans } from '../orders/order-test-fixtures';
+import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
 
 let t: TestApp;
 let operator: Client;
@@ -9,19 +9,15 @@ let frame: number;
 
 beforeAll(async () => {
   t = await createTestApp();
-  const customerId = await addUser(t.db, 'customer', 'cass@lab.test');
-  await addUser(t.db, 'operator', 'oskar@lab.test');
-  const { stockId } = await addTestCatalogue(t.db);
-  operator = await signedIn(t.app, 'oskar@lab.test');
-  const order = (await operator.post('/api/orders', { customerId }).expect(201)).body.id as number;
-  roll = (
-    await operator.post(`/api/orders/${order}/rolls`, { stockId, ei: 200, format: '135-36' }).expect(201)
-  ).body.id as number;
-  const up = await operator
-    .send('post', `/api/rolls/${roll}/frames`)
-    .attach('files', await negativeTiff({ width: 96, height: 64, seed: 1 }), 'a.tif')
-    .expect(201);
-  frame = up.body.accepted[0].frameId as number;
+  const { customerId, stockId, ...lab } = await addOrderTestLab(t);
+  operator = lab.operator;
+  let frames: number[];
+  ({ roll, frames } = await addRollWithScans(operator, {
+    customerId,
+    stockId,
+    scans: [{ name: 'a.tif', seed: 1 }],
+  }));
+  frame = frames[0]!;
 });
 afterAll(() => t.close());
 
