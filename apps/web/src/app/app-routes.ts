@@ -72,6 +72,11 @@ export const appRoutes: Routes = [
         loadChildren: () => import('./catalogue/catalogue-routes').then((m) => m.catalogueRoutes),
       },
       {
+        path: 'orders/:id/gallery',
+        title: 'Scans · Clearbase',
+        loadComponent: () => import('./gallery/gallery-page').then((m) => m.GalleryPage),
+      },
+      {
         path: 'orders',
         loadChildren: () => import('./orders/orders-routes').then((m) => m.ordersRoutes),
       },
