@@ -11,6 +11,7 @@ import { RouterLink } from '@angular/router';
 import type { OrderDetail, OrderStatus, Roll, Scanner } from '@clearbase/contracts';
 import { catchError, combineLatest, map, of, scan, startWith, Subject, switchMap } from 'rxjs';
 import { Session } from '../auth/session';
+import { OrderPaymentPanel } from '../prices/order-payment-panel';
 import { readProblem, type ProblemMessage } from '../problem/read-problem';
 import { pushPullLabel, rollStatusLabel } from '../rolls/roll-labels';
 import { ScannersApi } from '../scanners/scanners-api';
@@ -39,7 +40,17 @@ const initialView: OrderView = { loading: true, detail: null, problem: null };
 /** One order: what was asked for, where it stands, its rolls; staff add rolls and move it on. */
 @Component({
   selector: 'cb-order-page',
-  imports: [DatePipe, RouterLink, MatButton, MatIcon, MatMenu, MatMenuItem, MatMenuTrigger, MatProgressBar],
+  imports: [
+    DatePipe,
+    RouterLink,
+    MatButton,
+    MatIcon,
+    MatMenu,
+    MatMenuItem,
+    MatMenuTrigger,
+    MatProgressBar,
+    OrderPaymentPanel,
+  ],
   templateUrl: './order-page.html',
   styleUrls: ['./order-page.scss', '../rolls/status-chips.scss'],
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -96,6 +107,11 @@ export class OrderPage {
     return orderStatusChoices.filter((s) => s !== order.status && s !== this.next());
   });
   protected readonly moving = signal(false);
+  /** Customers see the gallery once the scans are ready; staff may look at any time. */
+  protected readonly galleryOpen = computed(() => {
+    const order = this.order();
+    return !!order && (this.staff() || order.status === 'ready' || order.status === 'delivered');
+  });
 
   /** Scanner names, for staff (customers are not shown which scanner the lab used). */
   private readonly scanners = toSignal(
