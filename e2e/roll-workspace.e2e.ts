@@ -29,7 +29,7 @@ beforeAll(async () => {
       '--out',
       scans,
       '--frames',
-      '1',
+      '2',
       '--width',
       '360',
       '--height',
@@ -144,7 +144,7 @@ describe('tuning a roll', () => {
       }
     }
     expect(rollId).toBeGreaterThan(0);
-    const file = readdirSync(scans)[0]!;
+    const file = readdirSync(scans).sort()[0]!;
     const bytes = Array.from(readFileSync(join(scans, file)));
     const uploaded = await browser.page.evaluate(
       async ({ rollId, bytes, file }) => {
@@ -221,7 +221,7 @@ describe('tuning a roll', () => {
     await page.keyboard.press('?');
     await page.getByRole('dialog', { name: 'Keyboard keys' }).waitFor();
     await page.keyboard.press('Escape');
-    expect(await page.getByRole('dialog', { name: 'Keyboard keys' }).count()).toBe(0);
+    await expect.poll(() => page.getByRole('dialog', { name: 'Keyboard keys' }).count()).toBe(0);
   });
 
   it('approves the only frame, which approves the roll', async () => {
@@ -229,6 +229,37 @@ describe('tuning a roll', () => {
     await page.getByTestId('approve').click();
     await page.getByTestId('roll-approved').waitFor();
     expect(await page.getByTestId('review').innerText()).toContain('approved');
+  });
+
+  it('copies a frame’s tuning to a selected frame in one step, and undoes the copy', async () => {
+    const { page } = browser;
+    // the synth's second negative: a second frame of the roll
+    const bytes = Array.from(readFileSync(join(scans, readdirSync(scans).sort()[1]!)));
+    await page.evaluate(
+      async ({ rollId, bytes }) => {
+        const token = decodeURIComponent(/(?:^|; )XSRF-TOKEN=([^;]+)/.exec(document.cookie)?.[1] ?? '');
+        const form = new FormData();
+        form.append('files', new Blob([new Uint8Array(bytes)], { type: 'image/tiff' }), 'second.tif');
+        await fetch(`/api/rolls/${rollId}/frames`, {
+          method: 'POST',
+          headers: { 'x-xsrf-token': token },
+          body: form,
+        });
+      },
+      { rollId, bytes },
+    );
+    await page.reload();
+    await page.getByTestId('frame-2').waitFor();
+    const carried = (index: number) => page.getByTestId(`carries-${index}`).innerText();
+    expect(await carried(1)).toContain('MG +');
+    expect(await carried(2)).toBe('');
+    await page.getByRole('checkbox', { name: 'Select frame 2' }).check();
+    await page.getByTestId('copy-to-selected').click();
+    await expect.poll(() => carried(2)).toBe(await carried(1));
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => carried(2)).toBe('');
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(() => carried(2)).toBe(await carried(1));
   });
 
   it('loads nothing from any other origin', () => {
