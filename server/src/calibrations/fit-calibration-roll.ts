@@ -22,6 +22,7 @@ import type { FieldError } from '../errors/app-error';
 import { AppError } from '../errors/app-error';
 import { ImageInputError, readNegative, type NegativeImage } from '../imaging/index';
 import { fitCalibrationRollMeasurements, measureCalibrationFrame } from './calibration-worker';
+import { movablePixels } from './movable-pixels';
 
 /** One uploaded frame of a calibration roll, still in the temp folder. */
 export interface CalibrationUpload {
@@ -103,11 +104,7 @@ export async function fitCalibrationRoll(
   const frames: ReadFrame[] = [];
   const read = async (u: CalibrationUpload): Promise<NegativeImage | null> => {
     try {
-      // a plain array of its own, so the pixels move to the worker thread without a copy
-      const image = await readNegative(u.path, {
-        maxPixels: options.maxPixels,
-        allocate: (n) => new Uint16Array(n),
-      });
+      const image = await readNegative(u.path, { maxPixels: options.maxPixels });
       if (image.format === 'jpeg') {
         errors.push({
           path: framePath(u),
@@ -123,7 +120,8 @@ export async function fitCalibrationRoll(
         format: image.format,
         warnings: image.warnings,
       });
-      return image;
+      // counts of their own, copied a step at a time, so they move to the worker thread without blocking
+      return { ...image, data: await movablePixels(image.data) };
     } catch (error) {
       if (!(error instanceof ImageInputError)) throw error;
       errors.push({ path: framePath(u), message: `${u.fileName}: ${error.message}` });
