@@ -85,7 +85,9 @@ function regionErrors(region: PixelRegion, image: { width: number; height: numbe
 
 /**
  * Reads a calibration roll frame by frame — each decoded, sampled and let go, so full-size scans fit in memory — and
- * fits it with `fitCalibration`. Every unreadable frame and every mark outside its frame is gathered into one 422
+ * fits it with `fitCalibration`. Decoding is the image library's own (off the event loop); the sampling, base
+ * detection and fit run on the calibration worker thread (`calibration-worker.ts`), so the server keeps answering
+ * other requests throughout. Every unreadable frame and every mark outside its frame is gathered into one 422
  * problem whose errors name the frame (`bracket[3]`, `chart`) or the mark (`bracket[3].greyRegion.width`). A roll the
  * library cannot fit (too few usable grey frames) answers 422 `calibration-not-fitted`.
  *
