@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import {
@@ -12,8 +12,7 @@ import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/m
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import type { CreateStockRequest, FilmProcess, Stock } from '@clearbase/contracts';
-import { readProblem } from '../problem/read-problem';
-import { applyFieldProblems, bodyField } from './apply-field-problems';
+import { FormSubmission } from '../forms/form-submission';
 import { CatalogueApi } from './catalogue-api';
 import { processChoices, processLabel } from './stock-labels';
 import {
@@ -92,9 +91,10 @@ export class NewStockDialog {
     ],
     handlingNotes: ['', [Validators.maxLength(4000)]],
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal<string | null>(null);
-  protected readonly unclaimed = signal<string[]>([]);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly busy = this.submission.busy;
+  protected readonly problem = this.submission.problem;
+  protected readonly unclaimed = this.submission.unclaimed;
 
   /** The message a field shows under it. */
   protected errorOf(name: string): string {
@@ -102,8 +102,7 @@ export class NewStockDialog {
   }
 
   protected submit(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.busy()) return;
+    if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
     const request: CreateStockRequest = {
       name: v.name.trim(),
@@ -124,20 +123,6 @@ export class NewStockDialog {
       reciprocityExponent: Number(v.reciprocityExponent),
       handlingNotes: v.handlingNotes.trim(),
     };
-    this.busy.set(true);
-    this.problem.set(null);
-    this.unclaimed.set([]);
-    this.api.createStock(request).subscribe({
-      next: (stock) => {
-        this.busy.set(false);
-        this.ref.close(stock);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        const p = readProblem(err);
-        this.problem.set(p.message);
-        this.unclaimed.set(applyFieldProblems(p.fieldErrors, (path) => this.form.get(bodyField(path))));
-      },
-    });
+    this.submission.send(this.api.createStock(request), (stock) => this.ref.close(stock));
   }
 }

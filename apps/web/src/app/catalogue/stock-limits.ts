@@ -1,4 +1,5 @@
 import type { ValidationErrors, ValidatorFn } from '@angular/forms';
+import { fieldErrorText } from '../forms/field-error-text';
 
 // The server's limits (libs/contracts stocks/stock.ts), written out to keep zod out of the browser bundle:
 // speeds 6 to 25600, latitude 0 to 10 stops, p from 1 to 2 (common practice of the trade, from memory).
@@ -16,15 +17,5 @@ export const wholeNumber: ValidatorFn = (c) =>
 
 /** The message a stock field shows under it, its first complaint first; the server's own words win. */
 export function stockFieldError(errors: ValidationErrors | null | undefined): string {
-  const e = errors;
-  if (!e) return '';
-  if (e['server']) return String(e['server']);
-  if (e['required']) return 'Required';
-  if (e['min']) return `At least ${(e['min'] as { min: number }).min}`;
-  if (e['max']) return `At most ${(e['max'] as { max: number }).max}`;
-  if (e['wholeNumber']) return 'A whole number';
-  if (e['maxlength'])
-    return `At most ${(e['maxlength'] as { requiredLength: number }).requiredLength} characters`;
-  if (e['pattern']) return 'List at least one format, separated by commas';
-  return 'Check this value';
+  return fieldErrorText(errors, { pattern: 'List at least one format, separated by commas' });
 }

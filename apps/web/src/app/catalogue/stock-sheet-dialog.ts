@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import {
@@ -12,8 +12,7 @@ import {
 import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import type { Stock, UpdateStockSheetRequest } from '@clearbase/contracts';
-import { readProblem } from '../problem/read-problem';
-import { applyFieldProblems, bodyField } from './apply-field-problems';
+import { FormSubmission } from '../forms/form-submission';
 import { CatalogueApi } from './catalogue-api';
 import {
   latitudeRange,
@@ -76,17 +75,17 @@ export class StockSheetDialog {
     ],
     handlingNotes: [this.stock.handlingNotes, [Validators.maxLength(noteMaxLength)]],
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal<string | null>(null);
-  protected readonly unclaimed = signal<string[]>([]);
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly busy = this.submission.busy;
+  protected readonly problem = this.submission.problem;
+  protected readonly unclaimed = this.submission.unclaimed;
 
   protected errorOf(name: string): string {
     return stockFieldError(this.form.get(name)?.errors);
   }
 
   protected submit(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.busy()) return;
+    if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
     const sheet: UpdateStockSheetRequest = {
       notes: v.notes.trim(),
@@ -97,20 +96,6 @@ export class StockSheetDialog {
       reciprocityExponent: Number(v.reciprocityExponent),
       handlingNotes: v.handlingNotes.trim(),
     };
-    this.busy.set(true);
-    this.problem.set(null);
-    this.unclaimed.set([]);
-    this.api.updateSheet(this.stock.id, sheet).subscribe({
-      next: (stock) => {
-        this.busy.set(false);
-        this.ref.close(stock);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        const p = readProblem(err);
-        this.problem.set(p.message);
-        this.unclaimed.set(applyFieldProblems(p.fieldErrors, (path) => this.form.get(bodyField(path))));
-      },
-    });
+    this.submission.send(this.api.updateSheet(this.stock.id, sheet), (stock) => this.ref.close(stock));
   }
 }

@@ -29,3 +29,8 @@ export function applyFieldProblems(
 export function bodyField(path: string): string {
   return path.replace(/^body\./, '').split('.')[0] ?? path;
 }
+
+/** The path after `body.`, whole: the control a complaint is about in a form shaped like the request body. */
+export function bodyPath(path: string): string {
+  return path.replace(/^body\./, '');
+}

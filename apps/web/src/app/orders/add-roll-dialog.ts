@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { takeUntilDestroyed, toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
@@ -15,9 +15,10 @@ import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import type { CreateRollRequest, Roll, Scanner, Stock } from '@clearbase/contracts';
 import { catchError, of } from 'rxjs';
-import { applyFieldProblems } from '../catalogue/apply-field-problems';
 import { CatalogueApi } from '../catalogue/catalogue-api';
-import { readProblem } from '../problem/read-problem';
+import { applyFieldProblems, bodyPath } from '../forms/apply-field-problems';
+import { fieldErrorText } from '../forms/field-error-text';
+import { FormSubmission } from '../forms/form-submission';
 import { pushPullLabel } from '../rolls/roll-labels';
 import { ScannersApi } from '../scanners/scanners-api';
 import { OrdersApi } from './orders-api';
@@ -90,9 +91,10 @@ export class AddRollDialog {
   });
   private readonly stockId = toSignal(this.form.controls.stockId.valueChanges, { initialValue: null });
   protected readonly stock = computed(() => this.stocks().find((s) => s.id === this.stockId()) ?? null);
-  protected readonly busy = signal(false);
-  protected readonly problem = signal<string | null>(null);
-  protected readonly unclaimed = signal<string[]>([]);
+  private readonly submission = new FormSubmission(this.form, (path) => this.form.get(bodyPath(path)));
+  protected readonly busy = this.submission.busy;
+  protected readonly problem = this.submission.problem;
+  protected readonly unclaimed = this.submission.unclaimed;
 
   constructor() {
     // a stock suggests its own EI and frame format; what the operator typed is kept
@@ -106,20 +108,11 @@ export class AddRollDialog {
   }
 
   protected errorOf(name: string): string {
-    const e = this.form.get(name)?.errors;
-    if (!e) return '';
-    if (e['server']) return String(e['server']);
-    if (e['required']) return 'Required';
-    if (e['min']) return `At least ${(e['min'] as { min: number }).min}`;
-    if (e['max']) return `At most ${(e['max'] as { max: number }).max}`;
-    if (e['pattern']) return 'A whole number';
-    if (e['maxlength']) return 'At most 40 characters';
-    return 'Check this value';
+    return fieldErrorText(this.form.get(name)?.errors, { pattern: 'A whole number' });
   }
 
   protected submit(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.busy()) return;
+    if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
     const request: CreateRollRequest = {
       stockId: Number(v.stockId),
@@ -128,26 +121,15 @@ export class AddRollDialog {
       format: v.format.trim(),
       scannerId: v.scannerId,
     };
-    this.busy.set(true);
-    this.problem.set(null);
-    this.unclaimed.set([]);
-    this.api.addRoll(this.data.orderId, request).subscribe({
-      next: (roll) => {
-        this.busy.set(false);
-        this.ref.close(roll);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        const p = readProblem(err);
-        this.problem.set(p.message);
-        this.unclaimed.set(
-          applyFieldProblems(p.fieldErrors, (path) => this.form.get(path.replace(/^body\./, ''))),
-        );
+    this.submission.send(
+      this.api.addRoll(this.data.orderId, request),
+      (roll) => this.ref.close(roll),
+      (p) => {
         // a stock with no published profile is refused without a field path: it is the stock's fault
         if (p.status === 422 && Object.keys(p.fieldErrors).length === 0) {
           applyFieldProblems({ stockId: p.message }, (path) => this.form.get(path));
         }
       },
-    });
+    );
   }
 }

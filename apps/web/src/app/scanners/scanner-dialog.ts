@@ -14,8 +14,9 @@ import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/for
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import type { CreateScannerRequest, Scanner, ScannerKind, ScannerProfile } from '@clearbase/contracts';
-import { applyFieldProblems } from '../catalogue/apply-field-problems';
-import { readProblem } from '../problem/read-problem';
+import { bodyPath } from '../forms/apply-field-problems';
+import { fieldErrorText } from '../forms/field-error-text';
+import { FormSubmission } from '../forms/form-submission';
 import { kindChoices, kindLabel } from './scanner-labels';
 import { ScannersApi } from './scanners-api';
 
@@ -90,9 +91,14 @@ export class ScannerDialog {
       ),
     }),
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal<string | null>(null);
-  protected readonly unclaimed = signal<string[]>([]);
+  private readonly submission = new FormSubmission(this.form, (path) => {
+    const field = bodyPath(path);
+    // the profile's own name is the scanner's name, sent twice
+    return this.form.get(field === 'inputProfile.name' ? 'name' : field);
+  });
+  protected readonly busy = this.submission.busy;
+  protected readonly problem = this.submission.problem;
+  protected readonly unclaimed = this.submission.unclaimed;
   protected readonly usesGamma = signal(this.form.controls.inputProfile.controls.encoding.value === 'gamma');
 
   constructor() {
@@ -109,22 +115,11 @@ export class ScannerDialog {
 
   /** The message a field shows under it; the server's own words win. */
   protected errorOf(path: string): string {
-    const e = this.form.get(path)?.errors;
-    if (!e) return '';
-    if (e['server']) return String(e['server']);
-    if (e['required']) return 'Required';
-    if (e['min'])
-      return (e['min'] as { min: number }).min === Number.MIN_VALUE
-        ? 'Above 0'
-        : `At least ${(e['min'] as { min: number }).min}`;
-    if (e['max']) return `At most ${(e['max'] as { max: number }).max}`;
-    if (e['maxlength']) return 'At most 120 characters';
-    return 'Check this value';
+    return fieldErrorText(this.form.get(path)?.errors);
   }
 
   protected submit(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.busy()) return;
+    if (!this.submission.ready()) return;
     const v = this.form.getRawValue();
     const triple = (values: (number | null)[]) => values.map(Number) as [number, number, number];
     const request: CreateScannerRequest = {
@@ -139,27 +134,7 @@ export class ScannerDialog {
         gains: triple(v.inputProfile.gains),
       },
     };
-    this.busy.set(true);
-    this.problem.set(null);
-    this.unclaimed.set([]);
     const call = this.scanner ? this.api.update(this.scanner.id, request) : this.api.create(request);
-    call.subscribe({
-      next: (scanner) => {
-        this.busy.set(false);
-        this.ref.close(scanner);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        const p = readProblem(err);
-        this.problem.set(p.message);
-        this.unclaimed.set(
-          applyFieldProblems(p.fieldErrors, (path) => {
-            const field = path.replace(/^body\./, '');
-            // the profile's own name is the scanner's name, sent twice
-            return this.form.get(field === 'inputProfile.name' ? 'name' : field);
-          }),
-        );
-      },
-    });
+    this.submission.send(call, (scanner) => this.ref.close(scanner));
   }
 }
