@@ -1,27 +1,13 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { HttpClient } from '@angular/common/http';
-import {
-  type AbstractControl,
-  NonNullableFormBuilder,
-  ReactiveFormsModule,
-  type ValidationErrors,
-  Validators,
-} from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import type { ChangePasswordRequest } from '@clearbase/contracts';
 import { Session } from '../auth/session';
+import { maxPasswordLength, minPasswordLength, sameAsNew } from '../forms/new-password-rules';
 import { readProblem } from '../problem/read-problem';
-
-// The server's password rule (libs/contracts auth/user.ts): 10 to 200 characters.
-const minPasswordLength = 10;
-const maxPasswordLength = 200;
-
-function sameAsNew(control: AbstractControl): ValidationErrors | null {
-  const form = control.parent;
-  return form && control.value !== form.get('newPassword')?.value ? { mismatch: true } : null;
-}
 
 /** Account: who you are, and changing your password. */
 @Component({
