@@ -34,7 +34,7 @@ import {
   Subject,
   switchMap,
 } from 'rxjs';
-import { applyFieldProblems } from '../catalogue/apply-field-problems';
+import { applyFieldProblems } from '../forms/apply-field-problems';
 import { readProblem, type ProblemMessage } from '../problem/read-problem';
 import { RollEventStream, type RollStreamMessage } from './roll-event-stream';
 import {
