@@ -52,4 +52,13 @@ describe('the preview kernel', () => {
     };
     expect(worstDifference(profile)).toBeLessThanOrEqual(1);
   });
+
+  it('renders a film recorded in wide primaries as the engine does, within one code', () => {
+    const profile: InversionProfile = {
+      ...profileForStock(TINTLINE_400),
+      capturePrimaries: 'wide',
+      saturation: 1.2,
+    };
+    expect(worstDifference(profile)).toBeLessThanOrEqual(1);
+  });
 });

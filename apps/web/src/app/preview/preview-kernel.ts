@@ -79,6 +79,10 @@ export function renderQuantised(
   };
   const g0 = DENSITY_STEPS,
     b0 = 2 * DENSITY_STEPS;
+  if (plan.primaries) {
+    renderWithPrimaries(plan, plan.primaries, e, indices, rgba, pixelCount, out);
+    return;
+  }
   if (s === 1) {
     const codes = new Uint8Array(3 * DENSITY_STEPS);
     for (let k = 0; k < codes.length; k++) codes[k] = out(e[k]!);
@@ -95,6 +99,45 @@ export function renderQuantised(
     const er = e[indices[i]!]!,
       eg = e[g0 + indices[i + 1]!]!,
       eb = e[b0 + indices[i + 2]!]!;
+    const mean = wr * er + wg * eg + wb * eb;
+    rgba[o] = out(mean + s * (er - mean));
+    rgba[o + 1] = out(mean + s * (eg - mean));
+    rgba[o + 2] = out(mean + s * (eb - mean));
+    rgba[o + 3] = 255;
+  }
+}
+
+/**
+ * The change of primaries per pixel, as the engine's: relative log exposures to linear light (grey = 1), the
+ * matrix, back to log with a component at or below zero held to the range's floor, then saturation and output.
+ */
+function renderWithPrimaries(
+  plan: InversionPlan,
+  p: Float64Array,
+  e: Float32Array,
+  indices: Uint16Array,
+  rgba: Uint8ClampedArray,
+  pixelCount: number,
+  out: (v: number) => number,
+): void {
+  const linear = new Float64Array(e.length);
+  for (let k = 0; k < e.length; k++) linear[k] = 10 ** e[k]!;
+  const { relativeMin: rMin, relativeMax: rMax, saturation: s } = plan;
+  const [wr, wg, wb] = plan.weights;
+  const floor = 10 ** rMin;
+  const toLog = (v: number) => {
+    const l = Math.log10(v > floor ? v : floor);
+    return l < rMax ? l : rMax;
+  };
+  const g0 = DENSITY_STEPS,
+    b0 = 2 * DENSITY_STEPS;
+  for (let q = 0, i = 0, o = 0; q < pixelCount; q++, i += 3, o += 4) {
+    const lr = linear[indices[i]!]!,
+      lg = linear[g0 + indices[i + 1]!]!,
+      lb = linear[b0 + indices[i + 2]!]!;
+    const er = toLog(p[0]! * lr + p[1]! * lg + p[2]! * lb),
+      eg = toLog(p[3]! * lr + p[4]! * lg + p[5]! * lb),
+      eb = toLog(p[6]! * lr + p[7]! * lg + p[8]! * lb);
     const mean = wr * er + wg * eg + wb * eb;
     rgba[o] = out(mean + s * (er - mean));
     rgba[o + 1] = out(mean + s * (eg - mean));
