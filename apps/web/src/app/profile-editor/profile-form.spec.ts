@@ -81,6 +81,13 @@ describe('the profile form', () => {
     expect(readProfileForm(form.getRawValue(), document)).toEqual(document);
   });
 
+  it('keeps a film’s wide capture primaries through an edit', () => {
+    const wide: ProfileDocument = { ...document, capturePrimaries: 'wide' };
+    const form = createProfileForm(wide);
+    form.controls.balance.controls.magentaGreen.setValue(4);
+    expect(readProfileForm(form.getRawValue(), wide).capturePrimaries).toBe('wide');
+  });
+
   it('carries an edit into the document and keeps the labels it does not edit', () => {
     const form = createProfileForm(document);
     form.controls.balance.controls.magentaGreen.setValue(4);

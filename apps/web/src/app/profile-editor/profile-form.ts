@@ -84,7 +84,7 @@ const num = (v: number | null | undefined): number => (typeof v === 'number' ? v
 
 /**
  * The profile document a form's value describes: the form's parameters over `base`'s labels (schema version, id,
- * version and stock, which the editor does not change). Blank cells become NaN, which the schema refuses.
+ * version, stock and capture primaries, which the editor does not change). Blank cells become NaN, which the schema refuses.
  * @example readProfileForm(form.getRawValue(), version.parameters).balance.magentaGreen
  */
 export function readProfileForm(
@@ -116,6 +116,8 @@ export function readProfileForm(
       whitePoint: num(value.tone.whitePoint),
     },
     saturation: num(value.saturation),
+    // the film's capture primaries are the stock's, not something the editor changes
+    ...(base.capturePrimaries ? { capturePrimaries: base.capturePrimaries } : {}),
   };
 }
 
