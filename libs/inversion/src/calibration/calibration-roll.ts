@@ -26,6 +26,10 @@ export interface CalibrationRollOptions {
   patchSize?: number;
   /** Side of a grey frame, pixels. Default 24. */
   greySize?: number;
+  /** Height of a grey frame's exposed area, pixels, when it is not square. Default `greySize`. */
+  greyHeight?: number;
+  /** Also make a frame of unexposed leader (film base and fog only), as wide and tall as a grey frame. */
+  leader?: boolean;
   /** Grain, D. Default 0.01. */
   grain?: number;
   /** Rebate above and below each frame, pixels. Default 6. */
@@ -36,6 +40,8 @@ export interface CalibrationRollOptions {
 export interface CalibrationRoll {
   brackets: { stops: number; negative: SyntheticNegative }[];
   chart: SyntheticNegative;
+  /** Unexposed leader, when asked for. */
+  leader?: SyntheticNegative;
   /** Where the chart sits in its frame, and its corners in chart order (patch 1, 6, 24, 19). */
   chartRegion: Region;
   chartCorners: Point[];
@@ -55,11 +61,12 @@ export function calibrationRoll(options: CalibrationRollOptions): CalibrationRol
   const grain = options.grain ?? 0.01;
   const rebate = options.rebate ?? 6;
   const size = options.greySize ?? 24;
+  const greyHeight = options.greyHeight ?? size;
   const patch = options.patchSize ?? 20;
   const light = options.chartLight ?? [1, 1, 1];
   const brackets = stops.map((s, i) => ({
     stops: s,
-    negative: exposeNegative(greySteps(1, MID_GREY, MID_GREY, size), {
+    negative: exposeNegative(greySteps(1, MID_GREY, MID_GREY, size, greyHeight), {
       stock: options.stock,
       scanner: options.scanner,
       exposureStops: s,
@@ -82,9 +89,18 @@ export function calibrationRoll(options: CalibrationRollOptions): CalibrationRol
     rebate,
   });
   const q = Math.round(size / 4);
+  const qh = Math.round(greyHeight / 4);
+  // leader: no light at all reaches it, so every pixel is film base and fog (scene at the model's floor)
+  const leader = options.leader
+    ? exposeNegative(
+        { width: size, height: greyHeight, rgb: new Float32Array(size * greyHeight * 3) },
+        { stock: options.stock, scanner: options.scanner, grain, seed: 5, rebate },
+      )
+    : undefined;
   return {
     brackets,
     chart,
+    ...(leader ? { leader } : {}),
     chartRegion: [0, rebate, scene.width, scene.height],
     chartCorners: [
       [0, rebate],
@@ -92,7 +108,7 @@ export function calibrationRoll(options: CalibrationRollOptions): CalibrationRol
       [scene.width, rebate + scene.height],
       [0, rebate + scene.height],
     ],
-    greyRegion: [q, rebate + q, size - 2 * q, size - 2 * q],
+    greyRegion: [q, rebate + qh, size - 2 * q, greyHeight - 2 * qh],
     baseRegion: [0, 0, size, rebate],
   };
 }
