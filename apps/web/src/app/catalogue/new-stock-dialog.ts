@@ -8,21 +8,16 @@ import {
   MatDialogRef,
   MatDialogTitle,
 } from '@angular/material/dialog';
-import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/material/form-field';
+import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import type { CreateStockRequest, FilmProcess, Stock } from '@clearbase/contracts';
 import { FormSubmission } from '../forms/form-submission';
 import { CatalogueApi } from './catalogue-api';
 import { processChoices, processLabel } from './stock-labels';
-import {
-  defaultReciprocityExponent,
-  latitudeRange,
-  reciprocityExponentRange,
-  speedRange,
-  stockFieldError,
-  wholeNumber,
-} from './stock-limits';
+import { StockSheetFields } from './stock-sheet-fields';
+import { stockSheetControls, stockSheetRequest } from './stock-sheet-form';
+import { defaultReciprocityExponent, speedRange, stockFieldError, wholeNumber } from './stock-limits';
 
 /** Manager: adds a stock with its sheet; the server's complaints appear under the fields they concern. */
 @Component({
@@ -38,10 +33,10 @@ import {
     MatLabel,
     MatError,
     MatHint,
-    MatSuffix,
     MatInput,
     MatSelect,
     MatOption,
+    StockSheetFields,
   ],
   templateUrl: './new-stock-dialog.html',
   styleUrl: './new-stock-dialog.scss',
@@ -54,9 +49,8 @@ export class NewStockDialog {
   protected readonly processes = processChoices;
   protected readonly processLabel = processLabel;
   protected readonly speedRange = speedRange;
-  protected readonly latitudeRange = latitudeRange;
-  protected readonly exponentRange = reciprocityExponentRange;
-  protected readonly form = inject(NonNullableFormBuilder).group({
+  private readonly fb = inject(NonNullableFormBuilder);
+  protected readonly form = this.fb.group({
     name: ['', [Validators.required, Validators.maxLength(120)]],
     maker: ['', [Validators.required, Validators.maxLength(120)]],
     iso: [
@@ -67,29 +61,15 @@ export class NewStockDialog {
     masked: [false, [Validators.required]],
     baseMaterial: ['', [Validators.required, Validators.maxLength(120)]],
     frameFormats: ['', [Validators.required, Validators.pattern(/[^,\s]/)]],
-    notes: ['', [Validators.maxLength(4000)]],
-    recommendedEi: [
-      null as number | null,
-      [Validators.min(speedRange.min), Validators.max(speedRange.max), wholeNumber],
-    ],
-    latitudeUnderStops: [
-      null as number | null,
-      [Validators.min(latitudeRange.min), Validators.max(latitudeRange.max)],
-    ],
-    latitudeOverStops: [
-      null as number | null,
-      [Validators.min(latitudeRange.min), Validators.max(latitudeRange.max)],
-    ],
-    pushPullNotes: ['', [Validators.maxLength(4000)]],
-    reciprocityExponent: [
-      defaultReciprocityExponent as number | null,
-      [
-        Validators.required,
-        Validators.min(reciprocityExponentRange.min),
-        Validators.max(reciprocityExponentRange.max),
-      ],
-    ],
-    handlingNotes: ['', [Validators.maxLength(4000)]],
+    ...stockSheetControls(this.fb, {
+      notes: '',
+      recommendedEi: null,
+      latitudeUnderStops: null,
+      latitudeOverStops: null,
+      pushPullNotes: '',
+      reciprocityExponent: defaultReciprocityExponent,
+      handlingNotes: '',
+    }),
   });
   private readonly submission = new FormSubmission(this.form);
   protected readonly busy = this.submission.busy;
@@ -115,13 +95,7 @@ export class NewStockDialog {
         .split(',')
         .map((f) => f.trim())
         .filter((f) => f !== ''),
-      notes: v.notes.trim(),
-      recommendedEi: v.recommendedEi ?? null,
-      latitudeUnderStops: v.latitudeUnderStops ?? null,
-      latitudeOverStops: v.latitudeOverStops ?? null,
-      pushPullNotes: v.pushPullNotes.trim(),
-      reciprocityExponent: Number(v.reciprocityExponent),
-      handlingNotes: v.handlingNotes.trim(),
+      ...stockSheetRequest(v),
     };
     this.submission.send(this.api.createStock(request), (stock) => this.ref.close(stock));
   }

@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import {
   MAT_DIALOG_DATA,
@@ -9,19 +9,14 @@ import {
   MatDialogRef,
   MatDialogTitle,
 } from '@angular/material/dialog';
-import { MatError, MatFormField, MatHint, MatLabel, MatSuffix } from '@angular/material/form-field';
+import { MatError, MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import type { Stock, UpdateStockSheetRequest } from '@clearbase/contracts';
 import { FormSubmission } from '../forms/form-submission';
 import { CatalogueApi } from './catalogue-api';
-import {
-  latitudeRange,
-  noteMaxLength,
-  reciprocityExponentRange,
-  speedRange,
-  stockFieldError,
-  wholeNumber,
-} from './stock-limits';
+import { StockSheetFields } from './stock-sheet-fields';
+import { stockSheetControls, stockSheetRequest } from './stock-sheet-form';
+import { stockFieldError } from './stock-limits';
 
 /** Manager: changes what a stock's sheet says; closes with the saved stock. */
 @Component({
@@ -36,9 +31,8 @@ import {
     MatFormField,
     MatLabel,
     MatError,
-    MatHint,
-    MatSuffix,
     MatInput,
+    StockSheetFields,
   ],
   templateUrl: './stock-sheet-dialog.html',
   styleUrl: './new-stock-dialog.scss',
@@ -48,33 +42,9 @@ export class StockSheetDialog {
   private readonly api = inject(CatalogueApi);
   private readonly ref = inject<MatDialogRef<StockSheetDialog, Stock>>(MatDialogRef);
   protected readonly stock = inject<Stock>(MAT_DIALOG_DATA);
+  private readonly fb = inject(NonNullableFormBuilder);
 
-  protected readonly exponentRange = reciprocityExponentRange;
-  protected readonly form = inject(NonNullableFormBuilder).group({
-    notes: [this.stock.notes, [Validators.maxLength(noteMaxLength)]],
-    recommendedEi: [
-      this.stock.recommendedEi,
-      [Validators.min(speedRange.min), Validators.max(speedRange.max), wholeNumber],
-    ],
-    latitudeUnderStops: [
-      this.stock.latitudeUnderStops,
-      [Validators.min(latitudeRange.min), Validators.max(latitudeRange.max)],
-    ],
-    latitudeOverStops: [
-      this.stock.latitudeOverStops,
-      [Validators.min(latitudeRange.min), Validators.max(latitudeRange.max)],
-    ],
-    pushPullNotes: [this.stock.pushPullNotes, [Validators.maxLength(noteMaxLength)]],
-    reciprocityExponent: [
-      this.stock.reciprocityExponent as number | null,
-      [
-        Validators.required,
-        Validators.min(reciprocityExponentRange.min),
-        Validators.max(reciprocityExponentRange.max),
-      ],
-    ],
-    handlingNotes: [this.stock.handlingNotes, [Validators.maxLength(noteMaxLength)]],
-  });
+  protected readonly form = this.fb.group(stockSheetControls(this.fb, this.stock));
   private readonly submission = new FormSubmission(this.form);
   protected readonly busy = this.submission.busy;
   protected readonly problem = this.submission.problem;
@@ -86,16 +56,7 @@ export class StockSheetDialog {
 
   protected submit(): void {
     if (!this.submission.ready()) return;
-    const v = this.form.getRawValue();
-    const sheet: UpdateStockSheetRequest = {
-      notes: v.notes.trim(),
-      recommendedEi: v.recommendedEi ?? null,
-      latitudeUnderStops: v.latitudeUnderStops ?? null,
-      latitudeOverStops: v.latitudeOverStops ?? null,
-      pushPullNotes: v.pushPullNotes.trim(),
-      reciprocityExponent: Number(v.reciprocityExponent),
-      handlingNotes: v.handlingNotes.trim(),
-    };
+    const sheet: UpdateStockSheetRequest = stockSheetRequest(this.form.getRawValue());
     this.submission.send(this.api.updateSheet(this.stock.id, sheet), (stock) => this.ref.close(stock));
   }
 }
