@@ -50,6 +50,8 @@ const envSchema = z.object({
   // 5 sign-ups per hour per address: enough for a family at one counter, little for a script (our choice)
   SIGNUP_RATE_LIMIT_MAX: intFromEnv(1, 10_000).default(5),
   SIGNUP_RATE_LIMIT_WINDOW_MINUTES: intFromEnv(1, 24 * 60).default(60),
+  // a week (168 h) gives a customer time to fetch a large order; at most 90 days, so old links die (our choice)
+  DOWNLOAD_LINK_HOURS: intFromEnv(1, 24 * 90).default(168),
 });
 
 /** The server's settings, validated from the environment once at start-up. */
@@ -78,6 +80,8 @@ export interface Config {
   smtp: SmtpSettings;
   payment: PaymentSettings;
   signupRateLimit: { max: number; windowMs: number };
+  /** How long a mailed or handed-out download link works. */
+  downloadLinkHours: number;
 }
 
 /** Where the outbox hands mail over. With local fakes, port 0 means "the port the catcher got". */
@@ -188,6 +192,7 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
       max: e.SIGNUP_RATE_LIMIT_MAX,
       windowMs: e.SIGNUP_RATE_LIMIT_WINDOW_MINUTES * 60_000,
     },
+    downloadLinkHours: e.DOWNLOAD_LINK_HOURS,
   };
 }
 

@@ -31,3 +31,16 @@ describe('upload limits and queue concurrency', () => {
     expect(() => loadConfig({ DATA_DIR: dir, UPLOAD_MAX_FILES: 'many' })).toThrow(/UPLOAD_MAX_FILES/);
   });
 });
+
+describe('the download link validity', () => {
+  it('is a week by default and is set in hours by DOWNLOAD_LINK_HOURS', () => {
+    expect(loadConfig({ DATA_DIR: dir }).downloadLinkHours).toBe(168);
+    expect(loadConfig({ DATA_DIR: dir, DOWNLOAD_LINK_HOURS: '36' }).downloadLinkHours).toBe(36);
+  });
+
+  it('refuses less than an hour or more than 90 days, naming the variable', () => {
+    expect(() => loadConfig({ DATA_DIR: dir, DOWNLOAD_LINK_HOURS: '0' })).toThrow(/DOWNLOAD_LINK_HOURS/);
+    expect(() => loadConfig({ DATA_DIR: dir, DOWNLOAD_LINK_HOURS: '2161' })).toThrow(/DOWNLOAD_LINK_HOURS/);
+    expect(() => loadConfig({ DATA_DIR: dir, DOWNLOAD_LINK_HOURS: '1.5' })).toThrow(ConfigError);
+  });
+});

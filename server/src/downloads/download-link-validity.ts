@@ -1,6 +1,7 @@
-/** How long a download link works: a week gives a customer time to fetch a large order (our choice). */
-export const downloadLinkDays = 7;
-export const downloadLinkValidMs = downloadLinkDays * 24 * 3600_000;
+/** How long a download link works, in milliseconds, from DOWNLOAD_LINK_HOURS (config.downloadLinkHours). */
+export function downloadLinkValidMs(hours: number): number {
+  return hours * 3600_000;
+}
 
 /** The absolute URL of a download link's token. */
 export function downloadUrl(publicUrl: string, token: string): string {

@@ -32,7 +32,8 @@ export const downloadsRoutes: RouteModule = (api, { db, config, clock }) => {
       path: '/api/orders/:id/download-links',
       roles: everyone,
       params: idParamsSchema,
-      summary: 'A signed link to the order’s finished scans, for its owner or staff; expires after 7 days',
+      summary:
+        'A signed link to the order’s finished scans, for its owner or staff; expires after DOWNLOAD_LINK_HOURS',
     },
     async (_req, res, { params, user }) => {
       const order = await loadOrderFor(db, params.id, user!);
@@ -40,7 +41,7 @@ export const downloadsRoutes: RouteModule = (api, { db, config, clock }) => {
         orderId: order.id,
         by: user!.id,
         at: clock.now(),
-        validMs: downloadLinkValidMs,
+        validMs: downloadLinkValidMs(config.downloadLinkHours),
       });
       res.status(201).json({ url: downloadUrl(config.publicUrl, token), expiresAt });
     },

@@ -161,6 +161,28 @@ describe('marking an order ready', () => {
       `Order ${order.body.id} is not ready: roll 1 has 1 frame not approved; roll 2 has no scans yet.`,
     );
     expect((await customer.get(`/api/orders/${order.body.id}`)).body.order.status).toBe('received');
+
+    const readiness = await operator.get(`/api/orders/${order.body.id}/readiness`).expect(200);
+    expect(readiness.body).toEqual({
+      ready: false,
+      blocker: null,
+      waiting: [
+        { rollId: first.body.id, rollNumber: 1, reason: 'has 1 frame not approved' },
+        { rollId: expect.any(Number), rollNumber: 2, reason: 'has no scans yet' },
+      ],
+      linkValidHours: 168,
+    });
+  });
+
+  it('tells staff an order without rolls cannot be marked ready, and keeps the readiness from customers', async () => {
+    const order = await customer.post('/api/orders', {}).expect(201);
+    const readiness = await operator.get(`/api/orders/${order.body.id}/readiness`).expect(200);
+    expect(readiness.body).toMatchObject({
+      ready: false,
+      blocker: `Order ${order.body.id} has no rolls to deliver.`,
+      waiting: [],
+    });
+    await customer.get(`/api/orders/${order.body.id}/readiness`).expect(403);
   });
 
   it('is for staff only', async () => {
@@ -174,6 +196,7 @@ describe('marking an order ready', () => {
       .post(`/api/orders/${order.body.id}/rolls`, { stockId, ei: 200, format: '135-36' })
       .expect(201);
     await addFrame(roll.body.id as number, 1, 'approved');
+    expect((await operator.get(`/api/orders/${order.body.id}/readiness`)).body.ready).toBe(true);
 
     const res = await operator.post(`/api/orders/${order.body.id}/ready`).expect(200);
 

@@ -1,4 +1,4 @@
-import { idParamsSchema, staffRoles } from '@clearbase/contracts';
+import { idParamsSchema, staffRoles, type OrderReadiness, type RollNotApproved } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
@@ -8,21 +8,18 @@ import { loadOrderFor } from '../orders/order-access';
 import { findOrderById, setOrderStatus, toOrder } from '../orders/order-repository';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { findUserById } from '../users/user-repository';
-import { downloadLinkDays, downloadLinkValidMs, downloadUrl } from './download-link-validity';
+import { downloadLinkValidMs, downloadUrl } from './download-link-validity';
 import { insertDownloadToken } from './download-token-repository';
 
 /** Each roll of the order that is not yet approved, with the reason, in roll order. */
-export async function rollsNotApproved(
-  db: Kysely<Database>,
-  orderId: number,
-): Promise<{ rollId: number; rollNumber: number; reason: string }[]> {
+export async function rollsNotApproved(db: Kysely<Database>, orderId: number): Promise<RollNotApproved[]> {
   const rolls = await db
     .selectFrom('rolls')
     .select('id')
     .where('order_id', '=', orderId)
     .orderBy('id')
     .execute();
-  const waiting: { rollId: number; rollNumber: number; reason: string }[] = [];
+  const waiting: RollNotApproved[] = [];
   for (const [i, roll] of rolls.entries()) {
     const frames = await db
       .selectFrom('frames')
@@ -43,8 +40,39 @@ export async function rollsNotApproved(
   return waiting;
 }
 
+/** Why an order cannot be marked ready whatever its rolls: it is closed or has none; null when it can. */
+function orderBlocker(order: { id: number; status: string; roll_count: number }): string | null {
+  if (order.status === 'delivered' || order.status === 'cancelled') {
+    return `Order ${order.id} is ${order.status}; it cannot be marked ready.`;
+  }
+  if (order.roll_count === 0) return `Order ${order.id} has no rolls to deliver.`;
+  return null;
+}
+
 /** Staff tell the customer an order is ready: status `ready` and the scans-ready mail with a download link. */
 export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
+  api.define(
+    {
+      method: 'get',
+      path: '/api/orders/:id/readiness',
+      roles: staffRoles,
+      params: idParamsSchema,
+      summary: 'Whether the order may be marked ready now, each roll still waiting with its reason',
+    },
+    async (_req, res, { params, user }) => {
+      const order = await loadOrderFor(db, params.id, user!);
+      const blocker = orderBlocker(order);
+      const waiting = blocker ? [] : await rollsNotApproved(db, order.id);
+      const readiness: OrderReadiness = {
+        ready: blocker === null && waiting.length === 0,
+        blocker,
+        waiting,
+        linkValidHours: config.downloadLinkHours,
+      };
+      res.json(readiness);
+    },
+  );
+
   api.define(
     {
       method: 'post',
@@ -55,15 +83,10 @@ export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
     },
     async (_req, res, { params, user }) => {
       const order = await loadOrderFor(db, params.id, user!);
-      if (order.status === 'delivered' || order.status === 'cancelled') {
-        throw new AppError(
-          'order-closed',
-          409,
-          `Order ${order.id} is ${order.status}; it cannot be marked ready.`,
-        );
-      }
-      if (order.roll_count === 0) {
-        throw new AppError('order-not-approved', 409, `Order ${order.id} has no rolls to deliver.`);
+      const blocker = orderBlocker(order);
+      if (blocker) {
+        const closed = order.status === 'delivered' || order.status === 'cancelled';
+        throw new AppError(closed ? 'order-closed' : 'order-not-approved', 409, blocker);
       }
       const waiting = await rollsNotApproved(db, order.id);
       if (waiting.length > 0) {
@@ -82,7 +105,7 @@ export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
           orderId: order.id,
           by: user!.id,
           at,
-          validMs: downloadLinkValidMs,
+          validMs: downloadLinkValidMs(config.downloadLinkHours),
         });
         await enqueueTemplatedMail(
           trx,
@@ -93,7 +116,7 @@ export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
             reference: `order ${order.id}`,
             url: downloadUrl(config.publicUrl, token),
             galleryUrl: `${config.publicUrl}/orders/${order.id}/gallery`,
-            expiresDays: downloadLinkDays,
+            expiresHours: config.downloadLinkHours,
           },
           at,
         );

@@ -20,7 +20,7 @@ const samples: { [K in MailKind]: MailTemplateData[K] } = {
     reference: 'order 4',
     url: 'https://lab.test/api/downloads/abc',
     galleryUrl: 'https://lab.test/orders/4/gallery',
-    expiresDays: 7,
+    expiresHours: 168,
   },
 };
 
@@ -39,6 +39,16 @@ describe('mail templates', () => {
       expect(mail.text).not.toMatch(/<[a-z]/i);
     });
   }
+
+  it("words the download link's life in days when it is whole days, in hours otherwise", () => {
+    const week = renderMail(lab, 'x@example.test', 'scans-ready', samples['scans-ready']);
+    expect(week.text).toContain('for 7 days;');
+    const shortLink = renderMail(lab, 'x@example.test', 'scans-ready', {
+      ...samples['scans-ready'],
+      expiresHours: 36,
+    });
+    expect(shortLink.text).toContain('for 36 hours;');
+  });
 
   it('escapes what people typed before it goes into the HTML part', () => {
     const mail = renderMail(lab, 'x@example.test', 'payment-receipt', {

@@ -10,9 +10,15 @@ export interface MailTemplateData {
   'account-created': { name: string; url: string; expiresHours: number };
   'payment-receipt': { name: string; amount: string; reference: string };
   'order-received': { name: string; reference: string; url: string };
-  'scans-ready': { name: string; reference: string; url: string; galleryUrl: string; expiresDays: number };
+  'scans-ready': { name: string; reference: string; url: string; galleryUrl: string; expiresHours: number };
 }
 export type MailKind = keyof MailTemplateData;
+
+/** A span of whole hours in words: whole days as days ("7 days"), the rest as hours ("36 hours"). */
+function lasting(hours: number): string {
+  if (hours % 24 === 0) return hours === 24 ? '1 day' : `${hours / 24} days`;
+  return hours === 1 ? '1 hour' : `${hours} hours`;
+}
 
 type Template<K extends MailKind> = (lab: Lab, data: MailTemplateData[K]) => ReturnType<typeof layMail>;
 
@@ -89,7 +95,7 @@ const templates: { [K in MailKind]: Template<K> } = {
       ],
       action: { label: 'Download all my scans', url: d.url },
       after: [
-        `Sign in first: the link works only for your account, for ${d.expiresDays} days; after that the gallery gives you a fresh one.`,
+        `Sign in first: the link works only for your account, for ${lasting(d.expiresHours)}; after that the gallery gives you a fresh one.`,
       ],
     }),
 };

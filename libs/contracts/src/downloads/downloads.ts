@@ -41,3 +41,22 @@ export const galleryResponseSchema = z.object({
   frames: z.array(galleryFrameSchema),
 });
 export type GalleryResponse = z.infer<typeof galleryResponseSchema>;
+
+/** A roll that keeps an order from being marked ready, and why ("has no scans yet", "has 2 frames not approved"). */
+export const rollNotApprovedSchema = z.object({
+  rollId: z.number().int().positive(),
+  /** Position of the roll in the order, from 1. */
+  rollNumber: z.number().int().positive(),
+  reason: z.string(),
+});
+export type RollNotApproved = z.infer<typeof rollNotApprovedSchema>;
+
+/** GET /api/orders/:id/readiness: whether staff may mark the order ready now, and how long the mailed link works. */
+export const orderReadinessSchema = z.object({
+  ready: z.boolean(),
+  /** Why not, when not: the order is closed or has no rolls. */
+  blocker: z.string().nullable(),
+  waiting: z.array(rollNotApprovedSchema),
+  linkValidHours: z.number().int().positive(),
+});
+export type OrderReadiness = z.infer<typeof orderReadinessSchema>;
