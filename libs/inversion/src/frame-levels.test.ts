@@ -10,6 +10,9 @@ import {
   POLYCLEAR_200,
   profileForStock,
   rollLevels,
+  shiftLevelPoints,
+  toneCurve,
+  MIN_POINT_GAP_LOG_EXPOSURE,
   type Rgb,
 } from './index';
 
@@ -75,5 +78,47 @@ describe('auto exposure and levels', () => {
     expect(deviations[1]!.midLogExposure).toBeCloseTo(0, 2);
     expect(deviations[2]!.midLogExposure - deviations[0]!.midLogExposure).toBeCloseTo(2 * Math.log10(2), 2);
     expect(roll.midLogExposure).toBeCloseTo(levelsAt(0).midLogExposure, 2);
+  });
+});
+
+describe('black and white point shifts', () => {
+  const levels = levelsAt(0);
+  const stop = Math.log10(2); // one stop of exposure is a factor of 2: log10 2 of log exposure
+
+  it('moves each point by log10 2 of log exposure a stop, leaving E_mid and the channel means', () => {
+    const shifted = shiftLevelPoints(levels, 1, -0.5);
+    expect(shifted.blackLogExposure - levels.blackLogExposure).toBeCloseTo(stop, 12);
+    expect(shifted.whiteLogExposure - levels.whiteLogExposure).toBeCloseTo(-0.5 * stop, 12);
+    expect(shifted.midLogExposure).toBe(levels.midLogExposure);
+    expect(shifted.channelMeans).toEqual(levels.channelMeans);
+    expect(shiftLevelPoints(levels, 0, 0)).toEqual(levels);
+  });
+
+  it('prints deeper blacks when the black point moves to more exposure', () => {
+    const shadow = levels.blackLogExposure + 0.5 * stop - levels.midLogExposure;
+    const before = levelsToTone(levels, 1.1);
+    const after = levelsToTone(shiftLevelPoints(levels, 1, 0), 1.1);
+    expect(after.blackPoint).toBeGreaterThan(before.blackPoint);
+    expect(toneCurve(shadow, before)).toBeGreaterThan(0);
+    expect(toneCurve(shadow, after)).toBe(0);
+  });
+
+  it('prints dimmer highlights when the white point moves to more exposure', () => {
+    const highlight = levels.whiteLogExposure - levels.midLogExposure;
+    const before = levelsToTone(levels, 1.1);
+    const after = levelsToTone(shiftLevelPoints(levels, 0, 1), 1.1);
+    expect(toneCurve(highlight, before)).toBeCloseTo(1, 9);
+    expect(toneCurve(highlight, after)).toBeLessThan(0.6);
+  });
+
+  it('keeps the white point above the black point however far they are pushed', () => {
+    const crossed = shiftLevelPoints(levels, 3, -3);
+    expect(crossed.whiteLogExposure - crossed.blackLogExposure).toBeCloseTo(MIN_POINT_GAP_LOG_EXPOSURE, 12);
+    const tone = levelsToTone(crossed, 1);
+    expect(tone.whitePoint).toBeGreaterThan(tone.blackPoint);
+  });
+
+  it('refuses a shift that is not a number', () => {
+    expect(() => shiftLevelPoints(levels, Number.NaN, 0)).toThrow(RangeError);
   });
 });

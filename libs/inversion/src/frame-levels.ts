@@ -3,7 +3,7 @@ import type { Region, RgbImage } from './film-base';
 import { DENSITY_RANGE, LUMINANCE_WEIGHTS, resolveInversion, type InversionParams } from './invert-pixel';
 import { densityTable, exposureTable, EXPOSURE_TABLE_SIZE } from './inversion-tables';
 import { MID_GREY } from './tone-curve';
-import { LOG_EXPOSURE_PER_POINT } from './printer-points';
+import { LOG_EXPOSURE_PER_POINT, LOG_EXPOSURE_PER_STOP } from './printer-points';
 import type { Rgb } from './srgb';
 
 /** Exposure statistics of a frame, in log exposure (profile balance applied, no exposure offset). */
@@ -144,6 +144,32 @@ export function levelsToTone(
     Math.max(blackPoint * 1.01, MID_GREY * 10 ** (contrast * (levels.whiteLogExposure - midLogExposure))),
   );
   return { contrast, blackPoint, whitePoint };
+}
+
+/** Least log exposure kept between the black and the white point: one 1/6-stop step of the controls (our choice). */
+export const MIN_POINT_GAP_LOG_EXPOSURE = LOG_EXPOSURE_PER_STOP / 6;
+
+/**
+ * Moves the black and white points of measured levels by whole stops of log exposure (one stop = log10 2): positive
+ * moves a point to more exposure, so +1 on the black point prints one stop more of the shadows as black (deeper
+ * blacks) and +1 on the white point needs one stop more to reach white (dimmer highlights). E_mid and the channel
+ * means stay, so exposure and grey balance do not move. The white point is held at least
+ * MIN_POINT_GAP_LOG_EXPOSURE above the black point.
+ * @example shiftLevelPoints(levels, 1, 0).blackLogExposure - levels.blackLogExposure // 0.30103
+ */
+export function shiftLevelPoints(
+  levels: FrameLevels,
+  blackPointStops: number,
+  whitePointStops: number,
+): FrameLevels {
+  if (!Number.isFinite(blackPointStops) || !Number.isFinite(whitePointStops))
+    throw new RangeError(`Expected finite point shifts but received ${blackPointStops}, ${whitePointStops}`);
+  const blackLogExposure = levels.blackLogExposure + blackPointStops * LOG_EXPOSURE_PER_STOP;
+  const whiteLogExposure = Math.max(
+    blackLogExposure + MIN_POINT_GAP_LOG_EXPOSURE,
+    levels.whiteLogExposure + whitePointStops * LOG_EXPOSURE_PER_STOP,
+  );
+  return { ...levels, blackLogExposure, whiteLogExposure };
 }
 
 /** Roll-wide levels and each frame's deviation from them. */

@@ -30,6 +30,8 @@ describe('order contracts', () => {
       balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
       exposureStops: 0,
       contrast: null,
+      blackPointStops: 0,
+      whitePointStops: 0,
     });
   });
 

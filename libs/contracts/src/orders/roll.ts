@@ -12,15 +12,40 @@ export const pixelRegionSchema = z.strictObject({
 });
 export type PixelRegion = z.infer<typeof pixelRegionSchema>;
 
+/** Steps of the exposure and point controls per stop: a sixth of a stop, common practice of the trade, from memory. */
+export const STOP_STEPS = 6;
+
+/** True when `stops` is a whole number of 1/6 stops (within rounding of the JSON number). */
+export function isSixthOfStop(stops: number): boolean {
+  // 1e-9 of a step absorbs the binary rounding of k/6 written as decimal JSON: our choice
+  return Math.abs(stops * STOP_STEPS - Math.round(stops * STOP_STEPS)) < 1e-9;
+}
+
+/**
+ * A shift of a frame's black or white point in stops of log exposure, in 1/6-stop steps.
+ * ±3 stops moves a point past any print's shadows or highlights: common practice of the trade, from memory.
+ */
+const pointShiftStops = z
+  .number()
+  .min(-3, 'Move the point by at most 3 stops')
+  .max(3, 'Move the point by at most 3 stops')
+  .refine(isSixthOfStop, 'Use steps of 1/6 stop')
+  .default(0);
+
 /**
  * Tuning of a roll or of one frame. Balance in printer points on the positive's axes (a frame's adds to its roll's,
  * which adds to the profile's); exposure in stops (they add); contrast replaces the profile's when set.
+ * `blackPointStops` / `whitePointStops` move the log exposures that print as black and as white (from the frame's or
+ * the roll's levels), in stops: positive moves a point to more exposure, so deeper blacks for the black point and
+ * dimmer highlights for the white point; a roll's and a frame's shifts add.
  */
 export const adjustmentsSchema = z.strictObject({
   balance: balanceSchema.default({ cyanRed: 0, magentaGreen: 0, yellowBlue: 0 }),
   // ±5 stops spans any correction a printed negative takes: common practice of the trade, from memory
   exposureStops: z.number().min(-5).max(5).default(0),
   contrast: z.number().positive().max(4).nullable().default(null),
+  blackPointStops: pointShiftStops,
+  whitePointStops: pointShiftStops,
 });
 export type Adjustments = z.infer<typeof adjustmentsSchema>;
 
@@ -29,6 +54,8 @@ export const neutralAdjustments: Adjustments = {
   balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
   exposureStops: 0,
   contrast: null,
+  blackPointStops: 0,
+  whitePointStops: 0,
 };
 
 /** Where a roll stands on the way from scans to finished positives. */

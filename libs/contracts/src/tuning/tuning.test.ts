@@ -23,6 +23,25 @@ describe('adjustments of a frame', () => {
     expect(sum.contrast).toBe(1.1);
   });
 
+  it('add the roll’s and the frame’s black and white point shifts', () => {
+    const roll = adjustmentsSchema.parse({ blackPointStops: 0.5, whitePointStops: -1 / 3 });
+    const frame = adjustmentsSchema.parse({ blackPointStops: 1 / 6, whitePointStops: 1 });
+    const sum = sumAdjustments(profile, roll, frame);
+    expect(sum.blackPointStops).toBeCloseTo(2 / 3, 12);
+    expect(sum.whitePointStops).toBeCloseTo(2 / 3, 12);
+  });
+
+  it('reads adjustments saved before the point shifts existed as no shift', () => {
+    const saved = {
+      balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
+      exposureStops: 0,
+      contrast: null,
+    };
+    const sum = sumAdjustments(profile, saved as never, saved as never);
+    expect(sum.blackPointStops).toBe(0);
+    expect(sum.whitePointStops).toBe(0);
+  });
+
   it('takes the frame’s contrast over the roll’s, and the roll’s over the profile’s', () => {
     const roll = adjustmentsSchema.parse({ contrast: 1.3 });
     expect(sumAdjustments(profile, roll, adjustmentsSchema.parse({})).contrast).toBe(1.3);

@@ -86,11 +86,15 @@ export interface SummedAdjustments {
   exposureStops: number;
   /** The frame's contrast when set, else the roll's, else the profile's. */
   contrast: number;
+  /** Stops the black point moves to more exposure: roll + frame. */
+  blackPointStops: number;
+  /** Stops the white point moves to more exposure: roll + frame. */
+  whitePointStops: number;
 }
 
 /**
- * Puts a profile's, a roll's and a frame's adjustments together the way every render does: balances and exposures
- * add; contrast is the nearest one set.
+ * Puts a profile's, a roll's and a frame's adjustments together the way every render does: balances, exposures and
+ * black and white point shifts add; contrast is the nearest one set.
  * @example sumAdjustments(profile, roll, frame).balance.magentaGreen // profile + roll + frame magenta–green points
  */
 export function sumAdjustments(
@@ -106,5 +110,8 @@ export function sumAdjustments(
     },
     exposureStops: roll.exposureStops + frame.exposureStops,
     contrast: frame.contrast ?? roll.contrast ?? profile.tone.contrast,
+    // adjustments saved before the point shifts existed carry none: they read as 0
+    blackPointStops: (roll.blackPointStops ?? 0) + (frame.blackPointStops ?? 0),
+    whitePointStops: (roll.whitePointStops ?? 0) + (frame.whitePointStops ?? 0),
   };
 }

@@ -65,6 +65,8 @@ const zero: Adjustments = {
   balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
   exposureStops: 0,
   contrast: null,
+  blackPointStops: 0,
+  whitePointStops: 0,
 };
 
 /**

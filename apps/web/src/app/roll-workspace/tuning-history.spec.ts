@@ -6,6 +6,8 @@ const zero: Adjustments = {
   balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
   exposureStops: 0,
   contrast: null,
+  blackPointStops: 0,
+  whitePointStops: 0,
 };
 const green = (n: number): Adjustments => ({ ...zero, balance: { ...zero.balance, magentaGreen: n } });
 const start = () => startHistory({ roll: zero, frames: { 1: zero, 2: zero, 3: zero } });

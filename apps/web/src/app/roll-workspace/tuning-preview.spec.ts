@@ -38,11 +38,15 @@ const roll: Adjustments = {
   balance: { cyanRed: 2, magentaGreen: 4, yellowBlue: -1 },
   exposureStops: 0.5,
   contrast: null,
+  blackPointStops: 0,
+  whitePointStops: 0,
 };
 const frame: Adjustments = {
   balance: { cyanRed: -1, magentaGreen: 3, yellowBlue: 0 },
   exposureStops: -1 / 6,
   contrast: 1.2,
+  blackPointStops: 0,
+  whitePointStops: 0,
 };
 
 describe('the tuning preview', () => {

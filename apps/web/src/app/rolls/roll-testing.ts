@@ -5,6 +5,8 @@ const neutralAdjustmentsForTests: Adjustments = {
   balance: { cyanRed: 0, magentaGreen: 0, yellowBlue: 0 },
   exposureStops: 0,
   contrast: null,
+  blackPointStops: 0,
+  whitePointStops: 0,
 };
 
 /** An invented frame of roll 7: id 100 + index. */
