@@ -1,10 +1,12 @@
-import type {
-  CreateOrderRequest,
-  Order,
-  OrderQuery,
-  OrderStatus,
-  OutputFormat,
-  ScanSize,
+import {
+  negativesReturnSchema,
+  type CreateOrderRequest,
+  type NegativesReturn,
+  type Order,
+  type OrderQuery,
+  type OrderStatus,
+  type OutputFormat,
+  type ScanSize,
 } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
@@ -55,9 +57,15 @@ export async function listOrders(
   return { rows: rows.map((r) => ({ ...r, roll_count: Number(r.roll_count ?? 0) })), total: Number(count.n) };
 }
 
+/** Inserts the order alone; its rolls are inserted by the caller in the same transaction. */
 export function insertOrder(
   db: Kysely<Database>,
-  order: Omit<CreateOrderRequest, 'customerId'> & { customerId: number; at: Date },
+  order: Omit<CreateOrderRequest, 'customerId' | 'rolls' | 'negatives'> & {
+    customerId: number;
+    at: Date;
+    /** collected at the lab when not given */
+    negatives?: NegativesReturn;
+  },
 ): Promise<OrderRow> {
   const at = order.at.toISOString();
   return db
@@ -68,6 +76,7 @@ export function insertOrder(
       notes: order.notes,
       output_formats: JSON.stringify(order.outputFormats),
       scan_size: order.scanSize,
+      negatives: JSON.stringify(order.negatives ?? { method: 'collect' }),
       created_at: at,
       updated_at: at,
     })
@@ -99,7 +108,18 @@ export function toOrder(row: OrderListRow): Order {
     outputFormats: JSON.parse(row.output_formats) as OutputFormat[],
     scanSize: row.scan_size as ScanSize,
     rollCount: row.roll_count,
+    negatives: readNegatives(row.negatives),
     createdAt: row.created_at,
     updatedAt: row.updated_at,
   };
+}
+
+/** The stored negatives' return; a value that no longer parses reads as kept at the lab, the safe default. */
+function readNegatives(json: string): NegativesReturn {
+  try {
+    const parsed = negativesReturnSchema.safeParse(JSON.parse(json));
+    return parsed.success ? parsed.data : { method: 'collect' };
+  } catch {
+    return { method: 'collect' };
+  }
 }

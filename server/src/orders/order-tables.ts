@@ -19,6 +19,8 @@ export interface OrdersTable {
   /** JSON array of output formats */
   output_formats: string;
   scan_size: string;
+  /** JSON: what happens to the negatives, posted back to an address or collected at the lab */
+  negatives: ColumnType<string, string | undefined, string>;
   created_at: ColumnType<string, string, never>;
   updated_at: string;
 }

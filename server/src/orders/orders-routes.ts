@@ -2,7 +2,6 @@ import {
   createOrderRequestSchema,
   createRollRequestSchema,
   idParamsSchema,
-  neutralAdjustments,
   orderQuerySchema,
   staffRoles,
   updateOrderStatusRequestSchema,
@@ -10,16 +9,9 @@ import {
 import { AppError } from '../errors/app-error';
 import { enqueueTemplatedMail } from '../mail/outbox-repository';
 import type { RouteModule } from '../http/route-module';
-import {
-  currentPublishedVersion,
-  findRollById,
-  insertRoll,
-  listRollsOfOrder,
-  toRoll,
-} from '../rolls/roll-repository';
-import { findScannerById } from '../scanners/scanner-repository';
-import { findStockById } from '../stocks/stock-repository';
+import { listRollsOfOrder, toRoll } from '../rolls/roll-repository';
 import { findUserById } from '../users/user-repository';
+import { addRollToOrder } from './add-roll-to-order';
 import { isStaff, loadOrderFor } from './order-access';
 import { findOrderById, insertOrder, listOrders, setOrderStatus, toOrder } from './order-repository';
 import { recordOrderAudit } from './record-order-audit';
@@ -49,7 +41,7 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       path: '/api/orders',
       roles: everyone,
       body: createOrderRequestSchema,
-      summary: 'Place an order (staff name the customer)',
+      summary: 'Place an order with its rolls, all or nothing (staff name the customer)',
     },
     async (_req, res, { body, user }) => {
       let customerId = user!.id;
@@ -69,7 +61,11 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       }
       const order = await db.transaction().execute(async (trx) => {
         const at = clock.now();
-        const row = await insertOrder(trx, { ...body, customerId, at });
+        const { rolls, ...asked } = body;
+        const row = await insertOrder(trx, { ...asked, customerId, at });
+        for (const [i, request] of rolls.entries()) {
+          await addRollToOrder(trx, { orderId: row.id, request, actor: user!, at, path: `body.rolls.${i}` });
+        }
         const order = toOrder((await findOrderById(trx, row.id))!);
         await recordOrderAudit(trx, {
           at,
@@ -163,42 +159,17 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
           `Order ${order.id} is already ${order.status}; ask the lab to add a roll.`,
         );
       }
-      const stock = await findStockById(db, body.stockId);
-      if (!stock) throw new AppError('stock-not-found', 404, `No stock with id ${body.stockId}.`);
-      if (body.scannerId !== null && !(await findScannerById(db, body.scannerId))) {
-        throw new AppError('scanner-not-found', 404, `No scanner with id ${body.scannerId}.`);
-      }
-      const pinned = await currentPublishedVersion(db, stock.id, body.scannerId);
-      if (!pinned) {
-        throw new AppError(
-          'no-published-profile',
-          422,
-          `${stock.name} has no published profile version yet; publish one before adding rolls of it.`,
+      const roll = await db
+        .transaction()
+        .execute((trx) =>
+          addRollToOrder(trx, {
+            orderId: order.id,
+            request: body,
+            actor: user!,
+            at: clock.now(),
+            path: 'body',
+          }),
         );
-      }
-      const roll = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        const row = await insertRoll(trx, {
-          orderId: order.id,
-          stockId: stock.id,
-          ei: body.ei,
-          pushPull: body.pushPull,
-          format: body.format,
-          scannerId: body.scannerId,
-          profileVersionId: pinned.id,
-          adjustments: neutralAdjustments,
-          at,
-        });
-        const roll = toRoll((await findRollById(trx, row.id))!);
-        await recordOrderAudit(trx, {
-          at,
-          actor: user!,
-          action: 'roll-created',
-          target: `roll:${row.id}`,
-          details: { after: roll },
-        });
-        return roll;
-      });
       res.status(201).json(roll);
     },
   );

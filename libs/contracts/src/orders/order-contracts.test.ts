@@ -4,12 +4,42 @@ import { frameBaseRequestSchema } from './frame';
 import { adjustmentsSchema, createRollRequestSchema, rollBaseRequestSchema } from './roll';
 
 describe('order contracts', () => {
-  it('gives a new order one JPEG at the standard size unless asked otherwise', () => {
+  it('gives a new order one JPEG at the standard size, negatives kept for collection, unless asked otherwise', () => {
     expect(createOrderRequestSchema.parse({})).toEqual({
       notes: '',
       outputFormats: ['jpeg'],
       scanSize: 'standard',
+      negatives: { method: 'collect' },
+      rolls: [],
     });
+  });
+
+  it('needs a postal address to post the negatives back, and none to collect them', () => {
+    const address = { name: 'Ada Fenn', line1: '4 Quay Row', town: 'Harlow Cross', country: 'Nowhere' };
+    expect(createOrderRequestSchema.parse({ negatives: { method: 'post', address } }).negatives).toEqual({
+      method: 'post',
+      address: { ...address, line2: '', postcode: '' },
+    });
+    const none = createOrderRequestSchema.safeParse({ negatives: { method: 'post' } });
+    expect(none.error?.issues[0]?.path).toEqual(['negatives', 'address']);
+    const blank = createOrderRequestSchema.safeParse({
+      negatives: { method: 'post', address: { ...address, town: '  ' } },
+    });
+    expect(blank.error?.issues.map((i) => [i.path.join('.'), i.message])).toEqual([
+      ['negatives.address.town', 'Give the town or city'],
+    ]);
+    expect(createOrderRequestSchema.safeParse({ negatives: { method: 'collect', address } }).success).toBe(
+      false,
+    );
+  });
+
+  it('checks every roll sent with an order and names the roll a complaint is about', () => {
+    const roll = { stockId: 1, ei: 400, format: '135-36' };
+    const result = createOrderRequestSchema.safeParse({ rolls: [roll, { ...roll, ei: 0 }] });
+    expect(result.error?.issues.map((i) => i.path.join('.'))).toEqual(['rolls.1.ei']);
+    expect(createOrderRequestSchema.parse({ rolls: [roll] }).rolls).toEqual([
+      { ...roll, pushPull: 0, scannerId: null },
+    ]);
   });
 
   it('refuses a format listed twice', () => {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { createRollRequestSchema } from './roll';
 
 const positiveId = z.int('Expected a whole id').positive('Expected a positive id');
 /** Ids in paths and query strings arrive as text. */
@@ -37,6 +38,31 @@ export const scanSizeLongEdge: Readonly<Record<ScanSize, number | null>> = {
   full: null,
 };
 
+const addressLine = (what: string, max: number) =>
+  z.string().trim().min(1, `Give the ${what}`).max(max, `At most ${max} characters`);
+
+/** Where the lab posts a customer's negatives back to. */
+export const postalAddressSchema = z.strictObject({
+  name: addressLine('name to post to', 120),
+  line1: addressLine('street and number', 200),
+  line2: z.string().trim().max(200, 'At most 200 characters').default(''),
+  town: addressLine('town or city', 120),
+  // 20 characters holds the postcode of any country, with spaces: our choice
+  postcode: z.string().trim().max(20, 'At most 20 characters').default(''),
+  country: addressLine('country', 80),
+});
+export type PostalAddress = z.infer<typeof postalAddressSchema>;
+
+/**
+ * What happens to the negatives once the lab is done with them (the scans are always downloaded): posted back to an
+ * address, or kept at the lab until the customer collects them.
+ */
+export const negativesReturnSchema = z.discriminatedUnion('method', [
+  z.strictObject({ method: z.literal('post'), address: postalAddressSchema }),
+  z.strictObject({ method: z.literal('collect') }),
+]);
+export type NegativesReturn = z.infer<typeof negativesReturnSchema>;
+
 /** An order as the API returns it. */
 export const orderSchema = z.object({
   id: z.number().int().positive(),
@@ -47,12 +73,16 @@ export const orderSchema = z.object({
   outputFormats: z.array(outputFormatSchema),
   scanSize: scanSizeSchema,
   rollCount: z.number().int().min(0),
+  negatives: negativesReturnSchema,
   createdAt: z.string(),
   updatedAt: z.string(),
 });
 export type Order = z.infer<typeof orderSchema>;
 
-/** What a customer sends to place an order; staff placing one for a customer name them with customerId. */
+/**
+ * What a customer sends to place an order; staff placing one for a customer name them with customerId. The rolls
+ * listed are added with it in one go: either the order and every roll are recorded, or nothing is.
+ */
 export const createOrderRequestSchema = z.strictObject({
   customerId: positiveId.optional(),
   notes: z.string().trim().max(4000).default(''),
@@ -63,6 +93,9 @@ export const createOrderRequestSchema = z.strictObject({
     .refine((f) => new Set(f).size === f.length, 'List each format once')
     .default(['jpeg']),
   scanSize: scanSizeSchema.default('standard'),
+  negatives: negativesReturnSchema.default({ method: 'collect' }),
+  // 100 rolls: as many as the quote prices at once (orderDraftSchema)
+  rolls: z.array(createRollRequestSchema).max(100, 'At most 100 rolls on one order').default([]),
 });
 export type CreateOrderRequest = z.infer<typeof createOrderRequestSchema>;
 

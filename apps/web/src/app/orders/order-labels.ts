@@ -1,4 +1,11 @@
-import type { OrderStatus, OutputFormat, Role, ScanSize } from '@clearbase/contracts';
+import type {
+  NegativesReturn,
+  OrderStatus,
+  OutputFormat,
+  PostalAddress,
+  Role,
+  ScanSize,
+} from '@clearbase/contracts';
 
 const statusLabels: Record<OrderStatus, string> = {
   received: 'Received',
@@ -91,4 +98,19 @@ export function orderStatusTone(status: OrderStatus): string {
   if (status === 'cancelled') return 'bad';
   if (status === 'received') return '';
   return 'working';
+}
+
+/** A postal address on one line, its empty parts left out: "7 Saltmarsh Lane, Greywick GW2 9RT, Testland". */
+export function postalAddressLine(address: PostalAddress): string {
+  const town = [address.town, address.postcode].filter((p) => p.trim()).join(' ');
+  return [address.name, address.line1, address.line2, town, address.country]
+    .filter((p) => p.trim())
+    .join(', ');
+}
+
+/** What happens to an order's negatives, in a sentence. */
+export function negativesLabel(negatives: NegativesReturn): string {
+  return negatives.method === 'post'
+    ? `Posted back to ${postalAddressLine(negatives.address)}`
+    : 'Kept at the lab to be collected';
 }

@@ -20,6 +20,17 @@ const detail: OrderDetail = {
     outputFormats: ['jpeg', 'tiff16'],
     scanSize: 'large',
     rollCount: 1,
+    negatives: {
+      method: 'post',
+      address: {
+        name: 'Marit Olsen',
+        line1: '7 Saltmarsh Lane',
+        line2: '',
+        town: 'Greywick',
+        postcode: 'GW2 9RT',
+        country: 'Testland',
+      },
+    },
     createdAt: '2026-11-20T09:00:00.000Z',
     updatedAt: '2026-11-20T09:00:00.000Z',
   },
@@ -76,6 +87,13 @@ describe('OrderPage', () => {
     expect(byId('add-roll')).toBeNull();
     expect(byId('order-advance')).toBeNull();
     expect([...root.querySelectorAll('th')].map((th) => th.textContent!.trim())).not.toContain('Profile');
+  });
+
+  it('tells staff where the negatives go back to', async () => {
+    const { byId } = await render('operator');
+    expect(byId('order-negatives')!.textContent!.trim()).toBe(
+      'Posted back to Marit Olsen, 7 Saltmarsh Lane, Greywick GW2 9RT, Testland',
+    );
   });
 
   it('lets staff move the order to its next status', async () => {

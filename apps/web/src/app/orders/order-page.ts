@@ -18,6 +18,7 @@ import { ScannersApi } from '../scanners/scanners-api';
 import { AddRollDialog, type AddRollData } from './add-roll-dialog';
 import {
   isStaffRole,
+  negativesLabel,
   nextOrderStatus,
   orderClosed,
   orderStatusChoices,
@@ -70,6 +71,7 @@ export class OrderPage {
   protected readonly statusTone = orderStatusTone;
   protected readonly formatLabel = outputFormatLabel;
   protected readonly scanSizeLabel = scanSizeLabel;
+  protected readonly negativesLabel = negativesLabel;
   protected readonly rollStatusLabel = rollStatusLabel;
   protected readonly pushPullLabel = pushPullLabel;
   protected readonly staff = computed(() => isStaffRole(this.session.role()));

@@ -18,6 +18,7 @@ const order = (id: number, customerName: string, status: Order['status']): Order
   outputFormats: ['jpeg', 'tiff16'],
   scanSize: 'standard',
   rollCount: 2,
+  negatives: { method: 'collect' },
   createdAt: '2026-11-20T09:00:00.000Z',
   updatedAt: '2026-11-20T09:00:00.000Z',
 });
