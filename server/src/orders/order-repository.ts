@@ -3,6 +3,7 @@ import {
   type CreateOrderRequest,
   type NegativesReturn,
   type Order,
+  type OrderCustomer,
   type OrderQuery,
   type OrderStatus,
   type OutputFormat,
@@ -55,6 +56,18 @@ export async function listOrders(
     base.select((eb) => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow(),
   ]);
   return { rows: rows.map((r) => ({ ...r, roll_count: Number(r.roll_count ?? 0) })), total: Number(count.n) };
+}
+
+/** Customers whose accounts are open, by name: those staff may place an order for. */
+export function listOrderCustomers(db: Kysely<Database>): Promise<OrderCustomer[]> {
+  return db
+    .selectFrom('users')
+    .select(['id', 'name', 'email'])
+    .where('role', '=', 'customer')
+    .where('disabled', '=', 0)
+    .orderBy('name')
+    .orderBy('id')
+    .execute();
 }
 
 /** Inserts the order alone; its rolls are inserted by the caller in the same transaction. */

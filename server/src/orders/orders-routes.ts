@@ -13,7 +13,14 @@ import { listRollsOfOrder, toRoll } from '../rolls/roll-repository';
 import { findUserById } from '../users/user-repository';
 import { addRollToOrder } from './add-roll-to-order';
 import { isStaff, loadOrderFor } from './order-access';
-import { findOrderById, insertOrder, listOrders, setOrderStatus, toOrder } from './order-repository';
+import {
+  findOrderById,
+  insertOrder,
+  listOrderCustomers,
+  listOrders,
+  setOrderStatus,
+  toOrder,
+} from './order-repository';
 import { recordOrderAudit } from './record-order-audit';
 
 const everyone = ['customer', ...staffRoles] as const;
@@ -92,6 +99,19 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
     },
   );
 
+  // before /api/orders/:id, which would take "customers" for an id
+  api.define(
+    {
+      method: 'get',
+      path: '/api/orders/customers',
+      roles: staffRoles,
+      summary: 'The customers staff may place an order for, by name',
+    },
+    async (_req, res) => {
+      res.json({ customers: await listOrderCustomers(db) });
+    },
+  );
+
   api.define(
     {
       method: 'get',
@@ -159,17 +179,15 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
           `Order ${order.id} is already ${order.status}; ask the lab to add a roll.`,
         );
       }
-      const roll = await db
-        .transaction()
-        .execute((trx) =>
-          addRollToOrder(trx, {
-            orderId: order.id,
-            request: body,
-            actor: user!,
-            at: clock.now(),
-            path: 'body',
-          }),
-        );
+      const roll = await db.transaction().execute((trx) =>
+        addRollToOrder(trx, {
+          orderId: order.id,
+          request: body,
+          actor: user!,
+          at: clock.now(),
+          path: 'body',
+        }),
+      );
       res.status(201).json(roll);
     },
   );

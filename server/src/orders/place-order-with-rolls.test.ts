@@ -129,6 +129,15 @@ describe('placing an order with its rolls in one request', () => {
     ]);
   });
 
+  it('lists staff the open customer accounts to order for, and keeps the list from customers', async () => {
+    await addUser(t.db, 'customer', 'gone@lab.test', true);
+    const list = await lab.operator.get('/api/orders/customers').expect(200);
+    expect(list.body.customers).toEqual([
+      { id: lab.customerId, name: 'Test customer', email: 'cass@lab.test' },
+    ]);
+    expect((await customer.get('/api/orders/customers')).status).toBe(403);
+  });
+
   it('lets staff place an order with rolls for a customer', async () => {
     await addUser(t.db, 'manager', 'mira@lab.test');
     const manager = await signedIn(t.app, 'mira@lab.test');

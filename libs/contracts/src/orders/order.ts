@@ -99,6 +99,17 @@ export const createOrderRequestSchema = z.strictObject({
 });
 export type CreateOrderRequest = z.infer<typeof createOrderRequestSchema>;
 
+/** A customer staff may place an order for. */
+export const orderCustomerSchema = z.object({
+  id: z.number().int().positive(),
+  name: z.string(),
+  email: z.string(),
+});
+export type OrderCustomer = z.infer<typeof orderCustomerSchema>;
+
+export const orderCustomerListResponseSchema = z.object({ customers: z.array(orderCustomerSchema) });
+export type OrderCustomerListResponse = z.infer<typeof orderCustomerListResponseSchema>;
+
 /** Filters of the order list; staff see every order, customers only their own. */
 export const orderQuerySchema = z.strictObject({
   status: orderStatusSchema.optional(),
