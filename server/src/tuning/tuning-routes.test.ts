@@ -1,4 +1,13 @@
 import { workingNegativeHeaders, type RollTuning } from '@clearbase/contracts';
+import {
+  exposeNegative,
+  greySteps,
+  LINEAR_SCANNER,
+  measureFrameLevels,
+  pickNeutral,
+  POLYCLEAR_200,
+  profileForStock,
+} from '@clearbase/inversion';
 import type { Response } from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
@@ -134,5 +143,57 @@ describe('frame review', () => {
       .where('action', '=', 'frame-reviewed')
       .execute();
     expect(audit).toHaveLength(3);
+  });
+});
+
+describe('cast and exposure steps saved on a frame', () => {
+  it('takes a neutral pick rounded to whole printer points and refuses the raw correction, naming the axis', async () => {
+    const profile = {
+      ...profileForStock(POLYCLEAR_200),
+      balance: { cyanRed: 0, magentaGreen: 6.4, yellowBlue: 0 },
+    };
+    const negative = exposeNegative(greySteps(4, 0.05, 0.8, 12), {
+      stock: POLYCLEAR_200,
+      scanner: LINEAR_SCANNER,
+    });
+    const base = negative.truth.base;
+    const levels = measureFrameLevels(
+      { profile, scanner: LINEAR_SCANNER, base, render: 'print', outputBits: 8 },
+      negative,
+    );
+    const pick = pickNeutral(negative, negative.truth.frame, {
+      profile,
+      scanner: LINEAR_SCANNER,
+      base,
+      midLogExposure: levels.midLogExposure,
+      render: 'print',
+      outputBits: 8,
+    });
+    expect(Number.isInteger(pick.correction.magentaGreen)).toBe(false);
+    const raw = await operator.send('put', `/api/frames/${frames[1]}/adjustments`, {
+      balance: pick.correction,
+    });
+    expect(raw.status).toBe(400);
+    expect(raw.headers['content-type']).toMatch(/application\/problem\+json/);
+    expect(raw.body.errors).toContainEqual({
+      path: 'body.balance.magentaGreen',
+      message: 'Use whole printer points',
+    });
+    const saved = await operator
+      .send('put', `/api/frames/${frames[1]}/adjustments`, { balance: pick.wholePoints })
+      .expect(200);
+    expect(saved.body.adjustments.balance).toEqual(pick.wholePoints);
+  });
+
+  it('refuses an exposure or a point shift off the 1/6-stop steps, naming the field', async () => {
+    const res = await operator.send('put', `/api/frames/${frames[1]}/adjustments`, {
+      exposureStops: 0.25,
+      whitePointStops: 0.2,
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.errors).toEqual([
+      { path: 'body.exposureStops', message: 'Use steps of 1/6 stop' },
+      { path: 'body.whitePointStops', message: 'Use steps of 1/6 stop' },
+    ]);
   });
 });

@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import { balanceSchema } from '../profile/profile-document';
 
 const positiveId = z.int('Expected a whole id').positive('Expected a positive id');
 
@@ -32,17 +31,30 @@ const pointShiftStops = z
   .refine(isSixthOfStop, 'Use steps of 1/6 stop')
   .default(0);
 
+// the controls step casts in whole printer points: common practice of the trade, from memory
+const wholePoints = z.number().refine(Number.isInteger, 'Use whole printer points');
+
 /**
- * Tuning of a roll or of one frame. Balance in printer points on the positive's axes (a frame's adds to its roll's,
- * which adds to the profile's); exposure in stops (they add); contrast replaces the profile's when set.
+ * A roll's or a frame's balance in whole printer points. A profile's own balance (in its document) may be
+ * fractional; what an operator sets on a roll or frame is whole, as the controls and the neutral picker step.
+ */
+export const wholePointsBalanceSchema = z.strictObject({
+  cyanRed: wholePoints,
+  magentaGreen: wholePoints,
+  yellowBlue: wholePoints,
+});
+
+/**
+ * Tuning of a roll or of one frame. Balance in whole printer points on the positive's axes (a frame's adds to its
+ * roll's, which adds to the profile's); exposure in 1/6 stops (they add); contrast replaces the profile's when set.
  * `blackPointStops` / `whitePointStops` move the log exposures that print as black and as white (from the frame's or
  * the roll's levels), in stops: positive moves a point to more exposure, so deeper blacks for the black point and
  * dimmer highlights for the white point; a roll's and a frame's shifts add.
  */
 export const adjustmentsSchema = z.strictObject({
-  balance: balanceSchema.default({ cyanRed: 0, magentaGreen: 0, yellowBlue: 0 }),
+  balance: wholePointsBalanceSchema.default({ cyanRed: 0, magentaGreen: 0, yellowBlue: 0 }),
   // ±5 stops spans any correction a printed negative takes: common practice of the trade, from memory
-  exposureStops: z.number().min(-5).max(5).default(0),
+  exposureStops: z.number().min(-5).max(5).refine(isSixthOfStop, 'Use steps of 1/6 stop').default(0),
   contrast: z.number().positive().max(4).nullable().default(null),
   blackPointStops: pointShiftStops,
   whitePointStops: pointShiftStops,
