@@ -1,5 +1,4 @@
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
 import { validateProfileDocument } from '@clearbase/contracts';
 import { describe, expect, it } from 'vitest';
 import {
@@ -27,51 +26,9 @@ import {
   type InversionProfile,
   type Rgb,
 } from './index';
+import { gammaTestScanner, mixedTestImage, referenceChartRows } from './test-fixtures';
 
-// Published L*a*b* D50 of the 24-patch chart (McCamy, Marcus & Davidson, J. Appl. Photogr. Eng. 2(3):95-99, 1976;
-// the maker's 2016 values for charts made after November 2014), copied with their sources in test-data/reference.
-const chartRows = readFileSync(
-  new URL('../../../test-data/reference/colour-rendition-chart-24.csv', import.meta.url),
-  'utf8',
-)
-  .split('\n')
-  .filter((l) => l && !l.startsWith('#'))
-  .slice(1)
-  .map((l) => l.split(','))
-  .map((f) => ({ name: f[1]!, labD50: [Number(f[2]), Number(f[3]), Number(f[4])] as Rgb }));
-
-const scanner = {
-  name: 'Test scanner',
-  encoding: 'gamma' as const,
-  gamma: 2.2,
-  blackLevel: [0.002, 0.002, 0.003] as Rgb,
-  gains: [1.02, 1, 1.05] as Rgb,
-};
-
-/** 128 rows of random counts over 128 rows of three gradients, 256 × 256. */
-function testImage(): Uint16Array {
-  const w = 256,
-    h = 256,
-    data = new Uint16Array(w * h * 3);
-  let s = 12345;
-  const rand = () => (s = (Math.imul(s, 1103515245) + 12345) >>> 0) >>> 16;
-  for (let y = 0; y < h; y++) {
-    for (let x = 0; x < w; x++) {
-      const i = (y * w + x) * 3;
-      if (y < h / 2) {
-        data[i] = rand();
-        data[i + 1] = rand();
-        data[i + 2] = rand();
-      } else {
-        const v = Math.round((x / (w - 1)) * 65535);
-        data[i] = v;
-        data[i + 1] = (v * 7) >> 3;
-        data[i + 2] = (v * 5) >> 3;
-      }
-    }
-  }
-  return data;
-}
+const scanner = gammaTestScanner;
 
 describe('capture primaries in profile documents', () => {
   it('accepts a document without them, with srgb and with wide, and rejects an unknown name at its path', () => {
@@ -105,7 +62,7 @@ describe('capture primaries in profile documents', () => {
 });
 
 describe('chart round trip on a film of wide-gamut sensitivity', () => {
-  const { scene, patches } = chartScene(chartRows, 12);
+  const { scene, patches } = chartScene(referenceChartRows, 12);
   const stock = { ...TINTLINE_400, sensitivity: WIDE_GAMUT_SENSITIVITY };
   // A print tone that leaves colour as the scene had it (contrast 1, black 0, white 1), so the chart can be measured.
   const neutralTone = { contrast: 1, blackPoint: 0, whitePoint: 1 };
@@ -163,7 +120,7 @@ describe('chart round trip on a film of wide-gamut sensitivity', () => {
 });
 
 describe('compiled fast path with wide capture primaries', () => {
-  const input = testImage();
+  const input = mixedTestImage();
   for (const [render, bits, saturation] of [
     ['reference', 8, 1],
     ['print', 8, 1.3],
@@ -206,7 +163,7 @@ describe('older documents', () => {
     [TINTLINE_400, 'print', 16, 1, '0a87dc58ce143a22422bceafa944b955b5dca4d83529ea5b04865e909c137e0d'],
     [TINTLINE_400, 'print', 16, 0.8, '37b44daaf39714bdb799011e85d11831f152709aa89b5724744e575cf59bce13'],
   ] as const;
-  const input = testImage();
+  const input = mixedTestImage();
   for (const [stock, render, bits, saturation, hash] of before) {
     it(`render byte-identical without the field and with 'srgb' (${stock.name}, ${render}, ${bits}-bit, saturation ${saturation})`, () => {
       const doc = { ...profileForStock(stock), saturation };

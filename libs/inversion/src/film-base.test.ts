@@ -11,14 +11,9 @@ import {
   AMBERMASK_100,
   type Rgb,
 } from './index';
+import { gammaTestScanner } from './test-fixtures';
 
-const scanner = {
-  name: 'Test scanner',
-  encoding: 'gamma' as const,
-  gamma: 2.2,
-  blackLevel: [0.002, 0.002, 0.003] as Rgb,
-  gains: [1.02, 1, 1.05] as Rgb,
-};
+const scanner = gammaTestScanner;
 
 describe('film base detection', () => {
   for (const stock of [POLYCLEAR_200, TINTLINE_400, AMBERMASK_100]) {

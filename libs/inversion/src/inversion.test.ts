@@ -1,4 +1,3 @@
-import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
@@ -27,26 +26,9 @@ import {
   type InversionParams,
   type Rgb,
 } from './index';
+import { gammaTestScanner, mixedTestImage, referenceChartRows } from './test-fixtures';
 
-// Published L*a*b* D50 of the 24-patch chart (McCamy, Marcus & Davidson, J. Appl. Photogr. Eng. 2(3):95-99, 1976;
-// the maker's 2016 values for charts made after November 2014), copied with their sources in test-data/reference.
-const chartRows = readFileSync(
-  new URL('../../../test-data/reference/colour-rendition-chart-24.csv', import.meta.url),
-  'utf8',
-)
-  .split('\n')
-  .filter((l) => l && !l.startsWith('#'))
-  .slice(1)
-  .map((l) => l.split(','))
-  .map((f) => ({ name: f[1]!, labD50: [Number(f[2]), Number(f[3]), Number(f[4])] as Rgb }));
-
-const scanner = {
-  name: 'Test scanner',
-  encoding: 'gamma' as const,
-  gamma: 2.2,
-  blackLevel: [0.002, 0.002, 0.003] as Rgb,
-  gains: [1.02, 1, 1.05] as Rgb,
-};
+const scanner = gammaTestScanner;
 
 function paramsFor(
   stock: FilmStock = POLYCLEAR_200,
@@ -59,7 +41,7 @@ function paramsFor(
 }
 
 describe('chart round trip: published L*a*b* → forward model (tinted base, crosstalk, grain) → reference inversion', () => {
-  const { scene, patches } = chartScene(chartRows, 12);
+  const { scene, patches } = chartScene(referenceChartRows, 12);
   // A film of wide-gamut sensitivity, so every patch, the cyan outside sRGB included, exposes all three layers.
   const stock = { ...TINTLINE_400, sensitivity: WIDE_GAMUT_SENSITIVITY };
   for (const stops of [-1, 0, 1, 2, 3]) {
@@ -143,30 +125,7 @@ describe('exposure recovery', () => {
 });
 
 describe('compiled fast path', () => {
-  function testImage(): Uint16Array {
-    const w = 256,
-      h = 256,
-      data = new Uint16Array(w * h * 3);
-    let s = 12345;
-    const rand = () => (s = (Math.imul(s, 1103515245) + 12345) >>> 0) >>> 16;
-    for (let y = 0; y < h; y++) {
-      for (let x = 0; x < w; x++) {
-        const i = (y * w + x) * 3;
-        if (y < h / 2) {
-          data[i] = rand();
-          data[i + 1] = rand();
-          data[i + 2] = rand();
-        } else {
-          const v = Math.round((x / (w - 1)) * 65535);
-          data[i] = v;
-          data[i + 1] = (v * 7) >> 3;
-          data[i + 2] = (v * 5) >> 3;
-        }
-      }
-    }
-    return data;
-  }
-  const input = testImage();
+  const input = mixedTestImage();
   for (const [render, bits, saturation] of [
     ['reference', 8, 1],
     ['print', 8, 1.3],

@@ -7,10 +7,16 @@ const here = new URL('.', import.meta.url).pathname;
 const allowed = (spec: string) =>
   spec.startsWith('./') || spec === 'culori' || spec === '@clearbase/contracts';
 
+// The tests' shared set-up reads reference tables from disk; no module of the library may import it.
+const testFixtures = 'test-fixtures.ts';
+
 describe('inversion library purity', () => {
   it('imports no platform, DOM or I/O modules outside its tests', () => {
     const offenders: string[] = [];
-    for (const file of readdirSync(here).filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts'))) {
+    const shipped = readdirSync(here).filter(
+      (f) => f.endsWith('.ts') && !f.endsWith('.test.ts') && f !== testFixtures,
+    );
+    for (const file of shipped) {
       const text = readFileSync(join(here, file), 'utf8');
       for (const m of text.matchAll(
         /(?:import|export)[^'"]*?from\s*['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)/g,
@@ -22,5 +28,11 @@ describe('inversion library purity', () => {
         offenders.push(`${file}: uses a platform global`);
     }
     expect(offenders).toEqual([]);
+  });
+  it('keeps the tests’ shared set-up out of the library: no module imports it', () => {
+    const importers = readdirSync(here)
+      .filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts'))
+      .filter((f) => /from\s*['"]\.\/test-fixtures['"]/.test(readFileSync(join(here, f), 'utf8')));
+    expect(importers).toEqual([]);
   });
 });
