@@ -44,6 +44,7 @@ import {
   toCalibrationSummary,
 } from './calibration-repository';
 import { writeCalibrationReport } from './calibration-report-pdf';
+import { listCalibrationRollsOnFile } from './calibration-rolls-on-file';
 import { fitCalibrationRoll, framePath, type CalibrationUpload } from './fit-calibration-roll';
 
 /** The multipart fields of a new calibration: files and the JSON of marks and stops. */
@@ -434,6 +435,60 @@ export const calibrationsRoutes: RouteModule = (api, { db, config, clock }) => {
       res.type('application/pdf');
       res.attachment(`calibration-${calibration.id}.pdf`);
       await writeCalibrationReport(calibration, res);
+    },
+  );
+
+  api.define(
+    {
+      method: 'get',
+      path: '/api/calibration-rolls',
+      roles: staffRoles,
+      summary: 'Calibration rolls on file: frames in the file store with their stops, ready to mark and fit',
+    },
+    async (_req, res) => {
+      const rolls = await listCalibrationRollsOnFile(db);
+      const stockNames = new Map<number, string>();
+      for (const r of rolls) {
+        if (!stockNames.has(r.stockId))
+          stockNames.set(r.stockId, (await findStockById(db, r.stockId))?.name ?? '');
+      }
+      res.json({
+        rolls: rolls
+          .filter((r) => stockNames.get(r.stockId))
+          .map((r) => ({ ...r, stockName: stockNames.get(r.stockId)! })),
+      });
+    },
+  );
+
+  api.define(
+    {
+      method: 'get',
+      path: '/api/calibration-rolls/:id/frames/:n',
+      roles: staffRoles,
+      params: calibrationFrameParamsSchema,
+      summary:
+        'The scan of one frame of a calibration roll on file, as stored (to load it on the calibration page)',
+    },
+    async (_req, res, { params }) => {
+      const roll = (await listCalibrationRollsOnFile(db)).find((r) => r.id === params.id);
+      if (!roll)
+        throw new AppError(
+          'calibration-roll-not-found',
+          404,
+          `No calibration roll on file with id ${params.id}.`,
+        );
+      const frame = roll.frames.find((f) => f.n === params.n);
+      const file = frame ? await findFileById(db, frame.fileId) : undefined;
+      if (!frame || !file)
+        throw new AppError(
+          'calibration-frame-not-found',
+          404,
+          `Calibration roll ${roll.id} has frames 1 to ${roll.frames.length}, not ${params.n}.`,
+        );
+      res.set('Cache-Control', 'private, max-age=3600');
+      res.type(file.media_type);
+      res.attachment(frame.fileName);
+      res.sendFile(store.pathOf(file.sha256));
     },
   );
 

@@ -4,6 +4,7 @@ import { hashPassword } from '../auth/password-hash';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';
 import { catalogueSeedStep } from '../profiles/demo-catalogue-seed';
+import { demoCalibrationSeedStep } from './demo-calibration-seed';
 import { demoOrdersSeedStep } from './demo-orders-seed';
 import { countUsers, insertUser } from '../users/user-repository';
 
@@ -63,7 +64,13 @@ const usersStep: SeedStep = {
 };
 
 /** The demo seed's steps. Append a step to seed more (stocks, scanners, orders). */
-export const demoSeedSteps: SeedStep[] = [labStep, usersStep, catalogueSeedStep, demoOrdersSeedStep];
+export const demoSeedSteps: SeedStep[] = [
+  labStep,
+  usersStep,
+  catalogueSeedStep,
+  demoOrdersSeedStep,
+  demoCalibrationSeedStep,
+];
 
 /**
  * Fills an empty database with the demo lab. A database that has any user is left untouched.

@@ -1,0 +1,176 @@
+import type { CreateStockRequest } from '@clearbase/contracts';
+import {
+  calibrationRoll,
+  LINEAR_SCANNER,
+  type FilmStock,
+  type Point,
+  type Region,
+  type SyntheticNegative,
+} from '@clearbase/inversion';
+import { sql, type Kysely } from 'kysely';
+import { dirname } from 'node:path';
+import sharp from 'sharp';
+import {
+  addCalibrationRollOnFile,
+  type CalibrationFrameOnFile,
+} from '../calibrations/calibration-rolls-on-file';
+import type { Database } from '../db/database';
+import { recordFile } from '../files/file-repository';
+import { createFileStore } from '../files/file-store';
+import { findStockByName, insertStock } from '../stocks/stock-repository';
+import type { SeedStep } from './seed';
+
+/** The invented trial emulsion the demo calibration roll was shot on: no profile yet. */
+export const demoTrialStock: CreateStockRequest = {
+  name: 'Fenlight 100 (trial)',
+  maker: 'Ostry Coating Works',
+  iso: 100,
+  process: 'C-41',
+  masked: false,
+  baseMaterial: 'clear polyester',
+  frameFormats: ['135-36'],
+  notes:
+    'Trial coating of an unmasked emulsion on clear polyester. No profile yet: its calibration roll is on file.',
+};
+
+/** How the forward model develops the trial emulsion: invented values, softer in blue than the demo stocks. */
+export const demoTrialFilm: FilmStock = {
+  name: 'Fenlight 100 (trial)',
+  base: 'clear',
+  iso: 100,
+  gamma: [0.56, 0.6, 0.66],
+  toe: [-2.2, -2.15, -2.1],
+  maxDensity: [2.3, 2.4, 2.5],
+  softness: 0.22,
+  fog: [0.1, 0.1, 0.11],
+  baseDensity: [0.05, 0.05, 0.06],
+  crosstalk: [
+    [1.08, -0.06, -0.02],
+    [-0.05, 1.1, -0.05],
+    [-0.02, -0.1, 1.12],
+  ],
+};
+
+/** Grey card exposures of the demo roll: whole stops from three under to four over (invented bracket). */
+export const demoBracketStops = [-3, -2, -1, 0, 1, 2, 3, 4] as const;
+// 600 × 400 frames: small, so the seed takes a moment only and the chart's corners are still easy to click (our
+// choice); 40-pixel rebates, about a tenth of the height as on 35 mm film (common practice of the trade, from memory)
+const frameWidth = 600;
+const frameHeight = 400;
+const rebate = 40;
+// 6 × 4 patches of 80 pixels: the chart fills the frame's height between the rebates
+const patchSize = 80;
+// light grain, as on a fine-grained stock (invented demo value)
+const grain = 0.006;
+
+/** The demo roll's layout, for tests that mark it: each grey frame's grey card and the chart's corners. */
+export interface DemoCalibrationLayout {
+  greyRegion: Region;
+  /** Patch 1, 6, 24, 19 corners of the chart, pixels of the chart frame. */
+  chartCorners: Point[];
+  chart: { width: number; height: number };
+  grey: { width: number; height: number };
+}
+
+/**
+ * The demo calibration roll made with the forward model: the grey card at each of `demoBracketStops`, the
+ * 24-patch chart at the metered exposure and a frame of leader, each between unexposed rebates.
+ */
+export function demoCalibrationRoll(): ReturnType<typeof calibrationRoll> & {
+  layout: DemoCalibrationLayout;
+} {
+  const roll = calibrationRoll({
+    stock: demoTrialFilm,
+    scanner: LINEAR_SCANNER,
+    stops: demoBracketStops,
+    greySize: frameWidth,
+    greyHeight: frameHeight - 2 * rebate,
+    patchSize,
+    rebate,
+    grain,
+    leader: true,
+  });
+  return {
+    ...roll,
+    layout: {
+      greyRegion: roll.greyRegion,
+      chartCorners: roll.chartCorners,
+      chart: { width: roll.chart.width, height: roll.chart.height },
+      grey: { width: frameWidth, height: frameHeight },
+    },
+  };
+}
+
+/** The data folder is the one holding the database file; the file store lives beside it. */
+async function dataDirOf(db: Kysely<Database>): Promise<string> {
+  const { rows } = await sql<{ name: string; file: string }>`pragma database_list`.execute(db);
+  const file = rows.find((r) => r.name === 'main')?.file;
+  if (!file) throw new Error('The demo calibration roll needs a database in a file, beside the file store.');
+  return dirname(file);
+}
+
+/** A 16-bit TIFF as a scanner writes it (deflate: sharp's default JPEG compression would drop to 8 bits). */
+function tiffOf(negative: SyntheticNegative): Promise<Buffer> {
+  return sharp(negative.data, { raw: { width: negative.width, height: negative.height, channels: 3 } })
+    .toColourspace('rgb16')
+    .tiff({ compression: 'deflate', predictor: 'horizontal' })
+    .toBuffer();
+}
+
+/**
+ * A trial stock with no profile, and its calibration roll on file — eight grey frames, the chart, the leader — so
+ * an operator finds it on the calibration page ready to mark and fit. Does nothing when the stock already exists;
+ * the frames are stored by their bytes' hash, so a second run stores nothing new.
+ */
+export const demoCalibrationSeedStep: SeedStep = {
+  name: 'calibration roll',
+  async run(db, { clock }) {
+    if (await findStockByName(db, demoTrialStock.name)) return;
+    const at = clock.now();
+    const stock = await insertStock(db, demoTrialStock, at);
+    const store = createFileStore(await dataDirOf(db));
+    const roll = demoCalibrationRoll();
+    const negatives: {
+      role: CalibrationFrameOnFile['role'];
+      name: string;
+      stops: number | null;
+      n: SyntheticNegative;
+    }[] = [
+      ...roll.brackets.map((b, i) => ({
+        role: 'bracket' as const,
+        name: `grey-${String(i + 1).padStart(2, '0')}_${b.stops < 0 ? '' : '+'}${b.stops}.tif`,
+        stops: b.stops,
+        n: b.negative,
+      })),
+      { role: 'chart', name: 'chart.tif', stops: null, n: roll.chart },
+      { role: 'leader', name: 'leader.tif', stops: null, n: roll.leader! },
+    ];
+    const frames: CalibrationFrameOnFile[] = [];
+    for (const [i, f] of negatives.entries()) {
+      const stored = await store.putBytes(await tiffOf(f.n));
+      const file = await recordFile(db, {
+        sha256: stored.sha256,
+        size: stored.size,
+        mediaType: 'image/tiff',
+        at,
+      });
+      frames.push({
+        n: i + 1,
+        role: f.role,
+        fileId: file.id,
+        fileName: f.name,
+        width: f.n.width,
+        height: f.n.height,
+        stops: f.stops,
+      });
+    }
+    await addCalibrationRollOnFile(db, {
+      stockId: stock.id,
+      scannerId: null,
+      title: 'Trial roll 1',
+      note: 'Grey card bracketed in whole stops from −3 to +4, one chart frame at the metered exposure, leader cut from the roll’s start.',
+      frames,
+      createdAt: at.toISOString(),
+    });
+  },
+};
