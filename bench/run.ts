@@ -19,6 +19,8 @@ const { values } = parseArgs({
     quick: { type: 'boolean', default: false },
     reps: { type: 'string' },
     'roll-frames': { type: 'string' },
+    // Skips the roll part (minutes at 24 MP) when only the single-frame figures are wanted.
+    'no-roll': { type: 'boolean', default: false },
   },
 });
 const quick = values.quick;
@@ -80,16 +82,18 @@ const profileFile = join(rollDir, 'profile.json');
 await writeFile(profileFile, JSON.stringify(BENCH_SETTINGS.profile));
 const cli = (args: string[]) =>
   promisify(execFile)(process.execPath, [BIN, 'invert', ...args, '--profile', profileFile]);
-const roll = await timeInterleaved(
-  {
-    pipelined: () => cli([...rollFiles, '--roll', '--out', join(rollDir, 'roll')]),
-    oneByOne: async () => {
-      for (const f of rollFiles) await cli([f, '--out', join(rollDir, 'single')]);
-    },
-  },
-  1,
-  { warmUp: false },
-);
+const roll = values['no-roll']
+  ? { pipelined: NaN, oneByOne: NaN }
+  : await timeInterleaved(
+      {
+        pipelined: () => cli([...rollFiles, '--roll', '--out', join(rollDir, 'roll')]),
+        oneByOne: async () => {
+          for (const f of rollFiles) await cli([f, '--out', join(rollDir, 'single')]);
+        },
+      },
+      1,
+      { warmUp: false },
+    );
 // maxRSS is in kilobytes (Node.js process.resourceUsage docs).
 const benchPeakRssMB = Math.round(process.resourceUsage().maxRSS / 1024);
 
@@ -119,12 +123,16 @@ const rows: [string, string, string][] = [
     `b/c = ${(t['inversion']! / t['sharpNegate']!).toFixed(2)}`,
   ],
   ['peak RSS of (b), own process', `${peakRssMB} MB`, '(goal ≤ 700 MB)'],
-  [
-    `${ROLL}-frame roll: clearbase invert --roll`,
-    ms(roll['pipelined']!),
-    `roll/singles = ${(roll['pipelined']! / roll['oneByOne']!).toFixed(2)} (goal ≤ 0.6)${ROLL === 36 ? '' : `; note: ${ROLL} frames, not 36`}`,
-  ],
-  [`${ROLL} single runs of clearbase invert, one after another`, ms(roll['oneByOne']!), ''],
+  ...(values['no-roll']
+    ? []
+    : ([
+        [
+          `${ROLL}-frame roll: clearbase invert --roll`,
+          ms(roll['pipelined']!),
+          `roll/singles = ${(roll['pipelined']! / roll['oneByOne']!).toFixed(2)} (goal ≤ 0.6)${ROLL === 36 ? '' : `; note: ${ROLL} frames, not 36`}`,
+        ],
+        [`${ROLL} single runs of clearbase invert, one after another`, ms(roll['oneByOne']!), ''],
+      ] as [string, string, string][])),
   ['peak RSS of this whole run (all cases and rolls)', `${benchPeakRssMB} MB`, ''],
 ];
 for (const [name, value, note] of rows)
