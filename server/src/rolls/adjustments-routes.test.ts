@@ -1,8 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { JobRunner } from '../jobs/job-runner';
-import { addOrderTestLab, addRollWithScans } from '../orders/order-test-fixtures';
+import { addRollWithScans } from '../orders/order-test-fixtures';
 import { startTestJobRunner } from '../test-support/start-test-job-runner';
 import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
+import { addTestLab } from '../test-support/test-lab';
+import { until } from '../test-support/until';
 
 let t: TestApp;
 let operator: Client;
@@ -10,19 +12,16 @@ let runner: JobRunner;
 let roll: number;
 let frames: number[];
 
-async function settled() {
-  const end = Date.now() + 30_000;
-  for (;;) {
+/** The roll's detail once its inversion job is done. */
+const settled = () =>
+  until(async () => {
     const { body } = await operator.get(`/api/rolls/${roll}`).expect(200);
-    if (body.job?.state === 'done') return body;
-    if (Date.now() > end) throw new Error('job did not finish');
-    await new Promise((r) => setTimeout(r, 25));
-  }
-}
+    return body.job?.state === 'done' && body;
+  }, 30_000);
 
 beforeAll(async () => {
   t = await createTestApp();
-  const { customerId, stockId, ...lab } = await addOrderTestLab(t);
+  const { customerId, stockId, ...lab } = await addTestLab(t);
   operator = lab.operator;
   ({ roll, frames } = await addRollWithScans(operator, {
     customerId,

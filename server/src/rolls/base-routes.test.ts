@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addOrderTestLab, addRollWithScans } from '../orders/order-test-fixtures';
+import { addRollWithScans } from '../orders/order-test-fixtures';
 import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
+import { addTestLab } from '../test-support/test-lab';
 
 let t: TestApp;
 let operator: Client;
@@ -9,7 +10,7 @@ let frame: number;
 
 beforeAll(async () => {
   t = await createTestApp();
-  const { customerId, stockId, ...lab } = await addOrderTestLab(t);
+  const { customerId, stockId, ...lab } = await addTestLab(t);
   operator = lab.operator;
   let frames: number[];
   ({ roll, frames } = await addRollWithScans(operator, {

@@ -4,8 +4,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { JobRunner } from '../jobs/job-runner';
 import { startTestJobRunner } from '../test-support/start-test-job-runner';
 import { closeRollStreams, rollListenerCount } from '../jobs/roll-events';
-import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
-import { addUser, createTestApp, signedIn, testPassword, type TestApp } from '../test-support/test-app';
+import { addRollWithScans } from '../orders/order-test-fixtures';
+import { addUser, createTestApp, testPassword, type TestApp } from '../test-support/test-app';
+import { addTestLab } from '../test-support/test-lab';
+import { until } from '../test-support/until';
 
 let t: TestApp;
 let server: Server;
@@ -67,20 +69,16 @@ async function readEvents(
 
 beforeAll(async () => {
   t = await createTestApp();
-  const customerId = await addUser(t.db, 'customer', 'cass@lab.test');
+  const { operator, customerId, stockId } = await addTestLab(t);
   await addUser(t.db, 'customer', 'ines@lab.test');
-  await addUser(t.db, 'operator', 'oskar@lab.test');
-  const { stockId } = await addTestCatalogue(t.db);
-  const operator = await signedIn(t.app, 'oskar@lab.test');
-  const order = (await operator.post('/api/orders', { customerId }).expect(201)).body.id as number;
-  roll = (
-    await operator.post(`/api/orders/${order}/rolls`, { stockId, ei: 200, format: '135-36' }).expect(201)
-  ).body.id as number;
-  await operator
-    .send('post', `/api/rolls/${roll}/frames`)
-    .attach('files', await negativeTiff({ seed: 1 }), 'a.tif')
-    .attach('files', await negativeTiff({ seed: 2 }), 'b.tif')
-    .expect(201);
+  ({ roll } = await addRollWithScans(operator, {
+    customerId,
+    stockId,
+    scans: [
+      { name: 'a.tif', seed: 1 },
+      { name: 'b.tif', seed: 2 },
+    ],
+  }));
   server = t.app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
   base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
@@ -103,7 +101,7 @@ describe('a roll’s live events', () => {
     });
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toBe('text/event-stream; charset=utf-8');
-    await until(() => rollListenerCount(t.db, roll) === 1);
+    await until(async () => rollListenerCount(t.db, roll) === 1);
 
     const operatorCookie = await cookieFor('oskar@lab.test');
     const headers = { cookie: operatorCookie, 'content-type': 'application/json' };
@@ -131,18 +129,18 @@ describe('a roll’s live events', () => {
     expect(frameStatuses.filter((s) => s === 'done')).toHaveLength(2);
 
     abort.abort();
-    await until(() => rollListenerCount(t.db, roll) === 0);
+    await until(async () => rollListenerCount(t.db, roll) === 0);
   });
 
   it('ends open streams when the server shuts down', async () => {
     const res = await fetch(`${base}/api/rolls/${roll}/events`, {
       headers: { cookie: await cookieFor('cass@lab.test') },
     });
-    await until(() => rollListenerCount(t.db, roll) === 1);
+    await until(async () => rollListenerCount(t.db, roll) === 1);
     closeRollStreams(t.db);
     const reader = res.body!.getReader();
     for (;;) if ((await reader.read()).done) break;
-    await until(() => rollListenerCount(t.db, roll) === 0);
+    await until(async () => rollListenerCount(t.db, roll) === 0);
   });
 
   it('answers 404, not a stream, for another customer’s roll', async () => {
@@ -153,11 +151,3 @@ describe('a roll’s live events', () => {
     expect(res.headers.get('content-type')).toContain('application/problem+json');
   });
 });
-
-async function until(what: () => boolean, ms = 20_000): Promise<void> {
-  const end = Date.now() + ms;
-  while (!what()) {
-    if (Date.now() > end) throw new Error('timed out waiting');
-    await new Promise((r) => setTimeout(r, 20));
-  }
-}

@@ -3,23 +3,17 @@ import { join } from 'node:path';
 import { crc32, deflateSync } from 'node:zlib';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
-import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { negativeTiff } from '../orders/order-test-fixtures';
+import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
+import { addTestLab, type TestLab } from '../test-support/test-lab';
 
 let t: TestApp;
 let operator: Client;
 let good: Buffer;
 let good2: Buffer;
-let catalogue: Awaited<ReturnType<typeof addTestCatalogue>>;
+let lab: TestLab;
 
-async function newRoll(): Promise<number> {
-  const order = (await operator.post('/api/orders', { customerId: 1 }).expect(201)).body.id as number;
-  return (
-    await operator
-      .post(`/api/orders/${order}/rolls`, { stockId: catalogue.stockId, ei: 200, format: '135-36' })
-      .expect(201)
-  ).body.id as number;
-}
+const newRoll = async () => (await lab.newRoll()).roll;
 
 const upload = (roll: number) => operator.send('post', `/api/rolls/${roll}/frames`);
 const tmpFiles = () => readdirSync(join(t.config.dataDir, 'tmp'));
@@ -58,10 +52,8 @@ function pngClaiming(width: number, height: number): Buffer {
 
 beforeAll(async () => {
   t = await createTestApp({ UPLOAD_MAX_FILES: '4', UPLOAD_MAX_FILE_BYTES: '200000' });
-  await addUser(t.db, 'customer', 'cass@lab.test');
-  await addUser(t.db, 'operator', 'oskar@lab.test');
-  catalogue = await addTestCatalogue(t.db);
-  operator = await signedIn(t.app, 'oskar@lab.test');
+  lab = await addTestLab(t);
+  operator = lab.operator;
   good = await negativeTiff({ seed: 1 });
   good2 = await negativeTiff({ seed: 2 });
 });
