@@ -16,3 +16,4 @@ export * from './reference-linear';
 export * from './calibration/index';
 export * from './neutral-picker';
 export * from './capture-primaries';
+export * from './sum-adjustments';

@@ -1,15 +1,15 @@
-import type {
-  Adjustments,
-  OutputFormat,
-  ProfileDocument,
-  QcFlag,
-  ScannerProfile,
-} from '@clearbase/contracts';
-import { compileInversion, levelsToTone, type FilmBase, type FrameLevels } from '@clearbase/inversion';
+import type { OutputFormat, ProfileDocument, QcFlag, ScannerProfile } from '@clearbase/contracts';
+import {
+  compileInversion,
+  frameRenderParams,
+  type FilmBase,
+  type FrameLevels,
+  type SavedAdjustments,
+} from '@clearbase/inversion';
 import type { FileStore } from '../files/file-store';
 import { positivePipeline, readNegative, type PositiveMetadata } from '../imaging/index';
 import type { InversionPool } from '../inversion-pool/inversion-pool';
-import { inversionParams, measureLevels } from '../inversion-pool/invert-negative-file';
+import { measureLevels } from '../inversion-pool/invert-negative-file';
 import type { FrameOutputKind } from '../orders/order-tables';
 import { frameQcFlags } from './frame-qc';
 
@@ -30,8 +30,8 @@ export interface FrameRenderRequest {
   profile: ProfileDocument;
   scanner: ScannerProfile;
   base: FilmBase;
-  roll: Adjustments;
-  frame: Adjustments;
+  roll: SavedAdjustments;
+  frame: SavedAdjustments;
   formats: readonly OutputFormat[];
   /** Long edge of the full-size outputs; null keeps the scan's size. */
   longEdge: number | null;
@@ -49,8 +49,9 @@ export interface StoredRender {
 
 /**
  * Renders one frame: decodes the negative, measures its levels against `base`, inverts it on the worker pool at 16
- * bits with the profile plus the roll's and the frame's adjustments (balances add, exposures add, the frame's
- * contrast wins over the roll's, which wins over the profile's), and stores the preview JPEG (long edge 2048) and
+ * bits with the profile plus the roll's and the frame's adjustments, summed by `sumAdjustments` as the browser's
+ * preview sums them (balances, exposures and black and white point shifts add, the frame's contrast wins over the
+ * roll's, which wins over the profile's), and stores the preview JPEG (long edge 2048) and
  * each full-size format. Every file is flushed to disk under a temp name and renamed into the store; nothing is
  * recorded in the database here.
  */
@@ -67,11 +68,15 @@ export async function renderFrame(
   try {
     const settings = { profile: request.profile, scanner: request.scanner, render: 'print' as const };
     const levels = request.levels ?? measureLevels(negative, settings, request.base);
-    const params = inversionParams(settings, request.base, levels, 16);
-    const contrast = request.frame.contrast ?? request.roll.contrast ?? request.profile.tone.contrast;
-    params.profile = { ...params.profile, tone: levelsToTone(levels, contrast) };
-    params.balances = [...(params.balances ?? []), request.roll.balance, request.frame.balance];
-    params.exposureStops = request.roll.exposureStops + request.frame.exposureStops;
+    const params = frameRenderParams({
+      profile: request.profile,
+      scanner: request.scanner,
+      base: request.base.rgb,
+      levels,
+      roll: request.roll,
+      frame: request.frame,
+      outputBits: 16,
+    });
     await pool.invertFrame(
       compileInversion(params),
       negative.data,

@@ -1,13 +1,7 @@
 import { z } from 'zod';
-import type { Adjustments } from '../orders/roll';
 import { frameSchema } from '../orders/frame';
 import { rollSchema } from '../orders/roll';
-import {
-  profileDocumentSchema,
-  scannerProfileSchema,
-  type Balance,
-  type ProfileDocument,
-} from '../profile/profile-document';
+import { profileDocumentSchema, scannerProfileSchema } from '../profile/profile-document';
 
 /** What an operator decided about a rendered frame. `excluded`: not delivered (blank, fogged leader, double). */
 export const reviewDecisions = ['approved', 'rejected', 'excluded'] as const;
@@ -77,41 +71,3 @@ export const workingNegativeHeaders = {
 
 /** Long edge of a working negative, pixels: about 1.5 megapixels at 3:2, light to send and render live (our choice). */
 export const workingNegativeLongEdge = 1500;
-
-/** The adjustments one frame renders with once its roll's and its own are put together, over a profile. */
-export interface SummedAdjustments {
-  /** Printer points: profile + roll + frame. */
-  balance: Balance;
-  /** Stops: roll + frame. */
-  exposureStops: number;
-  /** The frame's contrast when set, else the roll's, else the profile's. */
-  contrast: number;
-  /** Stops the black point moves to more exposure: roll + frame. */
-  blackPointStops: number;
-  /** Stops the white point moves to more exposure: roll + frame. */
-  whitePointStops: number;
-}
-
-/**
- * Puts a profile's, a roll's and a frame's adjustments together the way every render does: balances, exposures and
- * black and white point shifts add; contrast is the nearest one set.
- * @example sumAdjustments(profile, roll, frame).balance.magentaGreen // profile + roll + frame magenta–green points
- */
-export function sumAdjustments(
-  profile: Pick<ProfileDocument, 'balance' | 'tone'>,
-  roll: Adjustments,
-  frame: Adjustments,
-): SummedAdjustments {
-  return {
-    balance: {
-      cyanRed: profile.balance.cyanRed + roll.balance.cyanRed + frame.balance.cyanRed,
-      magentaGreen: profile.balance.magentaGreen + roll.balance.magentaGreen + frame.balance.magentaGreen,
-      yellowBlue: profile.balance.yellowBlue + roll.balance.yellowBlue + frame.balance.yellowBlue,
-    },
-    exposureStops: roll.exposureStops + frame.exposureStops,
-    contrast: frame.contrast ?? roll.contrast ?? profile.tone.contrast,
-    // adjustments saved before the point shifts existed carry none: they read as 0
-    blackPointStops: (roll.blackPointStops ?? 0) + (frame.blackPointStops ?? 0),
-    whitePointStops: (roll.whitePointStops ?? 0) + (frame.whitePointStops ?? 0),
-  };
-}

@@ -1,4 +1,4 @@
-import { sumAdjustments as contractsSum, type Adjustments } from '@clearbase/contracts';
+import type { Adjustments } from '@clearbase/contracts';
 import {
   exposeNegative,
   greySteps,
@@ -12,13 +12,7 @@ import {
   type Rgb,
 } from '@clearbase/inversion';
 import { describe, expect, it } from 'vitest';
-import {
-  previewParams,
-  previewProfile,
-  serverRenderParams,
-  stopsAsPoints,
-  sumAdjustments,
-} from './tuning-preview';
+import { previewParams, previewProfile, serverRenderParams, stopsAsPoints } from './tuning-preview';
 
 const profile = {
   ...profileForStock(POLYCLEAR_200),
@@ -60,23 +54,42 @@ describe('the tuning preview', () => {
     expect(folded.tone.contrast).toBe(1.2);
   });
 
-  it('sums as the contracts’ sum does', () => {
-    expect(sumAdjustments(profile, roll, frame)).toEqual(contractsSum(profile, roll, frame));
-  });
-
   it('counts a stop as 12.04 printer points (log10 2 / 0.025, common practice of the trade, from memory)', () => {
     expect(stopsAsPoints(1)).toBeCloseTo(12.041, 3);
   });
 
-  it('renders every pixel as the server’s render of the same frame does', () => {
-    const server = serverRenderParams(profile, LINEAR_SCANNER, base, levels, roll, frame, 8);
-    const preview = previewParams(profile, LINEAR_SCANNER, base, levels, roll, frame);
+  const rendersAsServer = (rollAdjustments: Adjustments, frameAdjustments: Adjustments) => {
+    const server = serverRenderParams(
+      profile,
+      LINEAR_SCANNER,
+      base,
+      levels,
+      rollAdjustments,
+      frameAdjustments,
+      8,
+    );
+    const preview = previewParams(profile, LINEAR_SCANNER, base, levels, rollAdjustments, frameAdjustments);
     const a = resolveInversion(server);
     const b = resolveInversion(preview);
     for (let c = 0; c < 3; c++) expect(b.offset[c]).toBeCloseTo(a.offset[c]!, 12);
+    expect(preview.profile.tone).toEqual(server.profile.tone);
     for (let i = 0; i < negative.data.length; i += 3 * 97) {
       const counts: Rgb = [negative.data[i]!, negative.data[i + 1]!, negative.data[i + 2]!];
       expect(invertPixel(preview, counts, b)).toEqual(invertPixel(server, counts, a));
     }
+  };
+
+  it('renders every pixel as the server’s render of the same frame does', () => {
+    rendersAsServer(roll, frame);
+  });
+
+  it('renders moved black and white points as the server does, and moves them', () => {
+    const deeper: Adjustments = { ...roll, blackPointStops: 1 / 2, whitePointStops: -1 / 3 };
+    const dimmer: Adjustments = { ...frame, blackPointStops: 1 / 6, whitePointStops: 1 };
+    rendersAsServer(deeper, dimmer);
+    const moved = previewProfile(profile, levels, deeper, dimmer).tone;
+    const still = previewProfile(profile, levels, roll, frame).tone;
+    expect(moved.blackPoint).toBeGreaterThan(still.blackPoint);
+    expect(moved.whitePoint).toBeGreaterThan(still.whitePoint);
   });
 });

@@ -1,31 +1,18 @@
-import type { Adjustments, Balance, ProfileDocument, ScannerProfile } from '@clearbase/contracts';
+import type { Balance, ProfileDocument, ScannerProfile } from '@clearbase/contracts';
 import {
   addBalances,
-  levelsToTone,
+  frameRenderParams,
   LOG_EXPOSURE_PER_POINT,
   LOG_EXPOSURE_PER_STOP,
   neutralBalance,
+  sumAdjustments,
+  summedTone,
   type FrameLevels,
   type InversionParams,
   type InversionProfile,
   type Rgb,
+  type SavedAdjustments,
 } from '@clearbase/inversion';
-
-/**
- * Profile + roll + frame: balances and exposures add, the nearest contrast set wins. The same sum as the contracts'
- * `sumAdjustments`, written here because the browser takes only types from the contracts (they carry zod).
- */
-export function sumAdjustments(
-  profile: Pick<ProfileDocument, 'balance' | 'tone'>,
-  roll: Adjustments,
-  frame: Adjustments,
-): { balance: Balance; exposureStops: number; contrast: number } {
-  return {
-    balance: addBalances(profile.balance, roll.balance, frame.balance),
-    exposureStops: roll.exposureStops + frame.exposureStops,
-    contrast: frame.contrast ?? roll.contrast ?? profile.tone.contrast,
-  };
-}
 
 /** Printer points on every axis that make the same log exposure as `stops` (a stop is log10 2, a point 0.025). */
 export function stopsAsPoints(stops: number): number {
@@ -34,16 +21,16 @@ export function stopsAsPoints(stops: number): number {
 
 /**
  * The profile a frame previews through: the server's render folded into one profile, so the preview worker's plan
- * builder (which holds E_mid fixed) renders exactly what the server will. Balance = profile + grey-world balance of
- * the frame's levels + roll + frame, plus the summed exposure as equal points on the three axes; tone from the
- * levels at the contrast in force.
+ * builder (which holds E_mid fixed) renders exactly what the server will. Balance = the engine's sum (profile +
+ * roll + frame) + grey-world balance of the frame's levels, plus the summed exposure as equal points on the three
+ * axes; tone from the levels' black and white points moved by the summed shifts, at the contrast in force.
  * @example previewProfile(profile, levels, roll.adjustments, frame.adjustments).balance.magentaGreen
  */
 export function previewProfile(
   profile: ProfileDocument,
   levels: FrameLevels,
-  roll: Adjustments,
-  frame: Adjustments,
+  roll: SavedAdjustments,
+  frame: SavedAdjustments,
 ): InversionProfile {
   const sum = sumAdjustments(profile, roll, frame);
   const lift = stopsAsPoints(sum.exposureStops);
@@ -53,34 +40,24 @@ export function previewProfile(
     crosstalk: profile.crosstalk,
     saturation: profile.saturation,
     balance: addBalances(sum.balance, neutralBalance(levels), exposure),
-    tone: levelsToTone(levels, sum.contrast),
+    tone: summedTone(levels, sum),
   };
 }
 
 /**
- * The parameters the server renders a frame with (the roll job's sum: profile, grey-world balance, roll, frame,
- * exposures added, the nearest contrast): what the preview is checked against.
+ * The parameters the server renders a frame with (the engine's `frameRenderParams`, which the roll job calls too):
+ * what the preview is checked against.
  */
 export function serverRenderParams(
   profile: ProfileDocument,
   scanner: ScannerProfile,
   base: Rgb,
   levels: FrameLevels,
-  roll: Adjustments,
-  frame: Adjustments,
+  roll: SavedAdjustments,
+  frame: SavedAdjustments,
   outputBits: 8 | 16,
 ): InversionParams {
-  const contrast = frame.contrast ?? roll.contrast ?? profile.tone.contrast;
-  return {
-    profile: { ...profile, tone: levelsToTone(levels, contrast) },
-    scanner,
-    base,
-    balances: [neutralBalance(levels), roll.balance, frame.balance],
-    exposureStops: roll.exposureStops + frame.exposureStops,
-    midLogExposure: levels.midLogExposure,
-    render: 'print',
-    outputBits,
-  };
+  return frameRenderParams({ profile, scanner, base, levels, roll, frame, outputBits });
 }
 
 /** The parameters of the preview itself, for the neutral picker: the folded profile at the levels' E_mid. */
@@ -89,8 +66,8 @@ export function previewParams(
   scanner: ScannerProfile,
   base: Rgb,
   levels: FrameLevels,
-  roll: Adjustments,
-  frame: Adjustments,
+  roll: SavedAdjustments,
+  frame: SavedAdjustments,
 ): InversionParams {
   return {
     profile: previewProfile(profile, levels, roll, frame),
