@@ -25,6 +25,26 @@ export type CalibrationRequestBody = Omit<
   bracket: { stops: number }[];
 };
 
+/** A calibration roll whose frames the lab already holds, ready to mark and fit (GET /api/calibration-rolls). */
+export interface CalibrationRollOnFile {
+  id: number;
+  stockId: number;
+  stockName: string;
+  scannerId: number | null;
+  title: string;
+  note: string;
+  frames: {
+    n: number;
+    role: 'bracket' | 'chart' | 'leader';
+    fileId: number;
+    fileName: string;
+    width: number;
+    height: number;
+    stops: number | null;
+  }[];
+  createdAt: string;
+}
+
 /** Calls on calibrations: fitting a roll into a draft profile, its record, report and frame previews. */
 @Injectable({ providedIn: 'root' })
 export class CalibrationApi {
@@ -40,6 +60,20 @@ export class CalibrationApi {
 
   get(id: number): Observable<Calibration> {
     return this.http.get<Calibration>(`/api/calibrations/${id}`);
+  }
+
+  /** Calibration rolls on file, oldest first. */
+  rollsOnFile(): Observable<CalibrationRollOnFile[]> {
+    return this.http
+      .get<{ rolls: CalibrationRollOnFile[] }>('/api/calibration-rolls')
+      .pipe(map((r) => r.rolls));
+  }
+
+  /** One frame of a roll on file as a File, to go through the same steps as a scan chosen from disk. */
+  frameOnFile(roll: CalibrationRollOnFile, frame: CalibrationRollOnFile['frames'][number]): Observable<File> {
+    return this.http
+      .get(`/api/calibration-rolls/${roll.id}/frames/${frame.n}`, { responseType: 'blob' })
+      .pipe(map((blob) => new File([blob], frame.fileName, { type: blob.type || 'image/tiff' })));
   }
 
   /** The stocks a calibration can be for. */

@@ -6,11 +6,11 @@ import { MatError, MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatOption, MatSelect } from '@angular/material/select';
-import { Router, RouterLink } from '@angular/router';
+import { ActivatedRoute, Router, RouterLink } from '@angular/router';
 import type { FramePoint, PixelRegion } from '@clearbase/contracts';
-import { catchError, of } from 'rxjs';
+import { catchError, forkJoin, of } from 'rxjs';
 import { readProblem } from '../problem/read-problem';
-import { CalibrationApi, type FramePreview } from './calibration-api';
+import { CalibrationApi, type CalibrationRollOnFile, type FramePreview } from './calibration-api';
 import { centralHalf } from './chart-overlay';
 import { FrameMarker } from './frame-marker';
 
@@ -32,6 +32,7 @@ export function stopsFromFileName(name: string): number | null {
  * Staff: builds a profile for a new emulsion from a calibration roll. The operator picks the stock, adds the grey
  * bracket frames with their stops, the chart frame (clicking its four corners on the preview, the patch grid drawn
  * over it) and optionally a leader; a rectangle dragged on the first grey frame is sampled on every grey frame.
+ * A roll on file (frames the lab already holds, with their stops) loads in one step; `?stock=ID` picks the stock.
  */
 @Component({
   selector: 'cb-calibration-page',
@@ -56,13 +57,23 @@ export function stopsFromFileName(name: string): number | null {
 export class CalibrationPage {
   private readonly api = inject(CalibrationApi);
   private readonly router = inject(Router);
+  private readonly route = inject(ActivatedRoute);
 
   protected readonly stocks = toSignal(this.api.stocks().pipe(catchError(() => of([]))), {
     initialValue: [],
   });
   protected readonly recent = toSignal(this.api.list().pipe(catchError(() => of([]))), { initialValue: [] });
+  protected readonly rollsOnFile = toSignal(this.api.rollsOnFile().pipe(catchError(() => of([]))), {
+    initialValue: [],
+  });
+  /** The roll on file whose frames are loaded, or being loaded. */
+  protected readonly loadedRoll = signal<CalibrationRollOnFile | null>(null);
+  protected readonly loadingRoll = signal(false);
   protected readonly form = new FormGroup({
-    stockId: new FormControl<number | null>(null, Validators.required),
+    stockId: new FormControl<number | null>(
+      Number(this.route.snapshot.queryParamMap.get('stock')) || null,
+      Validators.required,
+    ),
     bracket: new FormArray<BracketRow>([]),
   });
   protected readonly greyFiles = signal<File[]>([]);
@@ -93,20 +104,59 @@ export class CalibrationPage {
       a.name.localeCompare(b.name, undefined, { numeric: true }),
     );
     input.value = '';
-    if (!files.length) return;
+    this.addGrey(files.map((file) => ({ file, stops: stopsFromFileName(file.name) })));
+  }
+
+  private addGrey(frames: { file: File; stops: number | null }[]): void {
+    if (!frames.length) return;
     const first = this.greyFiles().length === 0;
-    this.greyFiles.update((fs) => [...fs, ...files]);
-    for (const f of files)
+    this.greyFiles.update((fs) => [...fs, ...frames.map((f) => f.file)]);
+    for (const f of frames)
       this.form.controls.bracket.push(
         new FormGroup({
-          stops: new FormControl<number | null>(stopsFromFileName(f.name), [
+          stops: new FormControl<number | null>(f.stops, [
             Validators.required,
             Validators.min(stopsRange.min),
             Validators.max(stopsRange.max),
           ]),
         }),
       );
-    if (first) this.loadPreview(files[0]!, 'grey');
+    if (first) this.loadPreview(frames[0]!.file, 'grey');
+  }
+
+  /** Loads a roll on file in place of whatever was chosen: its stock, grey frames with their stops, chart, leader. */
+  protected loadRoll(roll: CalibrationRollOnFile): void {
+    const frames = roll.frames;
+    if (!frames.some((f) => f.role === 'chart')) return;
+    this.loadingRoll.set(true);
+    this.problem.set(null);
+    forkJoin(frames.map((f) => this.api.frameOnFile(roll, f))).subscribe({
+      next: (files) => {
+        this.loadingRoll.set(false);
+        this.loadedRoll.set(roll);
+        this.form.controls.stockId.setValue(roll.stockId);
+        this.form.controls.bracket.clear();
+        this.greyFiles.set([]);
+        this.greyPreview.set(null);
+        this.greyRegion.set(null);
+        this.addGrey(
+          frames.flatMap((f, i) => (f.role === 'bracket' ? [{ file: files[i]!, stops: f.stops }] : [])),
+        );
+        this.useChart(files[frames.findIndex((f) => f.role === 'chart')]!);
+        const leader = frames.findIndex((f) => f.role === 'leader');
+        this.leaderFile.set(leader >= 0 ? files[leader]! : null);
+      },
+      error: (err: unknown) => {
+        this.loadingRoll.set(false);
+        this.problem.set(`${roll.title}: ${readProblem(err).message}`);
+      },
+    });
+  }
+
+  protected frameSummary(roll: CalibrationRollOnFile): string {
+    const grey = roll.frames.filter((f) => f.role === 'bracket').length;
+    const leader = roll.frames.some((f) => f.role === 'leader');
+    return `${grey} grey frames, the chart${leader ? ' and a leader' : ''}`;
   }
 
   protected removeGrey(i: number): void {
@@ -121,7 +171,10 @@ export class CalibrationPage {
   }
 
   protected setChart(input: HTMLInputElement): void {
-    const file = input.files?.[0] ?? null;
+    this.useChart(input.files?.[0] ?? null);
+  }
+
+  private useChart(file: File | null): void {
     this.chartFile.set(file);
     this.corners.set([]);
     this.chartPreview.set(null);
