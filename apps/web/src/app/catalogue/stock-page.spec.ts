@@ -87,6 +87,30 @@ describe('StockPage', () => {
     expect(el.querySelector('[data-testid="sheet-exponent"]')!.textContent).toBe('p = 1.4');
   });
 
+  it('offers staff a calibration of the stock and links a calibrated version to its report', async () => {
+    const { backend, fixture, el } = await render('operator');
+    backend.expectOne('/api/calibrations?stockId=1').flush({
+      calibrations: [
+        { id: 7, profileVersionId: 102 },
+        { id: 6, profileVersionId: null },
+      ],
+    });
+    await fixture.whenStable();
+    expect(el.querySelector('[data-testid="calibrate-stock"]')!.getAttribute('href')).toBe(
+      '/calibration?stock=1',
+    );
+    expect(el.querySelector('[data-testid="calibration-report-102"]')!.getAttribute('href')).toBe(
+      '/calibration/7',
+    );
+    expect(el.querySelectorAll('[data-testid^="calibration-report-"]')).toHaveLength(1);
+  });
+
+  it('asks no calibrations for a customer and offers no calibration', async () => {
+    const { backend, el } = await render('customer');
+    backend.expectNone((r) => r.url.startsWith('/api/calibrations'));
+    expect(el.querySelector('[data-testid="calibrate-stock"]')).toBeNull();
+  });
+
   it('makes an operator’s new draft from a published version and shows the page again', async () => {
     const { page, backend, fixture, el } = await render('operator');
     await (

@@ -18,6 +18,7 @@ import type { ImportProfileResponse, ProfileVersionSummary, Stock, StockDetail }
 import { catchError, map, of, startWith, switchMap } from 'rxjs';
 import { ConfirmDialog, type ConfirmDialogData } from '../admin/confirm-dialog';
 import { Session } from '../auth/session';
+import { CalibrationApi } from '../calibration/calibration-api';
 import { readProblem } from '../problem/read-problem';
 import { CatalogueApi } from './catalogue-api';
 import { ProfileImport } from './profile-import';
@@ -60,6 +61,7 @@ export class StockPage {
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
   private readonly session = inject(Session);
+  private readonly calibrationApi = inject(CalibrationApi);
 
   /** The stock's id, from the route. */
   readonly id = input.required<string>();
@@ -85,6 +87,23 @@ export class StockPage {
       ),
     ),
     { initialValue: { loading: true, detail: null, problem: null } satisfies StockView },
+  );
+  /** For staff: which versions of this stock were fitted from a calibration, version id to calibration id. */
+  protected readonly calibrations = toSignal(
+    toObservable(this.request).pipe(
+      switchMap(({ id }) =>
+        this.isStaff()
+          ? this.calibrationApi.list(id).pipe(
+              map(
+                (list) =>
+                  new Map(list.flatMap((c) => (c.profileVersionId ? [[c.profileVersionId, c.id]] : []))),
+              ),
+              catchError(() => of(new Map<number, number>())),
+            )
+          : of(new Map<number, number>()),
+      ),
+    ),
+    { initialValue: new Map<number, number>() },
   );
   protected readonly detail = computed(() => this.view().detail);
   protected readonly loading = computed(() => this.view().loading);

@@ -68,6 +68,15 @@ describe('VersionTimeline', () => {
     expect(testIds()).toEqual([]);
   });
 
+  it('links a version fitted from a calibration to its calibration report, and no other', async () => {
+    const { fixture, el } = await render('operator');
+    fixture.componentRef.setInput('calibrations', new Map([[102, 7]]));
+    await fixture.whenStable();
+    const links = [...el.querySelectorAll('[data-testid^="calibration-report-"]')];
+    expect(links.map((a) => a.getAttribute('data-testid'))).toEqual(['calibration-report-102']);
+    expect(links[0]!.getAttribute('href')).toBe('/calibration/7');
+  });
+
   it('tells which version to start a draft from when its button is pressed', async () => {
     const { fixture, el } = await render('operator');
     const asked: number[] = [];

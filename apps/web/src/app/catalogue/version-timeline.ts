@@ -30,6 +30,8 @@ export class VersionTimeline {
   readonly pending = input<ReadonlySet<number>>(new Set());
   /** Where the browser downloads a version's document. */
   readonly exportUrl = input.required<(versionId: number) => string>();
+  /** The calibration each version was fitted from, by version id: those versions link to their report. */
+  readonly calibrations = input<ReadonlyMap<number, number>>(new Map());
 
   readonly newDraft = output<ProfileVersionSummary>();
   readonly retire = output<ProfileVersionSummary>();
@@ -44,6 +46,7 @@ export class VersionTimeline {
         version: v,
         parentNumber: v.parentVersionId === null ? null : (numberOf.get(v.parentVersionId) ?? null),
         actions: versionActions(v, this.role()),
+        calibrationId: this.calibrations().get(v.id) ?? null,
       }));
   });
 }
