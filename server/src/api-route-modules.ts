@@ -11,6 +11,7 @@ import { galleryRoutes } from './gallery/gallery-routes';
 import { jobsRoutes } from './jobs/jobs-routes';
 import { labRoutes } from './lab/lab-routes';
 import { ordersRoutes } from './orders/orders-routes';
+import { outboxAdminRoutes } from './outbox-admin/outbox-admin-routes';
 import { pricesRoutes } from './prices/prices-routes';
 import { profilesRoutes } from './profiles/profiles-routes';
 import { referenceFrameRoutes } from './profiles/reference-frame-routes';
@@ -38,6 +39,7 @@ export const apiRouteModules: readonly RouteModule[] = [
   referenceFrameRoutes,
   signupRoutes,
   devMailboxRoutes,
+  outboxAdminRoutes,
   pricesRoutes,
   paymentsRoutes,
   ordersRoutes,

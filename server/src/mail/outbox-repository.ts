@@ -86,3 +86,37 @@ export async function markMailAttemptFailed(
     .where('id', '=', id)
     .execute();
 }
+
+/** Messages not delivered in one state, newest first (at most `limit`), for an admin to look after. */
+export function listUndeliveredMail(
+  db: Kysely<Database>,
+  state: 'pending' | 'failed',
+  limit: number,
+): Promise<OutboxRow[]> {
+  return db
+    .selectFrom('outbox')
+    .selectAll()
+    .where('state', '=', state)
+    .orderBy('created_at', 'desc')
+    .orderBy('id', 'desc')
+    .limit(limit)
+    .execute();
+}
+
+export function findMail(db: Kysely<Database>, id: number): Promise<OutboxRow | undefined> {
+  return db.selectFrom('outbox').selectAll().where('id', '=', id).executeTakeFirst();
+}
+
+/**
+ * Makes an undelivered message due now: the sender's next pass tries it once more. A message that had given up goes
+ * back to pending for that one try; if it fails again it gives up again at once (its attempts are kept).
+ */
+export async function scheduleMailNow(db: Kysely<Database>, id: number, now: Date): Promise<boolean> {
+  const result = await db
+    .updateTable('outbox')
+    .set({ state: 'pending', next_attempt_at: now.toISOString() })
+    .where('id', '=', id)
+    .where('state', '!=', 'sent')
+    .executeTakeFirst();
+  return Number(result.numUpdatedRows) === 1;
+}
