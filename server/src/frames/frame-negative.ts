@@ -5,15 +5,24 @@ import { findFileById } from '../files/file-repository';
 import { readNegative, type NegativeImage } from '../imaging/index';
 import type { FrameRow } from '../orders/order-tables';
 
+/** A frame's negative scan: its SHA-256 and where it is stored. */
+export async function frameSourceFile(
+  db: Kysely<Database>,
+  store: FileStore,
+  frame: FrameRow,
+): Promise<{ sha256: string; path: string }> {
+  const file = await findFileById(db, frame.source_file_id);
+  if (!file) throw new Error(`frame ${frame.id} points at missing file ${frame.source_file_id}`);
+  return { sha256: file.sha256, path: store.pathOf(file.sha256) };
+}
+
 /** Where a frame's negative scan is stored. */
 export async function frameSourcePath(
   db: Kysely<Database>,
   store: FileStore,
   frame: FrameRow,
 ): Promise<string> {
-  const file = await findFileById(db, frame.source_file_id);
-  if (!file) throw new Error(`frame ${frame.id} points at missing file ${frame.source_file_id}`);
-  return store.pathOf(file.sha256);
+  return (await frameSourceFile(db, store, frame)).path;
 }
 
 /** Decodes a frame's negative scan. */

@@ -7,12 +7,21 @@ import {
   pickNeutral,
   POLYCLEAR_200,
   profileForStock,
+  type Rgb,
 } from '@clearbase/inversion';
 import type { Response } from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
+import { createFileStore } from '../files/file-store';
+import { frameNegative } from '../frames/frame-negative';
+import { measureLevels } from '../inversion-pool/invert-negative-file';
 import { downsampleNegative } from './working-negative';
+import {
+  decodeWorkingNegative,
+  encodeWorkingNegative,
+  workingNegativeCacheOf,
+} from './working-negative-cache';
 
 let t: TestApp;
 let operator: Client;
@@ -86,6 +95,77 @@ describe('working negative', () => {
     const levels = JSON.parse(String(res.headers[workingNegativeHeaders.levels.toLowerCase()]));
     expect(levels.channelMeans).toHaveLength(3);
     expect(levels.whiteLogExposure).toBeGreaterThan(levels.blackLogExposure);
+  });
+
+  it('is made once per scan: requests together share one making, later ones read it from the store', async () => {
+    const cache = workingNegativeCacheOf(createFileStore(t.config.dataDir));
+    const get = () =>
+      operator.get(`/api/frames/${frames[1]}/working-negative`).buffer(true).parse(binary).expect(200);
+    const before = cache.made;
+    const [a, b] = await Promise.all([get(), get()]);
+    expect(cache.made).toBe(before + 1);
+    const c = await get();
+    expect(cache.made).toBe(before + 1);
+    expect((b.body as Buffer).equals(a.body as Buffer)).toBe(true);
+    expect((c.body as Buffer).equals(a.body as Buffer)).toBe(true);
+    expect(c.headers[workingNegativeHeaders.levels.toLowerCase()]).toBe(
+      a.headers[workingNegativeHeaders.levels.toLowerCase()],
+    );
+  });
+
+  it('sends the levels of the full scan, as the roll job measures them', async () => {
+    const res = await operator
+      .get(`/api/frames/${frames[0]}/working-negative`)
+      .buffer(true)
+      .parse(binary)
+      .expect(200);
+    const sheet = (await operator.get(`/api/rolls/${roll}/tuning`).expect(200)).body as RollTuning;
+    const frame = (await t.db
+      .selectFrom('frames')
+      .selectAll()
+      .where('id', '=', frames[0]!)
+      .executeTakeFirst())!;
+    const scan = await frameNegative(t.db, createFileStore(t.config.dataDir), frame, 1e8);
+    const base = String(res.headers[workingNegativeHeaders.base.toLowerCase()]).split(',').map(Number);
+    const full = measureLevels(
+      scan,
+      { profile: sheet.profile, scanner: sheet.scanner, render: 'print' },
+      { rgb: base as Rgb, region: [0, 0, 0, 0], confidence: 1 },
+    );
+    expect(JSON.parse(String(res.headers[workingNegativeHeaders.levels.toLowerCase()]))).toEqual(full);
+  });
+
+  it('measures the base of a frame that has none on file from its full scan', async () => {
+    const stored = await t.db
+      .selectFrom('frames')
+      .select('base_measured')
+      .where('id', '=', frames[1]!)
+      .executeTakeFirst();
+    await t.db.updateTable('frames').set({ base_measured: null }).where('id', '=', frames[1]!).execute();
+    try {
+      const res = await operator
+        .get(`/api/frames/${frames[1]}/working-negative`)
+        .buffer(true)
+        .parse(binary)
+        .expect(200);
+      expect(res.headers[workingNegativeHeaders.baseSource.toLowerCase()]).toBe('frame');
+      const base = String(res.headers[workingNegativeHeaders.base.toLowerCase()]).split(',').map(Number);
+      expect(base).toEqual((JSON.parse(stored!.base_measured!) as { rgb: number[] }).rgb);
+    } finally {
+      await t.db.updateTable('frames').set(stored!).where('id', '=', frames[1]!).execute();
+    }
+  });
+
+  it('reads back what it stores, and takes other bytes for no working negative', () => {
+    const working = { width: 2, height: 1, data: Uint16Array.from([1, 2, 3, 4, 5, 65535]) };
+    const sample = { width: 1, height: 1, data: Uint16Array.from([7, 8, 9]) };
+    const bytes = encodeWorkingNegative(working, sample, { width: 4, height: 2 });
+    const back = decodeWorkingNegative(bytes)!;
+    expect([back.width, back.height, back.scanWidth, back.scanHeight]).toEqual([2, 1, 4, 2]);
+    expect(back.pixels.readUInt16LE(10)).toBe(65535);
+    expect(Array.from(back.sample.data)).toEqual([7, 8, 9]);
+    expect(decodeWorkingNegative(bytes.subarray(0, bytes.length - 1))).toBeNull();
+    expect(decodeWorkingNegative(Buffer.from('not a working negative'))).toBeNull();
   });
 
   it('reduces a large scan by a whole factor, each pixel the mean of its block', () => {

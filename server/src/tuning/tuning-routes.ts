@@ -11,17 +11,15 @@ import {
   type TuningFrame,
 } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
-import { endianness } from 'node:os';
 import { recordAudit, type AuditAction } from '../audit/audit-log';
 import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
-import { frameNegative } from '../frames/frame-negative';
+import { frameSourceFile } from '../frames/frame-negative';
 import { findFrameById, listFramesOfRoll, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
 import { loadFrameFor } from '../frames/frames-routes';
-import { measureNegativeBase } from '../frames/measure-base';
 import type { RouteModule } from '../http/route-module';
-import { measureLevels } from '../inversion-pool/invert-negative-file';
+import { readNegative } from '../imaging/index';
 import { chooseBase } from '../jobs/job-runner';
 import { findOrderById, setOrderStatus } from '../orders/order-repository';
 import type { FrameRow } from '../orders/order-tables';
@@ -29,7 +27,8 @@ import { medianBaseOf } from '../rolls/median-base';
 import { loadRollFor, scannerProfileOf } from '../rolls/roll-access';
 import { findRollById, listRollsOfOrder, toRoll, type RollListRow } from '../rolls/roll-repository';
 import type { FrameReviewRow } from './frame-reviews-table';
-import { downsampleNegative } from './working-negative';
+import { workingNegativeCacheOf } from './working-negative-cache';
+import { measureBaseOffThread, measureLevelsOffThread } from './working-negative-worker';
 
 const parse = <T>(text: string | null): T | null => (text === null ? null : (JSON.parse(text) as T));
 
@@ -91,12 +90,14 @@ async function profileOf(db: Kysely<Database>, roll: RollListRow): Promise<Profi
 }
 
 /**
- * The tuning screen's server side: a roll's tuning sheet, each frame's working negative for the live preview, and
+ * The tuning screen's server side: a roll's tuning sheet, each frame's working negative for the live preview (made
+ * once per scan and kept in the file store; no pixel loop runs on the event loop), and
  * frame reviews, which approve the roll when every frame is approved or excluded (the order becomes ready when all
  * its rolls are, and goes back to tuning when one is not).
  */
 export const tuningRoutes: RouteModule = (api, { db, config, clock }) => {
   const store = createFileStore(config.dataDir);
+  const workingNegatives = workingNegativeCacheOf(store);
 
   api.define(
     {
@@ -135,14 +136,18 @@ export const tuningRoutes: RouteModule = (api, { db, config, clock }) => {
       const frame = await loadFrameFor(db, params.id, user!);
       const roll = (await findRollById(db, frame.roll_id))!;
       const scanner = await scannerProfileOf(db, roll.scanner_id);
-      const negative = await frameNegative(db, store, frame, config.uploads.maxPixels);
+      const source = await frameSourceFile(db, store, frame);
+      const { maxPixels } = config.uploads;
+      const working = await workingNegatives.get(source, workingNegativeLongEdge, maxPixels);
       let own = frame.base_measured;
       if (own === null) {
-        try {
-          own = JSON.stringify(measureNegativeBase(negative, scanner, parse<PixelRegion>(frame.base_region)));
-        } catch {
-          own = null;
-        }
+        // a frame whose base was not measured on upload: its full scan is measured now, off the event loop
+        const image = await readNegative(source.path, { maxPixels });
+        const region = parse<PixelRegion>(frame.base_region);
+        own = await measureBaseOffThread({ kind: 'base', image, scanner, region }).then(
+          (base) => JSON.stringify(base),
+          () => null,
+        );
       }
       let chosen: ReturnType<typeof chooseBase>;
       try {
@@ -153,28 +158,26 @@ export const tuningRoutes: RouteModule = (api, { db, config, clock }) => {
       } catch (err) {
         throw new AppError('no-base', 422, err instanceof Error ? err.message : 'No usable film base.');
       }
-      const levels = measureLevels(
-        negative,
-        { profile: await profileOf(db, roll), scanner, render: 'print' },
-        chosen.base,
-      );
-      const small = downsampleNegative(negative, workingNegativeLongEdge);
-      const body = Buffer.from(small.data.buffer, small.data.byteOffset, small.data.byteLength);
-      // the pixels are promised little-endian; a big-endian host swaps a copy
-      const wire = endianness() === 'LE' ? body : Buffer.from(body).swap16();
+      const levels = await measureLevelsOffThread({
+        kind: 'levels',
+        sample: working.sample,
+        profile: await profileOf(db, roll),
+        scanner,
+        base: chosen.base.rgb,
+      });
       res
         .status(200)
         .set({
           'Content-Type': 'application/octet-stream',
           'Cache-Control': 'private, no-cache',
-          [workingNegativeHeaders.width]: String(small.width),
-          [workingNegativeHeaders.height]: String(small.height),
+          [workingNegativeHeaders.width]: String(working.width),
+          [workingNegativeHeaders.height]: String(working.height),
           [workingNegativeHeaders.base]: chosen.base.rgb.map((b) => b.toPrecision(9)).join(','),
           [workingNegativeHeaders.baseSource]: chosen.source,
-          [workingNegativeHeaders.scanSize]: `${negative.width}x${negative.height}`,
+          [workingNegativeHeaders.scanSize]: `${working.scanWidth}x${working.scanHeight}`,
           [workingNegativeHeaders.levels]: JSON.stringify(levels),
         })
-        .end(wire);
+        .end(working.pixels);
     },
   );
 
