@@ -4,7 +4,7 @@ import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
-import type { OrderDetail, Role, User } from '@clearbase/contracts';
+import type { OrderDetail, OrderReadiness, Payment, Role, User } from '@clearbase/contracts';
 import { Session } from '../auth/session';
 import { testStocks } from '../catalogue/catalogue-testing';
 import { testRollDetail } from '../rolls/roll-testing';
@@ -37,7 +37,26 @@ const detail: OrderDetail = {
   rolls: [testRollDetail([]).roll],
 };
 
-async function render(role: Role) {
+const notReady: OrderReadiness = {
+  ready: false,
+  blocker: null,
+  waiting: [{ rollId: 7, rollNumber: 1, reason: 'has 2 frames not approved' }],
+  linkValidHours: 168,
+};
+const allApproved: OrderReadiness = { ready: true, blocker: null, waiting: [], linkValidHours: 168 };
+
+const paidPayment: Payment = {
+  id: 5,
+  orderId: 3,
+  amountMinor: 4300,
+  currency: 'EUR',
+  status: 'paid',
+  refundedMinor: 0,
+  createdAt: '2026-11-20T09:05:00.000Z',
+  paidAt: '2026-11-20T09:06:00.000Z',
+};
+
+async function render(role: Role, staffAnswers: { readiness?: OrderReadiness; payments?: Payment[] } = {}) {
   TestBed.configureTestingModule({
     imports: [OrderPage],
     providers: [
@@ -56,7 +75,11 @@ async function render(role: Role) {
   fixture.componentRef.setInput('id', '3');
   await fixture.whenStable();
   backend.expectOne('/api/orders/3').flush(detail);
-  if (role !== 'customer') backend.expectOne('/api/scanners').flush({ scanners: [] });
+  if (role !== 'customer') {
+    backend.expectOne('/api/scanners').flush({ scanners: [] });
+    backend.expectOne('/api/orders/3/readiness').flush(staffAnswers.readiness ?? notReady);
+    backend.expectOne('/api/orders/3/payments').flush({ payments: staffAnswers.payments ?? [] });
+  }
   await fixture.whenStable();
   const root = fixture.nativeElement as HTMLElement;
   const byId = (id: string) => root.querySelector(`[data-testid="${id}"]`) as HTMLElement | null;
@@ -148,5 +171,114 @@ describe('OrderPage', () => {
     await fixture.whenStable();
     expect(dialogId('add-roll-ei-error').textContent!.trim()).toBe('Too big: expected at most 25600');
     expect(dialogId('add-roll-error').textContent).toContain('The request is not valid.');
+  });
+
+  it('keeps Mark ready greyed out and says which rolls still wait', async () => {
+    const { byId } = await render('operator');
+    expect((byId('order-mark-ready') as HTMLButtonElement).disabled).toBe(true);
+    expect(byId('order-not-ready')!.textContent!.trim()).toBe('Not yet: roll 1 has 2 frames not approved.');
+  });
+
+  it('marks an approved order ready after a confirm saying the customer gets the link by e-mail, then shows it ready', async () => {
+    const { fixture, backend, byId } = await render('operator', { readiness: allApproved });
+    expect(byId('order-not-ready')).toBeNull();
+    byId('order-mark-ready')!.click();
+    await fixture.whenStable();
+    const confirm = document.querySelector('cb-confirm-dialog') as HTMLElement;
+    expect(confirm.textContent).toContain(
+      'Marit Olsen will get an e-mail with a link to download the scans of this order; the link works for 7 days.',
+    );
+    (confirm.querySelector('[data-testid="confirm-ok"]') as HTMLElement).click();
+    await fixture.whenStable();
+
+    const req = backend.expectOne('/api/orders/3/ready');
+    expect(req.request.method).toBe('POST');
+    req.flush({ ...detail.order, status: 'ready' });
+    await fixture.whenStable();
+    backend.expectOne('/api/orders/3').flush({ ...detail, order: { ...detail.order, status: 'ready' } });
+    backend.expectOne('/api/orders/3/readiness').flush(allApproved);
+    backend.expectOne('/api/orders/3/payments').flush({ payments: [] });
+    await fixture.whenStable();
+    expect(byId('step-ready')!.getAttribute('data-state')).toBe('current');
+    expect(byId('order-mark-ready')!.textContent).toContain('Send the link again');
+  });
+
+  it('sends nothing when the confirm is cancelled', async () => {
+    const { fixture, backend, byId } = await render('operator', { readiness: allApproved });
+    byId('order-mark-ready')!.click();
+    await fixture.whenStable();
+    (document.querySelector('[data-testid="confirm-cancel"]') as HTMLElement).click();
+    await fixture.whenStable();
+    backend.expectNone('/api/orders/3/ready');
+  });
+
+  it('shows staff the payment state; an operator may not refund', async () => {
+    const { byId } = await render('operator', { payments: [paidPayment] });
+    expect(byId('staff-payment-line')!.textContent).toContain('€43.00');
+    expect(byId('staff-payment-status')!.textContent!.trim()).toBe('Paid');
+    expect(byId('staff-payment-refund')).toBeNull();
+  });
+
+  it('lets a manager refund part of a payment in the lab’s currency after a second look, with the server’s refusal shown', async () => {
+    const { fixture, backend, byId } = await render('manager', { payments: [paidPayment] });
+    byId('staff-payment-refund')!.click();
+    await fixture.whenStable();
+    const dialog = document.querySelector('cb-refund-dialog') as HTMLElement;
+    const inDialog = (id: string) => dialog.querySelector(`[data-testid="${id}"]`) as HTMLElement | null;
+    const amount = inDialog('refund-amount') as HTMLInputElement;
+    expect(amount.value).toBe('43');
+
+    amount.value = '12.5';
+    amount.dispatchEvent(new Event('input'));
+    inDialog('refund-review')!.click();
+    await fixture.whenStable();
+    expect(inDialog('refund-confirm-text')!.textContent).toContain('€12.50 of the €43.00 paid goes back');
+    inDialog('refund-confirm')!.click();
+    const refused = backend.expectOne('/api/payments/5/refund');
+    expect(refused.request.body).toEqual({ amountMinor: 1250 });
+    refused.flush(
+      {
+        type: 'about:blank',
+        title: 'Bad Request',
+        status: 400,
+        detail: 'At most €10.00 is left to refund.',
+        errors: [{ path: 'body.amountMinor', message: 'Expected at most 1000' }],
+      },
+      { status: 400, statusText: 'Bad Request' },
+    );
+    await fixture.whenStable();
+    expect(inDialog('refund-error')!.textContent).toContain('At most €10.00 is left to refund.');
+    expect(inDialog('refund-amount-error')!.textContent!.trim()).toBe('Expected at most 1000');
+
+    const again = inDialog('refund-amount') as HTMLInputElement;
+    again.value = '10';
+    again.dispatchEvent(new Event('input'));
+    inDialog('refund-review')!.click();
+    await fixture.whenStable();
+    inDialog('refund-confirm')!.click();
+    const accepted = backend.expectOne('/api/payments/5/refund');
+    expect(accepted.request.body).toEqual({ amountMinor: 1000 });
+    accepted.flush({ payment: { ...paidPayment, status: 'partly-refunded', refundedMinor: 1000 } });
+    await fixture.whenStable();
+    expect(byId('staff-payment-status')!.textContent!.trim()).toBe('Partly refunded');
+    expect(byId('staff-payment-line')!.textContent).toContain('€10.00 refunded');
+  });
+
+  it('refuses a refund above what is left before asking the server', async () => {
+    const { fixture, backend, byId } = await render('admin', {
+      payments: [{ ...paidPayment, status: 'partly-refunded', refundedMinor: 4000 }],
+    });
+    byId('staff-payment-refund')!.click();
+    await fixture.whenStable();
+    const dialog = document.querySelector('cb-refund-dialog') as HTMLElement;
+    const amount = dialog.querySelector('[data-testid="refund-amount"]') as HTMLInputElement;
+    amount.value = '5';
+    amount.dispatchEvent(new Event('input'));
+    (dialog.querySelector('[data-testid="refund-review"]') as HTMLElement).click();
+    await fixture.whenStable();
+    expect(dialog.querySelector('[data-testid="refund-amount-error"]')!.textContent!.trim()).toBe(
+      'At most €3.00, what is left to refund',
+    );
+    backend.expectNone('/api/payments/5/refund');
   });
 });

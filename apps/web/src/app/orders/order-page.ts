@@ -1,6 +1,6 @@
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { takeUntilDestroyed, toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIcon } from '@angular/material/icon';
@@ -8,10 +8,16 @@ import { MatMenu, MatMenuItem, MatMenuTrigger } from '@angular/material/menu';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import type { OrderDetail, OrderStatus, Roll, Scanner } from '@clearbase/contracts';
+import type { OrderDetail, OrderReadiness, OrderStatus, Payment, Roll, Scanner } from '@clearbase/contracts';
 import { catchError, combineLatest, map, of, scan, startWith, Subject, switchMap } from 'rxjs';
+import { ConfirmDialog, type ConfirmDialogData } from '../admin/confirm-dialog';
+import { OrderReadinessApi } from '../admin/order-readiness-api';
+import { paymentStatusLabel, refundable } from '../admin/payment-status-label';
+import { RefundDialog, type RefundDialogData } from '../admin/refund-dialog';
 import { Session } from '../auth/session';
+import { showMoney } from '../prices/money';
 import { OrderPaymentPanel } from '../prices/order-payment-panel';
+import { PaymentsApi } from '../prices/payments-api';
 import { readProblem, type ProblemMessage } from '../problem/read-problem';
 import { pushPullLabel, rollStatusLabel } from '../rolls/roll-labels';
 import { ScannersApi } from '../scanners/scanners-api';
@@ -62,6 +68,8 @@ export class OrderPage {
   private readonly snackBar = inject(MatSnackBar);
   private readonly session = inject(Session);
   private readonly scannersApi = inject(ScannersApi);
+  private readonly readinessApi = inject(OrderReadinessApi);
+  private readonly paymentsApi = inject(PaymentsApi);
 
   /** The order id, from the route. */
   readonly id = input.required<string>();
@@ -75,6 +83,10 @@ export class OrderPage {
   protected readonly rollStatusLabel = rollStatusLabel;
   protected readonly pushPullLabel = pushPullLabel;
   protected readonly staff = computed(() => isStaffRole(this.session.role()));
+  protected readonly canRefund = computed(() => ['manager', 'admin'].includes(this.session.role() ?? ''));
+  protected readonly paymentStatusLabel = paymentStatusLabel;
+  protected readonly refundable = refundable;
+  protected readonly showMoney = showMoney;
 
   private readonly state = toSignal(
     combineLatest([toObservable(this.id), this.reloads.pipe(startWith(undefined))]).pipe(
@@ -124,6 +136,52 @@ export class OrderPage {
     { initialValue: [] as Scanner[] },
   );
 
+  /** Staff only: whether every roll is approved, reloaded with the order. */
+  protected readonly readiness = toSignal(
+    combineLatest([
+      toObservable(this.id),
+      toObservable(this.staff),
+      this.reloads.pipe(startWith(undefined)),
+    ]).pipe(
+      switchMap(([id, staff]) =>
+        staff
+          ? this.readinessApi.readiness(Number(id)).pipe(catchError(() => of<OrderReadiness | null>(null)))
+          : of<OrderReadiness | null>(null),
+      ),
+    ),
+    { initialValue: null },
+  );
+  /** Mark ready is offered on open orders; closed ones stay as they are. */
+  protected readonly canMarkReady = computed(() => {
+    const order = this.order();
+    return this.staff() && !!order && !orderClosed(order.status);
+  });
+  /** Why Mark ready is greyed out: the order's own reason, or each roll still waiting. */
+  protected readonly notReadyReason = computed(() => {
+    const r = this.readiness();
+    if (!r) return 'Checking the rolls…';
+    if (r.ready) return null;
+    if (r.blocker) return r.blocker;
+    return `Not yet: ${r.waiting.map((w) => `roll ${w.rollNumber} ${w.reason}`).join('; ')}.`;
+  });
+  protected readonly marking = signal(false);
+
+  /** Staff only: the order's payments; a customer's page has the payment panel instead. */
+  protected readonly payments = signal<Payment[]>([]);
+
+  constructor() {
+    combineLatest([toObservable(this.id), toObservable(this.staff), this.reloads.pipe(startWith(undefined))])
+      .pipe(
+        switchMap(([id, staff]) =>
+          staff
+            ? this.paymentsApi.list(Number(id)).pipe(catchError(() => of<Payment[]>([])))
+            : of<Payment[]>([]),
+        ),
+        takeUntilDestroyed(),
+      )
+      .subscribe((list) => this.payments.set(list));
+  }
+
   protected scannerName(roll: Roll): string {
     if (roll.scannerId === null) return 'Not chosen';
     return this.scanners().find((s) => s.id === roll.scannerId)?.name ?? `Scanner ${roll.scannerId}`;
@@ -150,6 +208,72 @@ export class OrderPage {
         this.snackBar.open(readProblem(err).message, 'Close', { duration: 8000 });
       },
     });
+  }
+
+  /** Asks first, since the customer is mailed at once; then the status timeline shows the order ready. */
+  protected markReady(): void {
+    const order = this.order();
+    const readiness = this.readiness();
+    if (!order || !readiness?.ready || this.marking()) return;
+    const again = order.status === 'ready';
+    const days = readiness.linkValidHours / 24;
+    const lasting = Number.isInteger(days)
+      ? `${days} day${days === 1 ? '' : 's'}`
+      : `${readiness.linkValidHours} hours`;
+    this.dialog
+      .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, {
+        data: {
+          title: again ? `Send order ${order.id}'s link again?` : `Mark order ${order.id} ready?`,
+          message:
+            `${order.customerName} will get an e-mail with a link to download the scans of this order; the link ` +
+            `works for ${lasting}.` +
+            (again ? ' Links sent before keep working until they expire.' : ' The order becomes Ready.'),
+          confirmLabel: again ? 'Send the link' : 'Mark ready and send',
+        },
+        autoFocus: 'first-tabbable',
+      })
+      .afterClosed()
+      .subscribe((confirmed) => {
+        if (!confirmed) return;
+        this.marking.set(true);
+        this.readinessApi.markReady(order.id).subscribe({
+          next: () => {
+            this.marking.set(false);
+            this.reloads.next();
+            this.snackBar.open(
+              `Order ${order.id} is ready; the e-mail to ${order.customerName} is on its way.`,
+              undefined,
+              { duration: 5000 },
+            );
+          },
+          error: (err: unknown) => {
+            this.marking.set(false);
+            this.reloads.next();
+            this.snackBar.open(readProblem(err).message, 'Close', { duration: 8000 });
+          },
+        });
+      });
+  }
+
+  protected refund(payment: Payment): void {
+    const order = this.order();
+    if (!order) return;
+    this.dialog
+      .open<RefundDialog, RefundDialogData, Payment>(RefundDialog, {
+        data: { payment, customerName: order.customerName },
+        autoFocus: 'first-tabbable',
+        width: '480px',
+      })
+      .afterClosed()
+      .subscribe((updated) => {
+        if (!updated) return;
+        this.payments.update((list) => list.map((p) => (p.id === updated.id ? updated : p)));
+        this.snackBar.open(
+          `${showMoney(updated.refundedMinor - payment.refundedMinor, updated.currency)} refunded to ${order.customerName}.`,
+          undefined,
+          { duration: 5000 },
+        );
+      });
   }
 
   protected addRoll(): void {
