@@ -3,12 +3,14 @@ import {
   ChangeDetectionStrategy,
   Component,
   DestroyRef,
+  InjectionToken,
   type ElementRef,
   computed,
   effect,
   inject,
   input,
   signal,
+  untracked,
   viewChild,
 } from '@angular/core';
 import { FormsModule } from '@angular/forms';
@@ -21,10 +23,30 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import type { Adjustments, Balance, ReviewDecision, RollTuning, TuningFrame } from '@clearbase/contracts';
 import { pickNeutral } from '@clearbase/inversion';
-import { concat, forkJoin, last, type Observable, type Subscription } from 'rxjs';
+import {
+  concat,
+  EMPTY,
+  expand,
+  forkJoin,
+  last,
+  switchMap,
+  take,
+  timer,
+  type Observable,
+  type Subscription,
+} from 'rxjs';
+import { outputFormatLabel } from '../orders/order-labels';
 import { readProblem } from '../problem/read-problem';
 import type { PreviewImage } from '../preview/preview-renderer';
 import { PreviewRenderer } from '../preview/preview-renderer';
+import {
+  actualPixelsPlacement,
+  clampOffset,
+  spotUnder,
+  type FrameSpot,
+  type ScreenPoint,
+} from './actual-pixels';
+import { stopsLabel } from './stops-label';
 import { densityHistogram, positiveHistogram, type Histogram } from './histograms';
 import { negativeRegion, withCorrection, type DraggedRectangle } from './neutral-pick';
 import { TuningApi, type WorkingNegative } from './tuning-api';
@@ -39,6 +61,28 @@ import {
 import { previewParams, previewProfile } from './tuning-preview';
 
 type ViewMode = 'split' | 'side-by-side' | 'toggle';
+
+/** The 1:1 view: the spot of the frame to show under a point of the stage (stage pixels from its top left). */
+interface ActualView {
+  spot: FrameSpot;
+  anchor: ScreenPoint;
+}
+
+/** A frame's full-size JPEG held as an object URL, with the render it came from. */
+interface FullSizeImage {
+  frameId: number;
+  renderedAt: string | null;
+  url: string;
+}
+
+/** Milliseconds between readings of the sheet while frames render again after a save; a test sets it short. */
+export const RENDER_POLL_MS = new InjectionToken<number>('render poll interval', {
+  providedIn: 'root',
+  // every 2 s: soon enough to see a frame come back, light on the server: our choice
+  factory: () => 2000,
+});
+// at most 90 readings, about 3 minutes at 2 s, a long roll's render: our choice
+const RENDER_POLL_LIMIT = 90;
 
 /** The three casts in the positive's terms (positive values: more red, green, blue). */
 const castAxes = [
@@ -55,6 +99,10 @@ export const tuningKeys: readonly { keys: string; does: string }[] = [
   { keys: 'N', does: 'Neutral picker: drag over an area that should be grey' },
   { keys: 'F', does: 'Draw the film base region' },
   { keys: '0', does: 'Fit the frame; + and − zoom' },
+  {
+    keys: '1',
+    does: 'Actual pixels (1:1) of the saved full-size render at the pointer; 1 or Esc again to fit',
+  },
   { keys: 'Ctrl Z / Ctrl Shift Z', does: 'Undo / redo' },
   { keys: 'A / X', does: 'Approve / exclude the frame' },
   { keys: 'S', does: 'Save and render again' },
@@ -100,9 +148,11 @@ export class RollWorkspacePage {
 
   private readonly api = inject(TuningApi);
   private readonly snack = inject(MatSnackBar);
+  private readonly pollMs = inject(RENDER_POLL_MS);
   protected readonly preview = inject(PreviewRenderer);
   protected readonly castAxes = castAxes;
   protected readonly keys = tuningKeys;
+  protected readonly stopsLabel = stopsLabel;
 
   protected readonly sheet = signal<RollTuning | null>(null);
   protected readonly problem = signal<string | null>(null);
@@ -126,11 +176,26 @@ export class RollWorkspacePage {
   protected readonly saving = signal(false);
   protected readonly note = signal('');
   protected readonly lastPick = signal<Balance | null>(null);
+  protected readonly saveProblem = signal<string | null>(null);
+  /** On while the stage shows the saved full-size render at one image pixel per screen pixel. */
+  protected readonly actual = signal<ActualView | null>(null);
+  protected readonly actualImage = signal<FullSizeImage | null>(null);
+  protected readonly actualLoading = signal(false);
+  protected readonly actualProblem = signal<string | null>(null);
+  protected readonly actualPlacement = signal<{
+    size: ScreenPoint;
+    offset: ScreenPoint;
+    pixels: ScreenPoint;
+  } | null>(null);
 
   private readonly stage = viewChild<ElementRef<HTMLElement>>('stage');
   private readonly beforeCanvas = viewChild<ElementRef<HTMLCanvasElement>>('beforeCanvas');
   private readonly afterCanvas = viewChild<ElementRef<HTMLCanvasElement>>('afterCanvas');
   private negativeLoad: Subscription | null = null;
+  private actualLoad: Subscription | null = null;
+  private renderPoll: Subscription | null = null;
+  /** The last pointer position over the stage, in client pixels; null when the pointer is elsewhere. */
+  private lastPointer: ScreenPoint | null = null;
 
   protected readonly frames = computed(() => this.sheet()?.frames ?? []);
   protected readonly frame = computed(() => this.frames().find((f) => f.id === this.frameId()) ?? null);
@@ -158,6 +223,41 @@ export class RollWorkspacePage {
   protected readonly positiveBars = computed<Histogram | null>(() => {
     const image = this.preview.after();
     return image ? positiveHistogram(image.rgba) : null;
+  });
+  /** Why the selected frame cannot be shown at 1:1, or null when its full-size JPEG output is there. */
+  protected readonly actualUnavailable = computed<string | null>(() => {
+    const f = this.frame();
+    if (!f) return null;
+    if (f.status !== 'done')
+      return `Frame ${f.index} is rendering; 1:1 shows its full-size output once it is done.`;
+    if (!f.outputs.includes('jpeg')) {
+      const made = f.outputs.map(outputFormatLabel).join(' and ');
+      return made
+        ? `1:1 needs a full-size JPEG output; this roll was rendered to ${made} only.`
+        : '1:1 needs a full-size JPEG output; this frame has none yet.';
+    }
+    return null;
+  });
+  /** The full-size image when it is the selected frame's. */
+  protected readonly actualShown = computed(() => {
+    const image = this.actualImage();
+    return image && image.frameId === this.frameId() ? image : null;
+  });
+  /** Size and place of the full-size image on the stage, CSS pixels. */
+  protected readonly actualBox = computed(() => {
+    const placed = this.actualPlacement();
+    return (
+      placed && {
+        width: placed.size.x,
+        height: placed.size.y,
+        transform: `translate(${placed.offset.x}px, ${placed.offset.y}px)`,
+      }
+    );
+  });
+  protected readonly actualCaption = computed(() => {
+    const placed = this.actualPlacement();
+    const size = placed ? `, ${placed.pixels.x}×${placed.pixels.y}` : '';
+    return `1:1 · the saved render${size}${this.unsaved() ? ' · unsaved changes show here once saved' : ''}`;
   });
   protected readonly baseBox = computed(() => {
     const f = this.frame();
@@ -193,7 +293,20 @@ export class RollWorkspacePage {
     });
     effect(() => this.draw(this.beforeCanvas()?.nativeElement, this.preview.before()));
     effect(() => this.draw(this.afterCanvas()?.nativeElement, this.preview.after()));
-    inject(DestroyRef).onDestroy(() => this.negativeLoad?.unsubscribe());
+    // in 1:1, the selected frame's full-size JPEG (again when the frame was rendered again)
+    effect(() => {
+      const on = this.actual() !== null;
+      const f = this.frame();
+      if (!on || !f || this.actualUnavailable()) return;
+      untracked(() => this.loadActual(f));
+    });
+    inject(DestroyRef).onDestroy(() => {
+      this.negativeLoad?.unsubscribe();
+      this.actualLoad?.unsubscribe();
+      this.renderPoll?.unsubscribe();
+      const image = this.actualImage();
+      if (image) URL.revokeObjectURL(image.url);
+    });
   }
 
   private takeSheet(sheet: RollTuning): void {
@@ -254,6 +367,11 @@ export class RollWorkspacePage {
     this.change({ exposureStops: Math.round(sixths) / 6 });
   }
 
+  /** Moves the black or the white point, in sixths of a stop. */
+  protected changePoint(point: 'blackPointStops' | 'whitePointStops', sixths: number): void {
+    this.change({ [point]: Math.round(sixths) / 6 });
+  }
+
   protected changeContrast(value: number | null): void {
     this.change({ contrast: value === null ? null : Math.round(value * 100) / 100 });
   }
@@ -301,6 +419,7 @@ export class RollWorkspacePage {
       if (JSON.stringify(a) !== JSON.stringify(saved.frames[Number(id)]))
         calls.push(this.api.saveFrame(Number(id), a));
     this.saving.set(true);
+    this.saveProblem.set(null);
     const render = this.api.invertPending(sheet.roll.id, this.rollLevels() ? 'roll' : 'frame');
     concat(calls.length ? forkJoin(calls) : concat(), render)
       .pipe(last())
@@ -312,16 +431,31 @@ export class RollWorkspacePage {
           this.refresh();
         },
         error: (err: unknown) => {
+          // what was edited stays in the history and stays unsaved: saving again sends it all again
           this.saving.set(false);
-          this.problem.set(readProblem(err).message);
+          this.saveProblem.set(readProblem(err).message);
         },
       });
   }
 
+  /** Reads the sheet again, and again every little while as long as frames are rendering (a bounded number of times). */
   private refresh(): void {
     const sheet = this.sheet();
     if (!sheet) return;
-    this.api.tuning(sheet.roll.id).subscribe((next) => this.sheet.set(next));
+    const read = () => this.api.tuning(sheet.roll.id);
+    const rendering = (s: RollTuning) =>
+      s.frames.some((f) => f.status === 'queued' || f.status === 'inverting');
+    this.renderPoll?.unsubscribe();
+    this.renderPoll = read()
+      .pipe(
+        expand((next) => (rendering(next) ? timer(this.pollMs).pipe(switchMap(read)) : EMPTY)),
+        take(RENDER_POLL_LIMIT),
+      )
+      .subscribe({
+        next: (next) => this.sheet.set(next),
+        // a missed reading is no loss: the next save or a reload reads the sheet again
+        error: () => undefined,
+      });
   }
 
   protected review(decision: ReviewDecision): void {
@@ -421,10 +555,16 @@ export class RollWorkspacePage {
 
   protected wheel(event: WheelEvent): void {
     event.preventDefault();
+    // in 1:1, scrolling out goes back to the fitted frame; scrolling in stays
+    if (this.actual()) {
+      if (event.deltaY > 0) this.setZoom(1);
+      return;
+    }
     this.setZoom(this.zoom() * (event.deltaY < 0 ? 1.25 : 0.8));
   }
 
   protected setZoom(z: number): void {
+    this.leaveActual();
     // 1/2× to 16× spans a whole-frame look to grain at 1:1 on a 1500 px negative: our choice
     this.zoom.set(Math.min(16, Math.max(0.5, z)));
     if (z <= 1) this.pan.set({ x: 0, y: 0 });
@@ -468,6 +608,7 @@ export class RollWorkspacePage {
       n: () => this.tool.update((t) => (t === 'pick' ? 'pan' : 'pick')),
       f: () => this.showBase.update((v) => !v),
       '0': () => this.setZoom(1),
+      '1': () => this.toggleActual(),
       '+': () => this.setZoom(this.zoom() * 1.25),
       '=': () => this.setZoom(this.zoom() * 1.25),
       '-': () => this.setZoom(this.zoom() * 0.8),
@@ -475,13 +616,126 @@ export class RollWorkspacePage {
       x: () => this.review('excluded'),
       s: () => this.save(),
       '?': () => this.helpOpen.update((v) => !v),
-      Escape: () => this.helpOpen.set(false),
+      Escape: () => (this.helpOpen() ? this.helpOpen.set(false) : this.leaveActual()),
     };
     const run = actions[key.length === 1 ? key.toLowerCase() : key] ?? actions[key];
     if (run) {
       event.preventDefault();
       run();
     }
+  }
+
+  // --- 1:1: the saved full-size render at one image pixel per screen pixel
+
+  protected stagePointer(event: PointerEvent): void {
+    this.lastPointer = { x: event.clientX, y: event.clientY };
+  }
+
+  protected stageLeft(): void {
+    this.lastPointer = null;
+  }
+
+  /** 1:1 at the spot under the pointer (or under the stage's centre), or back to the fitted frame. */
+  protected toggleActual(): void {
+    if (this.actual()) {
+      this.leaveActual();
+      return;
+    }
+    const stage = this.stage()?.nativeElement;
+    if (!stage) return;
+    const box = stage.getBoundingClientRect();
+    const inside = (p: ScreenPoint | null, r: DOMRect) =>
+      p !== null && p.x >= r.left && p.x <= r.right && p.y >= r.top && p.y <= r.bottom;
+    const pointer = inside(this.lastPointer, box) ? this.lastPointer : null;
+    const at = pointer ?? { x: box.left + box.width / 2, y: box.top + box.height / 2 };
+    const drawn = [this.afterCanvas(), this.beforeCanvas()]
+      .map((c) => c?.nativeElement.getBoundingClientRect())
+      .filter((r): r is DOMRect => !!r && r.width > 0 && r.height > 0);
+    const under = drawn.find((r) => inside(at, r)) ?? drawn[0] ?? null;
+    this.actualProblem.set(null);
+    this.actualPlacement.set(null);
+    this.actual.set({
+      spot: spotUnder(at, under),
+      anchor: { x: at.x - box.left, y: at.y - box.top },
+    });
+  }
+
+  protected leaveActual(): void {
+    this.actual.set(null);
+    this.actualPlacement.set(null);
+    this.actualPanFrom = null;
+  }
+
+  private loadActual(frame: TuningFrame): void {
+    const have = this.actualImage();
+    if (have && have.frameId === frame.id && have.renderedAt === frame.renderedAt) return;
+    this.actualLoad?.unsubscribe();
+    this.actualLoading.set(true);
+    this.actualProblem.set(null);
+    this.actualLoad = this.api.fullSizeJpeg(frame.id).subscribe({
+      next: (blob) => {
+        this.actualLoading.set(false);
+        const old = this.actualImage();
+        if (old) URL.revokeObjectURL(old.url);
+        this.actualPlacement.set(null);
+        this.actualImage.set({
+          frameId: frame.id,
+          renderedAt: frame.renderedAt,
+          url: URL.createObjectURL(blob),
+        });
+      },
+      error: (err: unknown) => {
+        this.actualLoading.set(false);
+        this.actualProblem.set(readProblem(err).message);
+      },
+    });
+  }
+
+  /** Places the full-size image once its pixels are known: the chosen spot under the pointer or the centre. */
+  protected actualLoaded(image: HTMLImageElement): void {
+    const view = this.actual();
+    const stage = this.stage()?.nativeElement;
+    if (!view || !stage || !image.naturalWidth) return;
+    const pixels = { x: image.naturalWidth, y: image.naturalHeight };
+    const viewport = { x: stage.clientWidth, y: stage.clientHeight };
+    const ratio = globalThis.devicePixelRatio || 1;
+    this.actualPlacement.set({
+      ...actualPixelsPlacement(view.spot, view.anchor, pixels, viewport, ratio),
+      pixels,
+    });
+  }
+
+  private actualPanFrom: { x: number; y: number; ox: number; oy: number } | null = null;
+
+  protected actualDown(event: PointerEvent): void {
+    const placed = this.actualPlacement();
+    if (!placed) return;
+    (event.target as Element).setPointerCapture?.(event.pointerId);
+    this.actualPanFrom = { x: event.clientX, y: event.clientY, ox: placed.offset.x, oy: placed.offset.y };
+  }
+
+  protected actualMove(event: PointerEvent): void {
+    const from = this.actualPanFrom;
+    const placed = this.actualPlacement();
+    const stage = this.stage()?.nativeElement;
+    if (!from || !placed || !stage) return;
+    const viewport = { x: stage.clientWidth, y: stage.clientHeight };
+    const offset = clampOffset(
+      { x: from.ox + event.clientX - from.x, y: from.oy + event.clientY - from.y },
+      placed.size,
+      viewport,
+    );
+    this.actualPlacement.set({ ...placed, offset });
+    // the next frame opens at the same spot, under the centre
+    const anchor = { x: viewport.x / 2, y: viewport.y / 2 };
+    this.actual.set({
+      anchor,
+      spot: { fx: (anchor.x - offset.x) / placed.size.x, fy: (anchor.y - offset.y) / placed.size.y },
+    });
+  }
+
+  protected actualUp(): void {
+    this.actualPanFrom = null;
   }
 
   protected thumbnail(frame: TuningFrame): string {
@@ -497,8 +751,10 @@ export class RollWorkspacePage {
     if (b.cyanRed) parts.push(`CR ${b.cyanRed > 0 ? '+' : ''}${b.cyanRed}`);
     if (b.magentaGreen) parts.push(`MG ${b.magentaGreen > 0 ? '+' : ''}${b.magentaGreen}`);
     if (b.yellowBlue) parts.push(`YB ${b.yellowBlue > 0 ? '+' : ''}${b.yellowBlue}`);
-    if (a.exposureStops) parts.push(`${a.exposureStops > 0 ? '+' : ''}${a.exposureStops.toFixed(2)} st`);
+    if (a.exposureStops) parts.push(stopsLabel(a.exposureStops));
     if (a.contrast !== null) parts.push(`γ× ${a.contrast}`);
+    if (a.blackPointStops) parts.push(`black ${stopsLabel(a.blackPointStops)}`);
+    if (a.whitePointStops) parts.push(`white ${stopsLabel(a.whitePointStops)}`);
     return parts.join(' · ');
   }
 

@@ -85,6 +85,18 @@ export class TuningApi {
     return this.http.post<Job>(`/api/rolls/${rollId}/invert`, { frames: 'pending', levels });
   }
 
+  /**
+   * A frame's full-size JPEG output, as it is now: the output keeps its address when the frame renders again, so the
+   * browser is told to ask the server rather than its cache.
+   */
+  fullSizeJpeg(frameId: number): Observable<Blob> {
+    return this.http.get(`/api/frames/${frameId}/output`, {
+      params: { format: 'jpeg' },
+      headers: { 'Cache-Control': 'no-cache' },
+      responseType: 'blob',
+    });
+  }
+
   review(frameId: number, request: FrameReviewRequest): Observable<FrameReviewResult> {
     return this.http.post<FrameReviewResult>(`/api/frames/${frameId}/qc`, request);
   }
