@@ -114,3 +114,18 @@ export function negativesLabel(negatives: NegativesReturn): string {
     ? `Posted back to ${postalAddressLine(negatives.address)}`
     : 'Kept at the lab to be collected';
 }
+
+/**
+ * Frame formats offered as suggestions when ordering; any other format can be typed. 135 in 36, 24 and 12
+ * exposures, 120, 220, 127 and 110 roll film, 4×5 in sheets: common practice of the trade, from memory.
+ */
+export const commonFrameFormats: readonly string[] = [
+  '135-36',
+  '135-24',
+  '135-12',
+  '120',
+  '220',
+  '127',
+  '110',
+  '4x5 sheet',
+];

@@ -1,15 +1,18 @@
 import { HttpClient, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import type {
+  CreateOrderRequest,
   CreateRollRequest,
   Order,
+  OrderCustomer,
+  OrderCustomerListResponse,
   OrderDetail,
   OrderListResponse,
   OrderStatus,
   Roll,
   UpdateOrderStatusRequest,
 } from '@clearbase/contracts';
-import type { Observable } from 'rxjs';
+import { map, type Observable } from 'rxjs';
 
 // 500 is the most the server lists at once (orderQuerySchema); a lab's open orders fit in it.
 const pageSize = 500;
@@ -24,6 +27,16 @@ export class OrdersApi {
     let params = new HttpParams().set('limit', pageSize);
     if (status) params = params.set('status', status);
     return this.http.get<OrderListResponse>('/api/orders', { params });
+  }
+
+  /** Places an order with its rolls in one request: the server keeps all of it or none. */
+  place(request: CreateOrderRequest): Observable<Order> {
+    return this.http.post<Order>('/api/orders', request);
+  }
+
+  /** Staff: the customers an order may be placed for. */
+  customers(): Observable<OrderCustomer[]> {
+    return this.http.get<OrderCustomerListResponse>('/api/orders/customers').pipe(map((r) => r.customers));
   }
 
   order(id: number): Observable<OrderDetail> {

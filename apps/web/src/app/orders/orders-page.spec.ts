@@ -69,6 +69,15 @@ describe('OrdersPage', () => {
     expect(root.querySelector('[data-testid="order-row-5"]')!.textContent).toContain('TIFF (16-bit)');
   });
 
+  it('offers customers and staff alike a new order', async () => {
+    for (const role of ['customer', 'operator'] as const) {
+      const { root } = await render(role);
+      const link = root.querySelector('[data-testid="orders-new"]') as HTMLAnchorElement;
+      expect(link.getAttribute('href')).toBe('/orders/new');
+      TestBed.resetTestingModule();
+    }
+  });
+
   it('asks the server for one status when the filter is set', async () => {
     const { fixture, backend } = await render('manager');
     (fixture.componentInstance as unknown as { status: { set(v: string): void } }).status.set('received');

@@ -9,6 +9,7 @@ import {
   type Signal,
 } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButton } from '@angular/material/button';
 import { MatFormField, MatLabel, MatPrefix } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
@@ -56,6 +57,7 @@ interface OrdersView {
   imports: [
     DatePipe,
     RouterLink,
+    MatButton,
     MatTable,
     MatColumnDef,
     MatHeaderCell,

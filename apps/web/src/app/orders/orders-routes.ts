@@ -9,6 +9,11 @@ export const ordersRoutes: Routes = [
     loadComponent: () => import('./orders-page').then((m) => m.OrdersPage),
   },
   {
+    path: 'new',
+    title: 'New order · Clearbase',
+    loadComponent: () => import('./new-order-page').then((m) => m.NewOrderPage),
+  },
+  {
     path: ':id',
     title: 'Order · Clearbase',
     loadComponent: () => import('./order-page').then((m) => m.OrderPage),
