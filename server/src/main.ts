@@ -14,6 +14,7 @@ import { closeRollStreams } from './jobs/roll-events';
 import { createLogger } from './logging/create-logger';
 import { mailServices } from './mail/mail-services';
 import { paymentFakeServices } from './payment-fake/payment-fake-service';
+import { signupCleanupService } from './signup/signup-cleanup';
 
 // hourly: expired sessions are refused on read anyway; pruning only keeps the table small (our choice)
 const sessionPruneIntervalMs = 3600_000;
@@ -61,6 +62,9 @@ const services: BackgroundService[] = [
 ];
 services.push(...mailServices(config, { db, clock: systemClock, logger }));
 services.push(...paymentFakeServices(config, logger));
+services.push(
+  signupCleanupService({ db, clock: systemClock, logger, intervalMs: config.signupCleanupIntervalMs }),
+);
 // started before listening, so its sweep of unfinished temp files never meets an upload; stopped first, it drains
 services.push(createJobRunner({ db, config, clock: systemClock, logger }));
 

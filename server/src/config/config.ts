@@ -52,6 +52,8 @@ const envSchema = z.object({
   SIGNUP_RATE_LIMIT_WINDOW_MINUTES: intFromEnv(1, 24 * 60).default(60),
   // a week (168 h) gives a customer time to fetch a large order; at most 90 days, so old links die (our choice)
   DOWNLOAD_LINK_HOURS: intFromEnv(1, 24 * 90).default(168),
+  // hourly: abandoned sign-ups and spent links only take room, nothing reads them (our choice)
+  SIGNUP_CLEANUP_INTERVAL_MINUTES: intFromEnv(1, 7 * 24 * 60).default(60),
 });
 
 /** The server's settings, validated from the environment once at start-up. */
@@ -82,6 +84,8 @@ export interface Config {
   signupRateLimit: { max: number; windowMs: number };
   /** How long a mailed or handed-out download link works. */
   downloadLinkHours: number;
+  /** How often unconfirmed sign-ups and spent password links are removed. */
+  signupCleanupIntervalMs: number;
 }
 
 /** Where the outbox hands mail over. With local fakes, port 0 means "the port the catcher got". */
@@ -193,6 +197,7 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
       windowMs: e.SIGNUP_RATE_LIMIT_WINDOW_MINUTES * 60_000,
     },
     downloadLinkHours: e.DOWNLOAD_LINK_HOURS,
+    signupCleanupIntervalMs: e.SIGNUP_CLEANUP_INTERVAL_MINUTES * 60_000,
   };
 }
 

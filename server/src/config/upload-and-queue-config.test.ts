@@ -44,3 +44,15 @@ describe('the download link validity', () => {
     expect(() => loadConfig({ DATA_DIR: dir, DOWNLOAD_LINK_HOURS: '1.5' })).toThrow(ConfigError);
   });
 });
+
+describe('the sign-up clean-up interval', () => {
+  it('is an hour by default and is set in minutes by SIGNUP_CLEANUP_INTERVAL_MINUTES', () => {
+    expect(loadConfig({ DATA_DIR: dir }).signupCleanupIntervalMs).toBe(3600_000);
+    expect(loadConfig({ DATA_DIR: dir, SIGNUP_CLEANUP_INTERVAL_MINUTES: '5' }).signupCleanupIntervalMs).toBe(
+      300_000,
+    );
+    expect(() => loadConfig({ DATA_DIR: dir, SIGNUP_CLEANUP_INTERVAL_MINUTES: '0' })).toThrow(
+      /SIGNUP_CLEANUP_INTERVAL_MINUTES/,
+    );
+  });
+});
