@@ -1,8 +1,8 @@
 import { staffRoles } from '@clearbase/contracts';
-import { endianness } from 'node:os';
 import { z } from 'zod';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
+import { sendRawPixels } from '../http/send-raw-pixels';
 import { findStockById } from '../stocks/stock-repository';
 import { createReferenceNegativeCache, REFERENCE_SIZE } from './demo-reference-frames';
 import { generateReferenceNegative } from './generate-reference-negative';
@@ -44,20 +44,16 @@ export const referenceFrameRoutes: RouteModule = (api, { db }) => {
       const stock = profile && (await findStockById(db, profile.stock_id));
       if (!stock) throw new AppError('stock-not-found', 404, `The stock of version ${params.id} is gone.`);
       const negative = await referenceFor(stock);
-      const body = Buffer.from(negative.data.buffer, negative.data.byteOffset, negative.data.byteLength);
-      // the pixels are promised little-endian; a big-endian host swaps a copy
-      const wire = endianness() === 'LE' ? body : Buffer.from(body).swap16();
-      res
-        .status(200)
-        .set({
-          'Content-Type': 'application/octet-stream',
-          'Cache-Control': 'private, max-age=3600',
+      sendRawPixels(res, {
+        pixels: negative.data,
+        cacheControl: 'private, max-age=3600',
+        headers: {
           [referenceNegativeHeaders.width]: String(negative.width),
           [referenceNegativeHeaders.height]: String(negative.height),
           [referenceNegativeHeaders.base]: negative.base.map((b) => b.toPrecision(9)).join(','),
           [referenceNegativeHeaders.encoding]: negative.scanner.encoding,
-        })
-        .end(wire);
+        },
+      });
     },
   );
 };

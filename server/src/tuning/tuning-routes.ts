@@ -19,6 +19,7 @@ import { frameSourceFile } from '../frames/frame-negative';
 import { findFrameById, listFramesOfRoll, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
 import { loadFrameFor } from '../frames/frames-routes';
 import type { RouteModule } from '../http/route-module';
+import { sendRawPixels } from '../http/send-raw-pixels';
 import { readNegative } from '../imaging/index';
 import { chooseBase } from '../jobs/job-runner';
 import { findOrderById, setOrderStatus } from '../orders/order-repository';
@@ -165,19 +166,18 @@ export const tuningRoutes: RouteModule = (api, { db, config, clock }) => {
         scanner,
         base: chosen.base.rgb,
       });
-      res
-        .status(200)
-        .set({
-          'Content-Type': 'application/octet-stream',
-          'Cache-Control': 'private, no-cache',
+      sendRawPixels(res, {
+        pixels: working.pixels,
+        cacheControl: 'private, no-cache',
+        headers: {
           [workingNegativeHeaders.width]: String(working.width),
           [workingNegativeHeaders.height]: String(working.height),
           [workingNegativeHeaders.base]: chosen.base.rgb.map((b) => b.toPrecision(9)).join(','),
           [workingNegativeHeaders.baseSource]: chosen.source,
           [workingNegativeHeaders.scanSize]: `${working.scanWidth}x${working.scanHeight}`,
           [workingNegativeHeaders.levels]: JSON.stringify(levels),
-        })
-        .end(working.pixels);
+        },
+      });
     },
   );
 

@@ -3,6 +3,7 @@ import { createHash } from 'node:crypto';
 import { open, readFile, unlink } from 'node:fs/promises';
 import { endianness } from 'node:os';
 import type { FileStore } from '../files/file-store';
+import { littleEndianBytes } from '../http/send-raw-pixels';
 import { readNegative } from '../imaging/index';
 import { makeWorkingNegativeOffThread } from './working-negative-worker';
 
@@ -62,12 +63,6 @@ export function workingNegativeKey(sourceSha256: string, longEdge: number): stri
 
 const littleEndian = endianness() === 'LE';
 
-/** The bytes of 16-bit samples, little-endian (a big-endian host swaps a copy). */
-function leBytes(data: Uint16Array): Buffer {
-  const bytes = Buffer.from(data.buffer, data.byteOffset, data.byteLength);
-  return littleEndian ? bytes : Buffer.from(bytes).swap16();
-}
-
 /** One file: a 4-byte length, the JSON header, padding to ALIGN, the working pixels, the sample's pixels. */
 export function encodeWorkingNegative(
   working: RgbImage,
@@ -87,7 +82,7 @@ export function encodeWorkingNegative(
   const length = Buffer.alloc(4);
   length.writeUInt32LE(json.length);
   const pad = Buffer.alloc((ALIGN - ((4 + json.length) % ALIGN)) % ALIGN);
-  return Buffer.concat([length, json, pad, leBytes(working.data), leBytes(sample.data)]);
+  return Buffer.concat([length, json, pad, littleEndianBytes(working.data), littleEndianBytes(sample.data)]);
 }
 
 /** Reads a stored working negative back; null when the bytes are not one (cut short, or another layout). */
