@@ -237,6 +237,18 @@ describe('accounts opened at the counter', () => {
   it('is for staff only', async () => {
     const customer = await signedIn(t.app, 'known@example.test');
     expect((await customer.post('/api/customers', { email: 'x@example.test', name: 'X' })).status).toBe(403);
+    expect((await customer.get('/api/customers')).status).toBe(403);
+  });
+
+  it('lists every customer account for staff, by name, and no staff', async () => {
+    const operator = await signedIn(t.app, 'operator@lab.test');
+    await operator.post('/api/customers', { email: 'aaron@example.test', name: 'Aaron Quill' }).expect(201);
+    const res = await operator.get('/api/customers').expect(200);
+    const names = res.body.customers.map((c: { name: string }) => c.name);
+    expect(names).toContain('Aaron Quill');
+    expect(names).toEqual([...names].sort());
+    expect(res.body.customers.every((c: { role: string }) => c.role === 'customer')).toBe(true);
+    expect(res.body.customers[0]).not.toHaveProperty('passwordHash');
   });
 });
 

@@ -322,6 +322,25 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
 
   api.define(
     {
+      method: 'get',
+      path: '/api/customers',
+      roles: staffRoles,
+      summary: 'Every customer account, by name, for staff at the counter',
+    },
+    async (_req, res) => {
+      const rows = await db
+        .selectFrom('users')
+        .selectAll()
+        .where('role', '=', 'customer')
+        .orderBy('name')
+        .orderBy('email')
+        .execute();
+      res.json({ customers: rows.map(toUserRecord) });
+    },
+  );
+
+  api.define(
+    {
       method: 'post',
       path: '/api/customers',
       roles: staffRoles,

@@ -42,3 +42,7 @@ export type CounterCustomerRequest = z.infer<typeof counterCustomerRequestSchema
 
 export const counterCustomerResponseSchema = z.object({ user: userRecordSchema });
 export type CounterCustomerResponse = z.infer<typeof counterCustomerResponseSchema>;
+
+/** GET /api/customers: every customer account, by name, for staff at the counter. */
+export const customerListResponseSchema = z.object({ customers: z.array(userRecordSchema) });
+export type CustomerListResponse = z.infer<typeof customerListResponseSchema>;
