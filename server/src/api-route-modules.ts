@@ -1,5 +1,6 @@
 import { auditRoutes } from './audit/audit-routes';
 import { calibrationsRoutes } from './calibrations/calibrations-routes';
+import { clientConfigRoutes } from './config/client-config-routes';
 import { devMailboxRoutes } from './dev-mailbox/dev-mailbox-routes';
 import { downloadsRoutes } from './downloads/downloads-routes';
 import { markReadyRoutes } from './downloads/mark-ready-routes';
@@ -30,6 +31,7 @@ import { usersRoutes } from './users/users-routes';
  */
 export const apiRouteModules: readonly RouteModule[] = [
   healthRoutes,
+  clientConfigRoutes,
   labRoutes,
   usersRoutes,
   auditRoutes,

@@ -3,6 +3,7 @@ export * from './auth/user';
 export * from './auth/audit-entry';
 export * from './problem/problem';
 export * from './lab/lab';
+export * from './lab/client-config';
 export * from './profile/profile-document';
 export * from './stocks/stock';
 export * from './profiles/profile';
