@@ -46,34 +46,61 @@ const f = (v: number | null | undefined, digits = 2) =>
   v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(digits);
 const signed = (v: number, digits = 1) => `${v > 0 ? '+' : ''}${v.toFixed(digits)}`;
 
+/** Lowest y a line of text or a drawing may reach: the bottom margin. */
+const BOTTOM = PAGE.height - MARGIN;
+
+/**
+ * Where the next block goes, top-down from the top margin. A block that would run past the bottom margin starts a
+ * new page instead, with its section's heading repeated ("… continued"), so nothing is drawn below the margin.
+ */
+class Flow {
+  y = MARGIN;
+  constructor(private readonly doc: Doc) {}
+
+  /** Makes room for a block `height` points tall, starting a new page when it would not fit on this one. */
+  room(height: number, continued?: () => void): void {
+    if (this.y + height <= BOTTOM) return;
+    this.doc.addPage();
+    this.y = MARGIN;
+    continued?.();
+  }
+
+  /** A single line of `size` points, `advance` points to the next. */
+  line(text: string, size = 9, bold = false, advance = 14): void {
+    this.room(Math.max(size, advance));
+    line(this.doc, text, MARGIN, this.y, size, bold);
+    this.y += advance;
+  }
+
+  /** A section heading, kept on the page of the `following` points after it. */
+  heading(text: string, following = 14): void {
+    this.room(18 + following);
+    line(this.doc, text, MARGIN, this.y, 12, true);
+    this.y += 18;
+  }
+}
+
+/** Height of a wrapped paragraph as `paragraph` sets it. */
+function paragraphHeight(doc: Doc, text: string, width: number, size = 9): number {
+  const plain = text.replace(/γ/g, 'gamma').replace(/Δ/g, 'delta ');
+  return doc.font('Helvetica').fontSize(size).heightOfString(plain, { width });
+}
+
 function summaryPage(doc: Doc, c: Calibration): void {
   const fit = c.fit;
-  let y = MARGIN;
-  line(doc, `Calibration ${c.id}: ${c.stockName}`, MARGIN, y, 18, true);
-  y += 28;
-  line(
-    doc,
+  const flow = new Flow(doc);
+  flow.line(`Calibration ${c.id}: ${c.stockName}`, 18, true, 28);
+  flow.line(
     `Made ${c.createdAt.replace('T', ' ').slice(0, 16)} UTC${c.createdByName ? ` by ${c.createdByName}` : ''}; draft profile version ${c.profileVersionId ?? '–'}`,
-    MARGIN,
-    y,
-    9,
   );
-  y += 14;
   const bracket = c.inputs.frames.filter((fr) => fr.role === 'bracket');
-  line(
-    doc,
+  flow.line(
     `${bracket.length} grey frames (${fit.usedFrames.length} used), chart frame, ${fit.base.source === 'leader' ? 'base from the leader' : 'base found on the frames'}`,
-    MARGIN,
-    y,
     9,
+    false,
+    28,
   );
-  y += 28;
 
-  line(doc, 'Characteristic curves', MARGIN, y, 12, true);
-  y += 18;
-  const cols = [MARGIN, MARGIN + 130, MARGIN + 230, MARGIN + 330];
-  ['', 'red', 'green', 'blue'].forEach((h, i) => line(doc, h, cols[i]!, y, 9, true));
-  y += 14;
   const rows: [string, (ch: (typeof CHANNELS)[number], i: number) => string][] = [
     ['γ (straight part)', (ch) => f(fit.curves[ch].gamma, 3)],
     [
@@ -86,81 +113,58 @@ function summaryPage(doc: Doc, c: Calibration): void {
     ],
     ['speed point, log E', (_ch, i) => f(fit.speedPoint.channels[i], 3)],
   ];
+  // the table is one block: heading, column heads and its rows stay together
+  flow.heading('Characteristic curves', 14 * (rows.length + 1));
+  const cols = [MARGIN, MARGIN + 130, MARGIN + 230, MARGIN + 330];
+  ['', 'red', 'green', 'blue'].forEach((h, i) => line(doc, h, cols[i]!, flow.y, 9, true));
+  flow.y += 14;
   for (const [label, value] of rows) {
-    line(doc, label, cols[0]!, y, 9);
-    CHANNELS.forEach((ch, i) => line(doc, value(ch, i), cols[i + 1]!, y, 9));
-    y += 14;
+    line(doc, label, cols[0]!, flow.y, 9);
+    CHANNELS.forEach((ch, i) => line(doc, value(ch, i), cols[i + 1]!, flow.y, 9));
+    flow.y += 14;
   }
-  y += 10;
-  line(
-    doc,
+  flow.y += 10;
+  flow.line(
     `Speed point (ISO 5800, 0.15 above base; green with the slower of red and blue): ${f(fit.speedPoint.logExposure, 3)} log E from the metered grey`,
-    MARGIN,
-    y,
-    9,
   );
-  y += 14;
-  line(
-    doc,
+  flow.line(
     `EI ${Math.round(fit.ei)} (box ISO ${fit.iso}; ${signed(-fit.speedPoint.offsetStops, 2)} stops)`,
-    MARGIN,
-    y,
     11,
     true,
+    24,
   );
-  y += 24;
 
-  line(doc, 'Neutral balance across the bracket', MARGIN, y, 12, true);
-  y += 18;
+  flow.heading('Neutral balance across the bracket', 14 * 4);
   const axes = [
     ['cyan–red', 'cyanRed'],
     ['magenta–green', 'magentaGreen'],
     ['yellow–blue', 'yellowBlue'],
   ] as const;
-  for (const [name, key] of axes) {
-    line(
-      doc,
+  for (const [name, key] of axes)
+    flow.line(
       `${name}: range ${f(fit.spread.range[key], 1)} points, SD ${f(fit.spread.standardDeviation[key], 1)}, mean ${signed(fit.balance.mean[key])}`,
-      MARGIN,
-      y,
-      9,
     );
-    y += 14;
-  }
-  line(doc, `Largest spread: ${f(fit.spread.largestRange, 1)} printer points`, MARGIN, y, 9, true);
-  y += 24;
+  flow.line(`Largest spread: ${f(fit.spread.largestRange, 1)} printer points`, 9, true, 24);
 
-  line(doc, 'Crosstalk matrix and chart', MARGIN, y, 12, true);
-  y += 18;
-  for (const row of fit.crosstalk) {
-    line(doc, row.map((v) => v.toFixed(4).padStart(8)).join('   '), MARGIN, y, 9);
-    y += 13;
-  }
-  y += 6;
-  line(
-    doc,
+  flow.heading('Crosstalk matrix and chart', 13 * 3);
+  for (const row of fit.crosstalk)
+    flow.line(row.map((v) => v.toFixed(4).padStart(8)).join('   '), 9, false, 13);
+  flow.y += 6;
+  flow.line(
     `Chart ΔE00 (in gamut): before the matrix mean ${f(fit.deltaE.before.mean)} max ${f(fit.deltaE.before.max)}; after mean ${f(fit.deltaE.after.mean)} max ${f(fit.deltaE.after.max)}`,
-    MARGIN,
-    y,
-    9,
   );
-  y += 14;
-  line(doc, `Chart exposure from its neutral row: ${signed(fit.chartExposureStops, 2)} stops`, MARGIN, y, 9);
-  y += 24;
+  flow.line(`Chart exposure from its neutral row: ${signed(fit.chartExposureStops, 2)} stops`, 9, false, 24);
 
-  line(doc, `Warnings (${c.warnings.length})`, MARGIN, y, 12, true);
-  y += 18;
-  if (!c.warnings.length) line(doc, 'None.', MARGIN, y, 9);
-  for (const w of c.warnings) {
-    if (y > PAGE.height - MARGIN - 30) break;
-    y =
-      paragraph(
-        doc,
-        `${w.severity === 'warning' ? 'Warning' : 'Note'}: ${w.message}`,
-        MARGIN,
-        y,
-        PAGE.width - 2 * MARGIN,
-      ) + 4;
+  const width = PAGE.width - 2 * MARGIN;
+  const texts = c.warnings.map((w) => `${w.severity === 'warning' ? 'Warning' : 'Note'}: ${w.message}`);
+  flow.heading(`Warnings (${c.warnings.length})`, texts.length ? paragraphHeight(doc, texts[0]!, width) : 14);
+  if (!texts.length) flow.line('None.');
+  for (const text of texts) {
+    flow.room(paragraphHeight(doc, text, width), () => {
+      line(doc, `Warnings (${c.warnings.length}), continued`, MARGIN, flow.y, 12, true);
+      flow.y += 18;
+    });
+    flow.y = paragraph(doc, text, MARGIN, flow.y, width) + 4;
   }
 }
 
@@ -252,7 +256,6 @@ function curvesPage(doc: Doc, c: Calibration): void {
 }
 
 function deltaEPage(doc: Doc, c: Calibration): void {
-  line(doc, 'Chart patches: ΔE00 in reference rendering', MARGIN, MARGIN, 14, true);
   const cols = {
     n: MARGIN,
     name: MARGIN + 24,
@@ -262,16 +265,23 @@ function deltaEPage(doc: Doc, c: Calibration): void {
     after: MARGIN + 350,
     note: MARGIN + 420,
   };
-  let y = MARGIN + 30;
-  line(doc, '#', cols.n, y, 8, true);
-  line(doc, 'patch', cols.name, y, 8, true);
-  line(doc, 'reference', cols.ref - 4, y, 8, true);
-  line(doc, 'result', cols.res + 4, y, 8, true);
-  line(doc, 'ΔE00 before', cols.before, y, 8, true);
-  line(doc, 'ΔE00 after', cols.after, y, 8, true);
-  y += 14;
+  const flow = new Flow(doc);
+  const head = (title: string) => {
+    line(doc, title, MARGIN, flow.y, 14, true);
+    flow.y += 30;
+    line(doc, '#', cols.n, flow.y, 8, true);
+    line(doc, 'patch', cols.name, flow.y, 8, true);
+    line(doc, 'reference', cols.ref - 4, flow.y, 8, true);
+    line(doc, 'result', cols.res + 4, flow.y, 8, true);
+    line(doc, 'ΔE00 before', cols.before, flow.y, 8, true);
+    line(doc, 'ΔE00 after', cols.after, flow.y, 8, true);
+    flow.y += 14;
+  };
+  head('Chart patches: ΔE00 in reference rendering');
   const row = 25;
   for (const p of c.fit.deltaE.patches) {
+    flow.room(row, () => head('Chart patches: ΔE00 in reference rendering, continued'));
+    const y = flow.y;
     doc.fillColor('#000000');
     line(doc, String(p.index), cols.n, y + 7, 9);
     line(doc, p.name, cols.name, y + 7, 9);
@@ -294,24 +304,22 @@ function deltaEPage(doc: Doc, c: Calibration): void {
       y + 7,
       7,
     );
-    y += row;
+    flow.y += row;
   }
-  y += 8;
-  line(
-    doc,
+  flow.y += 8;
+  flow.line(
     `Mean over in-gamut patches: before ${f(c.fit.deltaE.before.mean)}, after ${f(c.fit.deltaE.after.mean)}; max after ${f(c.fit.deltaE.after.max)}`,
-    MARGIN,
-    y,
     9,
     true,
   );
 }
 
 /**
- * Writes a calibration's report as a three-page A4 PDF to `out` (an HTTP response or a file stream): page 1 the
- * fitted values (γ, speed point and EI, neutral spread, crosstalk, warnings), page 2 the three characteristic curves
- * with their fitted lines as vector plots, page 3 the per-patch ΔE00 table with reference and result swatches side
- * by side. Resolves when the document has been written out.
+ * Writes a calibration's report as an A4 PDF to `out` (an HTTP response or a file stream): first the fitted values
+ * (γ, speed point and EI, neutral spread, crosstalk, warnings), then a page of the three characteristic curves with
+ * their fitted lines as vector plots, then the per-patch ΔE00 table with reference and result swatches side by
+ * side: three pages, more when a long list of warnings or the table runs on (each continued page says so). Nothing
+ * is drawn below the bottom margin. Resolves when the document has been written out.
  *
  * @example
  * res.type('application/pdf');
