@@ -11,6 +11,7 @@ import {
   demoTrialFilm,
   demoTrialStock,
 } from './demo-calibration-seed';
+import { demoCalibrationLayout } from './demo-calibration-layout';
 import { seedDemo } from './seed';
 
 let t: TestApp;
@@ -103,7 +104,15 @@ describe('demo calibration roll', () => {
 
   it('fits, marked by its known layout, into a draft whose γ is the trial film’s', async () => {
     const [roll] = await listCalibrationRollsOnFile(t.db);
-    const { layout } = demoCalibrationRoll();
+    const made = demoCalibrationRoll();
+    // the layout browser tests click by is where the generated roll's marks are
+    expect(demoCalibrationLayout).toEqual({
+      greyRegion: made.greyRegion,
+      chartCorners: made.chartCorners,
+      chart: { width: made.chart.width, height: made.chart.height },
+      grey: { width: made.brackets[0]!.negative.width, height: made.brackets[0]!.negative.height },
+    });
+    const layout = demoCalibrationLayout;
     const [x, y, width, height] = layout.greyRegion;
     let req = operator.send('post', '/api/calibrations').field(
       'calibration',
@@ -133,6 +142,10 @@ describe('demo calibration roll', () => {
     );
     expect(res.body.fit.deltaE.patches).toHaveLength(24);
     expect(res.body.profileVersionId).toBeGreaterThan(0);
+    // the bracket stops at three under, above the speed point's density: the report has a warning to show
+    expect((res.body.warnings as { code: string }[]).map((w) => w.code)).toContain(
+      'speed-point-extrapolated',
+    );
   }, 120_000);
 
   it('adds nothing when the step runs again', async () => {

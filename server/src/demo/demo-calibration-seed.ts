@@ -3,8 +3,6 @@ import {
   calibrationRoll,
   LINEAR_SCANNER,
   type FilmStock,
-  type Point,
-  type Region,
   type SyntheticNegative,
 } from '@clearbase/inversion';
 import { sql, type Kysely } from 'kysely';
@@ -18,6 +16,7 @@ import type { Database } from '../db/database';
 import { recordFile } from '../files/file-repository';
 import { createFileStore } from '../files/file-store';
 import { findStockByName, insertStock } from '../stocks/stock-repository';
+import { demoCalibrationFrame } from './demo-calibration-layout';
 import type { SeedStep } from './seed';
 
 /** The invented trial emulsion the demo calibration roll was shot on: no profile yet. */
@@ -53,33 +52,16 @@ export const demoTrialFilm: FilmStock = {
 
 /** Grey card exposures of the demo roll: whole stops from three under to four over (invented bracket). */
 export const demoBracketStops = [-3, -2, -1, 0, 1, 2, 3, 4] as const;
-// 600 × 400 frames: small, so the seed takes a moment only and the chart's corners are still easy to click (our
-// choice); 40-pixel rebates, about a tenth of the height as on 35 mm film (common practice of the trade, from memory)
-const frameWidth = 600;
-const frameHeight = 400;
-const rebate = 40;
-// 6 × 4 patches of 80 pixels: the chart fills the frame's height between the rebates
-const patchSize = 80;
+const { width: frameWidth, height: frameHeight, rebate, patchSize } = demoCalibrationFrame;
 // light grain, as on a fine-grained stock (invented demo value)
 const grain = 0.006;
-
-/** The demo roll's layout, for tests that mark it: each grey frame's grey card and the chart's corners. */
-export interface DemoCalibrationLayout {
-  greyRegion: Region;
-  /** Patch 1, 6, 24, 19 corners of the chart, pixels of the chart frame. */
-  chartCorners: Point[];
-  chart: { width: number; height: number };
-  grey: { width: number; height: number };
-}
 
 /**
  * The demo calibration roll made with the forward model: the grey card at each of `demoBracketStops`, the
  * 24-patch chart at the metered exposure and a frame of leader, each between unexposed rebates.
  */
-export function demoCalibrationRoll(): ReturnType<typeof calibrationRoll> & {
-  layout: DemoCalibrationLayout;
-} {
-  const roll = calibrationRoll({
+export function demoCalibrationRoll(): ReturnType<typeof calibrationRoll> {
+  return calibrationRoll({
     stock: demoTrialFilm,
     scanner: LINEAR_SCANNER,
     stops: demoBracketStops,
@@ -90,15 +72,6 @@ export function demoCalibrationRoll(): ReturnType<typeof calibrationRoll> & {
     grain,
     leader: true,
   });
-  return {
-    ...roll,
-    layout: {
-      greyRegion: roll.greyRegion,
-      chartCorners: roll.chartCorners,
-      chart: { width: roll.chart.width, height: roll.chart.height },
-      grey: { width: frameWidth, height: frameHeight },
-    },
-  };
 }
 
 /** The data folder is the one holding the database file; the file store lives beside it. */
