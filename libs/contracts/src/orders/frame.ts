@@ -78,6 +78,36 @@ export type FrameBaseRequest = z.infer<typeof frameBaseRequestSchema>;
 export const frameOutputQuerySchema = z.strictObject({ format: outputFormatSchema.default('jpeg') });
 export type FrameOutputQuery = z.infer<typeof frameOutputQuerySchema>;
 
+// 4096 × 4096 pixels fill any screen at 1:1 and encode in well under a second: our choice
+export const MAX_OUTPUT_REGION_PIXELS = 4096 * 4096;
+
+const wholePixels = (least: number) =>
+  z.coerce.number('Give a whole number of pixels').int('Give a whole number of pixels').min(least);
+
+/**
+ * A rectangle of a frame's full-size positive at 1:1, in its pixels (top-left origin), and the image format to
+ * send it in: PNG (lossless, 8 bits sRGB) or JPEG.
+ */
+export const frameOutputRegionQuerySchema = z
+  .strictObject({
+    x: wholePixels(0),
+    y: wholePixels(0),
+    width: wholePixels(1),
+    height: wholePixels(1),
+    format: z.enum(['png', 'jpeg']).default('png'),
+  })
+  .refine((r) => r.width * r.height <= MAX_OUTPUT_REGION_PIXELS, {
+    path: ['width'],
+    message: 'Ask for at most 4096 × 4096 pixels at a time',
+  });
+export type FrameOutputRegionQuery = z.infer<typeof frameOutputRegionQuerySchema>;
+
+/** Header names of a region reply: the size of the whole positive the region was cut from. */
+export const frameOutputRegionHeaders = {
+  width: 'X-Positive-Width',
+  height: 'X-Positive-Height',
+} as const;
+
 /** One file of an upload that was kept, with the frame made from it. */
 export const acceptedUploadSchema = z.object({
   fileName: z.string(),
