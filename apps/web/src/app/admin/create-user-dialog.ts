@@ -13,7 +13,8 @@ import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import type { CreateUserRequest, Role, UserRecord } from '@clearbase/contracts';
-import { readProblem } from '../problem/read-problem';
+import { fieldErrorText } from '../forms/field-error-text';
+import { FormSubmission } from '../forms/form-submission';
 import { roleChoices, roleLabel } from '../shell/role-label';
 import { UsersApi } from './users-api';
 
@@ -59,33 +60,31 @@ export class CreateUserDialog {
     role: ['customer' as Role, [Validators.required]],
     password: ['', [Validators.minLength(minPasswordLength), Validators.maxLength(200)]],
   });
-  protected readonly busy = signal(false);
-  protected readonly problem = signal<string | null>(null);
-  protected readonly fieldErrors = signal<Readonly<Record<string, string>>>({});
+  private readonly submission = new FormSubmission(this.form);
+  protected readonly busy = this.submission.busy;
+  protected readonly problem = this.submission.problem;
+  protected readonly unclaimed = this.submission.unclaimed;
   protected readonly created = signal<{ user: UserRecord; temporaryPassword: string } | null>(null);
   protected readonly copied = signal(false);
 
+  /** The message a field shows under it; the server's own words win. */
+  protected errorOf(field: 'email' | 'name' | 'password'): string {
+    const errors = this.form.controls[field].errors;
+    if (errors?.['server']) return fieldErrorText(errors);
+    if (field === 'email' && errors?.['email']) return 'Enter a valid e-mail address';
+    if (errors?.['minlength']) return `Use at least ${minPasswordLength} characters`;
+    if (errors?.['required']) return field === 'email' ? 'Enter an e-mail address' : 'Enter a name';
+    return fieldErrorText(errors);
+  }
+
   protected submit(): void {
-    this.form.markAllAsTouched();
-    if (this.form.invalid || this.busy()) return;
+    if (!this.submission.ready()) return;
     const { email, name, role, password } = this.form.getRawValue();
     const request: CreateUserRequest = { email: email.trim(), name: name.trim(), role };
     if (password) request.password = password;
-    this.busy.set(true);
-    this.problem.set(null);
-    this.fieldErrors.set({});
-    this.api.create(request).subscribe({
-      next: ({ user, temporaryPassword }) => {
-        this.busy.set(false);
-        if (temporaryPassword) this.created.set({ user, temporaryPassword });
-        else this.ref.close(user);
-      },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        const p = readProblem(err);
-        this.problem.set(p.message);
-        this.fieldErrors.set(p.fieldErrors);
-      },
+    this.submission.send(this.api.create(request), ({ user, temporaryPassword }) => {
+      if (temporaryPassword) this.created.set({ user, temporaryPassword });
+      else this.ref.close(user);
     });
   }
 
