@@ -100,6 +100,13 @@ export const appRoutes: Routes = [
         loadChildren: () => import('./calibration/calibration-routes').then((m) => m.calibrationRoutes),
       },
       {
+        path: 'customers',
+        title: 'Customers · Clearbase',
+        canActivate: [roleGuard],
+        data: { roles: ['operator', 'manager', 'admin'] },
+        loadComponent: () => import('./admin/customers-page').then((m) => m.CustomersPage),
+      },
+      {
         path: 'scanners',
         title: 'Scanners · Clearbase',
         canActivate: [roleGuard],
