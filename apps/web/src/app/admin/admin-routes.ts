@@ -13,4 +13,9 @@ export const adminRoutes: Routes = [
     title: 'Audit log · Clearbase',
     loadComponent: () => import('./audit-page').then((m) => m.AuditPage),
   },
+  {
+    path: 'outbox',
+    title: 'Outbox · Clearbase',
+    loadComponent: () => import('./outbox-page').then((m) => m.OutboxPage),
+  },
 ];
