@@ -15,11 +15,12 @@ describe('navEntriesFor', () => {
     ]);
   });
 
-  it('gives lab staff the scanners too, but no admin pages', () => {
+  it('gives lab staff the customers and the scanners too, but no admin pages', () => {
     for (const role of ['operator', 'manager'] as const) {
-      expect(navEntriesFor(role).map((e) => e.name)).toEqual([
+      expect(navEntriesFor(role, { localFakes: true }).map((e) => e.name)).toEqual([
         'home',
         'orders',
+        'customers',
         'catalogue',
         'scanners',
         'calibration',
@@ -29,19 +30,27 @@ describe('navEntriesFor', () => {
     }
   });
 
-  it('adds users, the audit log and the development mailbox for admins', () => {
-    expect(navEntriesFor('admin').map((e) => e.name)).toEqual([
+  it('adds users, the audit log, the outbox and, while the local fakes run, the development mailbox for admins', () => {
+    expect(navEntriesFor('admin', { localFakes: true }).map((e) => e.name)).toEqual([
       'home',
       'orders',
+      'customers',
       'catalogue',
       'scanners',
       'calibration',
       'prices',
       'users',
       'audit',
+      'outbox',
       'dev-mailbox',
       'account',
     ]);
+  });
+
+  it('leaves the development mailbox out when the local fakes are off', () => {
+    const names = navEntriesFor('admin', { localFakes: false }).map((e) => e.name);
+    expect(names).not.toContain('dev-mailbox');
+    expect(names).toContain('outbox');
   });
 
   it('reads the roles from the list it is given, so features add pages by adding lines', () => {
@@ -55,7 +64,7 @@ describe('navEntriesFor', () => {
         group: 'work' as const,
       },
     ];
-    expect(navEntriesFor('operator', entries).map((e) => e.name)).toEqual(['rolls']);
-    expect(navEntriesFor('customer', entries)).toEqual([]);
+    expect(navEntriesFor('operator', { localFakes: false }, entries).map((e) => e.name)).toEqual(['rolls']);
+    expect(navEntriesFor('customer', { localFakes: false }, entries)).toEqual([]);
   });
 });

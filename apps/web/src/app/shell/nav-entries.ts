@@ -11,6 +11,13 @@ export interface NavEntry {
   roles: readonly Role[];
   /** Groups are drawn in this order with a divider between them. */
   group: 'work' | 'admin' | 'you';
+  /** Shown only while the server runs the local fakes (the page is about them). */
+  onlyWithLocalFakes?: boolean;
+}
+
+/** What the server said about itself that the menu depends on. */
+export interface NavConditions {
+  localFakes: boolean;
 }
 
 const everyone: readonly Role[] = ['customer', 'operator', 'manager', 'admin'];
@@ -22,6 +29,14 @@ const everyone: readonly Role[] = ['customer', 'operator', 'manager', 'admin'];
 export const navEntries: readonly NavEntry[] = [
   { name: 'home', label: 'Home', icon: 'home', path: '/', roles: everyone, group: 'work' },
   { name: 'orders', label: 'Orders', icon: 'receipt_long', path: '/orders', roles: everyone, group: 'work' },
+  {
+    name: 'customers',
+    label: 'Customers',
+    icon: 'contacts',
+    path: '/customers',
+    roles: ['operator', 'manager', 'admin'],
+    group: 'work',
+  },
   {
     name: 'catalogue',
     label: 'Film stocks',
@@ -57,12 +72,21 @@ export const navEntries: readonly NavEntry[] = [
     group: 'admin',
   },
   {
+    name: 'outbox',
+    label: 'Outbox',
+    icon: 'outbox',
+    path: '/admin/outbox',
+    roles: ['admin'],
+    group: 'admin',
+  },
+  {
     name: 'dev-mailbox',
     label: 'Development mailbox',
     icon: 'mail',
     path: '/dev/mailbox',
     roles: ['admin'],
     group: 'admin',
+    onlyWithLocalFakes: true,
   },
   {
     name: 'account',
@@ -74,8 +98,12 @@ export const navEntries: readonly NavEntry[] = [
   },
 ];
 
-/** The entries a role may see, in menu order. */
-export function navEntriesFor(role: Role | null, entries: readonly NavEntry[] = navEntries): NavEntry[] {
+/** The entries a role may see, in menu order; pages about the local fakes only while they run. */
+export function navEntriesFor(
+  role: Role | null,
+  conditions: NavConditions = { localFakes: false },
+  entries: readonly NavEntry[] = navEntries,
+): NavEntry[] {
   if (role === null) return [];
-  return entries.filter((e) => e.roles.includes(role));
+  return entries.filter((e) => e.roles.includes(role) && (!e.onlyWithLocalFakes || conditions.localFakes));
 }

@@ -11,7 +11,7 @@ import { Shell } from './shell';
 @Component({ template: 'page' })
 class Blank {}
 
-async function renderFor(user: User) {
+async function renderFor(user: User, localFakes = true) {
   TestBed.configureTestingModule({
     imports: [Shell],
     providers: [
@@ -25,6 +25,7 @@ async function renderFor(user: User) {
   TestBed.inject(Session).load().subscribe();
   TestBed.inject(HttpTestingController).expectOne('/api/auth/me').flush(user);
   const fixture = TestBed.createComponent(Shell);
+  TestBed.inject(HttpTestingController).expectOne('/api/config/client').flush({ localFakes });
   await fixture.whenStable();
   const root = fixture.nativeElement as HTMLElement;
   const navNames = [...root.querySelectorAll('[data-testid^="nav-"]')]
@@ -55,20 +56,31 @@ describe('Shell navigation', () => {
     expect(navNames).not.toContain('nav-audit');
   });
 
-  it('shows an admin the users page and the audit log', async () => {
+  it('shows an admin the users page, the audit log, the outbox and the development mailbox', async () => {
     const { navNames } = await renderFor({ id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' });
     expect(navNames).toEqual([
       'nav-home',
       'nav-orders',
+      'nav-customers',
       'nav-catalogue',
       'nav-scanners',
       'nav-calibration',
       'nav-prices',
       'nav-users',
       'nav-audit',
+      'nav-outbox',
       'nav-dev-mailbox',
       'nav-account',
     ]);
+  });
+
+  it('leaves out the development mailbox when the server runs without the local fakes', async () => {
+    const { navNames } = await renderFor(
+      { id: 1, email: 'ada@lab.test', name: 'Ada Quist', role: 'admin' },
+      false,
+    );
+    expect(navNames).not.toContain('nav-dev-mailbox');
+    expect(navNames).toContain('nav-outbox');
   });
 
   it('names the user and their role in the user menu', async () => {

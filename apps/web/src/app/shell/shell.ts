@@ -11,6 +11,7 @@ import { MatSidenav, MatSidenavContainer, MatSidenavContent } from '@angular/mat
 import { MatToolbar } from '@angular/material/toolbar';
 import { map } from 'rxjs';
 import { Session } from '../auth/session';
+import { ClientConfig } from './client-config';
 import { roleLabel } from './role-label';
 import { type NavEntry, navEntriesFor } from './nav-entries';
 
@@ -44,6 +45,7 @@ import { type NavEntry, navEntriesFor } from './nav-entries';
 export class Shell {
   private readonly session = inject(Session);
   private readonly router = inject(Router);
+  private readonly clientConfig = inject(ClientConfig);
 
   protected readonly user = this.session.user;
   protected readonly roleLabel = computed(() => roleLabel(this.session.role()));
@@ -57,7 +59,7 @@ export class Shell {
   );
   /** Entries for the role, split into groups in menu order. */
   protected readonly groups = computed(() => {
-    const entries = navEntriesFor(this.session.role());
+    const entries = navEntriesFor(this.session.role(), { localFakes: this.clientConfig.localFakes() });
     const order: NavEntry['group'][] = ['work', 'admin', 'you'];
     return order
       .map((g) => ({ name: g, entries: entries.filter((e) => e.group === g) }))
