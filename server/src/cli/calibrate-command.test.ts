@@ -45,9 +45,10 @@ describe('clearbase calibrate', () => {
   let bracketArgs: string[];
   let chartArgs: string[];
   let chartRegion: string;
+  let roll: ReturnType<typeof calibrationRoll>;
   beforeAll(async () => {
     dir = await mkdtemp(join(tmpdir(), 'clearbase-calibrate-'));
-    const roll = calibrationRoll({
+    roll = calibrationRoll({
       stock: STOCK,
       scanner: LINEAR_SCANNER,
       stops: Array.from({ length: 15 }, (_, i) => i - 6),
@@ -169,5 +170,50 @@ describe('clearbase calibrate', () => {
     expect(noStops.code).toBe(2);
     expect(noStops.stderr).toMatch(/Expected FILE:STOPS .* for --bracket but received grey-01\.tif/);
     expect(noStops.stderr).toMatch(/clearbase calibrate --bracket/);
+  }, 60_000);
+
+  it('samples each grey frame in its own rectangle where --bracket gives one, the shared one elsewhere', async () => {
+    // the shared rectangle lies on the rebate, unexposed film: frames sampled there never saw light
+    const rebate = roll.baseRegion.join(',');
+    const own = roll.greyRegion.join(',');
+    const perFrame = roll.brackets.flatMap((b, i) => [
+      '--bracket',
+      `grey-${String(i + 1).padStart(2, '0')}.tif:${b.stops}${i % 4 ? `:${own}` : ''}`,
+    ]);
+    const run = await runCalibrate(
+      [...perFrame, ...chartArgs, '--grey-region', rebate, '--out', 'own.json', '--json'],
+      dir,
+    );
+    const report = JSON.parse(run.stdout) as { gamma: number[]; usedFrames: number[] };
+    // the four frames left on the shared rectangle are blank and left out; the others fit the stock's γ
+    expect(report.usedFrames.filter((i) => i % 4 === 0)).toEqual([]);
+    expect(report.usedFrames.length).toBeGreaterThanOrEqual(9);
+    report.gamma.forEach((g, c) => expect(Math.abs(g / STOCK.gamma[c]! - 1)).toBeLessThan(0.03));
+
+    const shared = await runCalibrate(
+      [...bracketArgs, ...chartArgs, '--grey-region', rebate, '--out', 'shared.json', '--json'],
+      dir,
+    );
+    expect(shared.code).toBe(1);
+  }, 60_000);
+
+  it('exits 2 with the usage text for a grey rectangle that is not x,y,w,h or runs past its frame', async () => {
+    for (const bad of ['grey-01.tif:0:1,2,3', 'grey-01.tif:0:4,4,0,8', 'grey-01.tif:+1:corner']) {
+      const run = await runCalibrate(
+        ['--bracket', bad, ...bracketArgs, ...chartArgs, '--out', 'x.json'],
+        dir,
+      );
+      expect(run.code, bad).toBe(2);
+      expect(run.stderr).toContain(`for the grey rectangle of --bracket ${bad} but received`);
+      expect(run.stderr).toMatch(/clearbase calibrate --bracket FILE:STOPS\[:x,y,w,h\]/);
+    }
+    const past = await runCalibrate(
+      ['--bracket', 'grey-01.tif:0:20,20,40,10', ...bracketArgs, ...chartArgs, '--out', 'x.json'],
+      dir,
+    );
+    expect(past.code).toBe(2);
+    expect(past.stderr).toContain(
+      `The grey rectangle 20,20,40,10 of grey-01.tif runs past the frame's 32 × ${32 + 12} pixels.`,
+    );
   }, 60_000);
 });

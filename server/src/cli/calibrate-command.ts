@@ -29,7 +29,7 @@ import { UsageError } from './usage-error';
 const FILM_BASES = ['clear', 'tinted', 'masked'] as const;
 
 /**
- * `clearbase calibrate --bracket FILE:STOPS … --chart FILE --chart-region x,y,w,h | --chart-corners
+ * `clearbase calibrate --bracket FILE:STOPS[:x,y,w,h] … --chart FILE --chart-region x,y,w,h | --chart-corners
  * x1,y1,…,x4,y4 --out PROFILE.json …`: see the usage text. Fits a stock profile from a calibration roll
  * and writes it as a profile document. Resolves to 0 when the fit raised no warning, 1 when it was
  * written with warnings or could not be made (unreadable file, no usable base, too few usable frames).
@@ -99,7 +99,13 @@ export async function calibrateCommand(args: string[]): Promise<number> {
   for (const b of brackets) {
     const image = await read(b.file);
     if (typeof image === 'string') return fail(image);
-    samples.push({ stops: b.stops, sample: sampleRegion(image, scanner, greyRegion ?? centralHalf(image)) });
+    const region = b.greyRegion ?? greyRegion ?? centralHalf(image);
+    const [x, y, w, h] = region;
+    if (x + w > image.width || y + h > image.height)
+      throw new UsageError(
+        `The grey rectangle ${region.join(',')} of ${b.file} runs past the frame's ${image.width} × ${image.height} pixels${b.greyRegion ? '' : ' (from --grey-region)'}.`,
+      );
+    samples.push({ stops: b.stops, sample: sampleRegion(image, scanner, region) });
     if (!values.leader) measure(image);
   }
   const chartImage = await read(values.chart);
@@ -188,14 +194,39 @@ function describeCalibration(r: CalibrationResult, out: string): string {
   return `${lines.join('\n')}\n`;
 }
 
-function parseBracket(raw: string): { file: string; stops: number } {
+/** One --bracket: the file, its stops and, when given, its own grey rectangle. */
+interface BracketArg {
+  file: string;
+  stops: number;
+  greyRegion: Region | null;
+}
+
+/**
+ * FILE:STOPS or FILE:STOPS:x,y,w,h. The file name may hold colons itself: the stops are the last field, or the one
+ * before a last field that is not stops (then that field is the rectangle, and must be one).
+ */
+function parseBracket(raw: string): BracketArg {
   const at = raw.lastIndexOf(':');
-  const stops = at > 0 ? parseStops(raw.slice(at + 1)) : Number.NaN;
+  const last = at > 0 ? raw.slice(at + 1) : '';
+  if (at > 0 && !Number.isFinite(parseStops(last))) {
+    const rest = raw.slice(0, at);
+    const before = rest.lastIndexOf(':');
+    const stops = before > 0 ? parseStops(rest.slice(before + 1)) : Number.NaN;
+    if (Number.isFinite(stops)) {
+      const greyRegion = parseRectangle(last);
+      if (!greyRegion)
+        throw new UsageError(
+          `Expected x,y,w,h in pixels (whole numbers, width and height above 0) for the grey rectangle of --bracket ${raw} but received ${last}.`,
+        );
+      return { file: rest.slice(0, before), stops, greyRegion };
+    }
+  }
+  const stops = at > 0 ? parseStops(last) : Number.NaN;
   if (!Number.isFinite(stops))
     throw new UsageError(
-      `Expected FILE:STOPS (e.g. grey-03.tif:-1 or grey-04.tif:-2/3) for --bracket but received ${raw}.`,
+      `Expected FILE:STOPS or FILE:STOPS:x,y,w,h (e.g. grey-03.tif:-1, grey-04.tif:-2/3 or grey-05.tif:0:40,30,64,48) for --bracket but received ${raw}.`,
     );
-  return { file: raw.slice(0, at), stops };
+  return { file: raw.slice(0, at), stops, greyRegion: null };
 }
 
 /** Stops as a decimal (+1, -0.33) or a fraction (-2/3). */
@@ -205,11 +236,18 @@ function parseStops(raw: string): number {
   return raw.trim() === '' ? Number.NaN : Number(raw);
 }
 
-function parseRegion(name: string, raw: string): Region {
-  const parts = raw.split(',').map(Number);
+/** x,y,w,h in whole pixels with a width and height, or null. */
+function parseRectangle(raw: string): Region | null {
+  const parts = raw.split(',').map((v) => (v.trim() === '' ? Number.NaN : Number(v)));
   if (parts.length !== 4 || !parts.every((v) => Number.isInteger(v) && v >= 0) || !parts[2] || !parts[3])
-    throw new UsageError(`Expected x,y,w,h in pixels for --${name} but received ${raw}.`);
+    return null;
   return parts as Region;
+}
+
+function parseRegion(name: string, raw: string): Region {
+  const region = parseRectangle(raw);
+  if (!region) throw new UsageError(`Expected x,y,w,h in pixels for --${name} but received ${raw}.`);
+  return region;
 }
 
 function parseCorners(raw: string): Point[] {

@@ -19,15 +19,16 @@ export const USAGE = `Usage:
   clearbase profile validate P.json
       Checks a stock profile document and prints each error with its path.
 
-  clearbase calibrate --bracket FILE:STOPS ... --chart FILE --chart-region x,y,w,h | --chart-corners x1,y1,...,x4,y4
+  clearbase calibrate --bracket FILE:STOPS[:x,y,w,h] ... --chart FILE --chart-region x,y,w,h | --chart-corners x1,y1,...,x4,y4
                       --out PROFILE.json [options]
       Builds a stock profile from a calibration roll: grey card frames bracketed over known stops and
       one frame of the 24-patch chart. Prints γ, speed point and EI, crosstalk, chart ΔE00 and warnings.
-      --bracket FILE:STOPS       a grey frame and its exposure in stops from the metered one (+1, -2/3); repeat
+      --bracket FILE:STOPS[:x,y,w,h]  a grey frame, its exposure in stops from the metered one (+1, -2/3)
+                                 and, if the card moved, its own grey rectangle; repeat
       --chart FILE               the chart frame, normally exposed
       --chart-region x,y,w,h     the chart, square in the frame, patch 1 at the top left
       --chart-corners x1,y1,...  its four corners: by patch 1, patch 6, patch 24, patch 19
-      --grey-region x,y,w,h      grey rectangle on every grey frame (default: the central half)
+      --grey-region x,y,w,h      grey rectangle on every grey frame without its own (default: the central half)
       --base-region x,y,w,h      film base rectangle (on the leader, else on every frame; default: detected)
       --leader FILE              a frame of unexposed leader for the film base
       --scanner S.json           scanner profile document (default: linear counts, no black level)
