@@ -8,11 +8,13 @@ import {
   type CheckYourMailResponse,
 } from '@clearbase/contracts';
 import type { RequestHandler } from 'express';
+import type { Kysely } from 'kysely';
 import { rateLimit } from 'express-rate-limit';
 import { recordAudit } from '../audit/audit-log';
 import { dropUserSessions } from '../auth/kysely-session-store';
 import { generateTemporaryPassword, hashPassword } from '../auth/password-hash';
 import type { Config } from '../config/config';
+import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
 import { sendProblem } from '../errors/send-problem';
 import type { RouteModule } from '../http/route-module';
@@ -44,6 +46,20 @@ export const resetLinkMinutes = 60;
 export const welcomeLinkHours = 72;
 
 const checkYourMail = (detail: string): CheckYourMailResponse => ({ status: 'check-your-mail', detail });
+
+/**
+ * The stored row of a mailed link if it can still be used: 400 `link-invalid` when there is none (unknown, replaced
+ * or used), 410 `link-expired` once it has expired. `words` says what the person can do next in each case.
+ */
+function openLink<T extends { expires_at: string }>(
+  row: T | undefined,
+  now: Date,
+  words: { invalid: string; expired: string },
+): T {
+  if (!row) throw new AppError('link-invalid', 400, words.invalid);
+  if (row.expires_at <= now.toISOString()) throw new AppError('link-expired', 410, words.expired);
+  return row;
+}
 
 function isUniqueViolation(err: unknown): boolean {
   return (
@@ -79,6 +95,64 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
     `${config.publicUrl}${path}?token=${encodeURIComponent(token)}`;
   const later = (ms: number) => new Date(clock.now().getTime() + ms).toISOString();
 
+  /**
+   * Mails the link that confirms a sign-up's address; the pending sign-up keeps `hash`, the returned token's hash.
+   * Sign-up and resend both send it.
+   */
+  async function mailVerifyLink(
+    trx: Kysely<Database>,
+    to: { email: string; name: string },
+    now: Date,
+  ): Promise<{ hash: string; expiresAt: string }> {
+    const { token, hash } = newLinkToken();
+    await enqueueTemplatedMail(
+      trx,
+      to.email,
+      'verify-email',
+      { name: to.name, url: link('/verify-email', token), expiresHours: verifyLinkHours },
+      now,
+    );
+    return { hash, expiresAt: later(verifyLinkHours * 3600_000) };
+  }
+
+  /**
+   * Stores a single-use link to choose a password and mails it: a reset the user asked for, or the welcome of an
+   * account staff opened. Both land on the same page, which sets the password with the token.
+   */
+  async function mailPasswordLink(
+    trx: Kysely<Database>,
+    user: { id: number; email: string; name: string },
+    purpose: 'reset' | 'welcome',
+    now: Date,
+  ): Promise<void> {
+    const { token, hash } = newLinkToken();
+    const url = link('/reset-password', token);
+    await insertPasswordToken(trx, {
+      user_id: user.id,
+      token_hash: hash,
+      purpose,
+      expires_at: later(purpose === 'reset' ? resetLinkMinutes * 60_000 : welcomeLinkHours * 3600_000),
+      created_at: now.toISOString(),
+    });
+    if (purpose === 'reset') {
+      await enqueueTemplatedMail(
+        trx,
+        user.email,
+        'password-reset',
+        { name: user.name, url, expiresMinutes: resetLinkMinutes },
+        now,
+      );
+    } else {
+      await enqueueTemplatedMail(
+        trx,
+        user.email,
+        'account-created',
+        { name: user.name, url, expiresHours: welcomeLinkHours },
+        now,
+      );
+    }
+  }
+
   api.define(
     {
       method: 'post',
@@ -108,22 +182,15 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
           );
           return;
         }
-        const { token, hash } = newLinkToken();
+        const { hash, expiresAt } = await mailVerifyLink(trx, body, now);
         await upsertPendingSignup(trx, {
           email: body.email,
           name: body.name,
           password_hash: passwordHash,
           token_hash: hash,
-          expires_at: later(verifyLinkHours * 3600_000),
+          expires_at: expiresAt,
           created_at: now.toISOString(),
         });
-        await enqueueTemplatedMail(
-          trx,
-          body.email,
-          'verify-email',
-          { name: body.name, url: link('/verify-email', token), expiresHours: verifyLinkHours },
-          now,
-        );
       });
       res
         .status(202)
@@ -147,16 +214,9 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
     async (_req, res, { body }) => {
       const pending = await findPendingSignupByEmail(db, body.email);
       if (pending) {
-        const { token, hash } = newLinkToken();
         await db.transaction().execute(async (trx) => {
-          await renewPendingSignupToken(trx, pending.id, hash, later(verifyLinkHours * 3600_000));
-          await enqueueTemplatedMail(
-            trx,
-            pending.email,
-            'verify-email',
-            { name: pending.name, url: link('/verify-email', token), expiresHours: verifyLinkHours },
-            clock.now(),
-          );
+          const { hash, expiresAt } = await mailVerifyLink(trx, pending, clock.now());
+          await renewPendingSignupToken(trx, pending.id, hash, expiresAt);
         });
       }
       res
@@ -178,17 +238,11 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
       summary: 'Confirm the e-mail address of a sign-up; makes the customer account',
     },
     async (_req, res, { body }) => {
-      const pending = await findPendingSignupByToken(db, hashLinkToken(body.token));
-      if (!pending) {
-        throw new AppError(
-          'link-invalid',
-          400,
+      const pending = openLink(await findPendingSignupByToken(db, hashLinkToken(body.token)), clock.now(), {
+        invalid:
           'This link is not valid, or was already used. If you have confirmed your address, sign in; otherwise sign up again.',
-        );
-      }
-      if (pending.expires_at <= clock.now().toISOString()) {
-        throw new AppError('link-expired', 410, 'This link has expired. Ask for a new one or sign up again.');
-      }
+        expired: 'This link has expired. Ask for a new one or sign up again.',
+      });
       const user = await db
         .transaction()
         .execute(async (trx) => {
@@ -237,24 +291,7 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
     async (_req, res, { body }) => {
       const user = await findUserByEmail(db, body.email);
       if (user && !user.disabled) {
-        const { token, hash } = newLinkToken();
-        const now = clock.now();
-        await db.transaction().execute(async (trx) => {
-          await insertPasswordToken(trx, {
-            user_id: user.id,
-            token_hash: hash,
-            purpose: 'reset',
-            expires_at: later(resetLinkMinutes * 60_000),
-            created_at: now.toISOString(),
-          });
-          await enqueueTemplatedMail(
-            trx,
-            user.email,
-            'password-reset',
-            { name: user.name, url: link('/reset-password', token), expiresMinutes: resetLinkMinutes },
-            now,
-          );
-        });
+        await db.transaction().execute((trx) => mailPasswordLink(trx, user, 'reset', clock.now()));
       }
       res
         .status(202)
@@ -273,22 +310,12 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
       summary: 'Set a new password with the link’s token; every session of the account ends',
     },
     async (_req, res, { body }) => {
-      const token = await findPasswordToken(db, hashLinkToken(body.token));
+      const found = await findPasswordToken(db, hashLinkToken(body.token));
       const now = clock.now().toISOString();
-      if (!token || token.used_at !== null) {
-        throw new AppError(
-          'link-invalid',
-          400,
-          'This link is not valid or was already used. Ask for a new one from the sign-in page.',
-        );
-      }
-      if (token.expires_at <= now) {
-        throw new AppError(
-          'link-expired',
-          410,
-          'This link has expired. Ask for a new one from the sign-in page.',
-        );
-      }
+      const token = openLink(found?.used_at === null ? found : undefined, clock.now(), {
+        invalid: 'This link is not valid or was already used. Ask for a new one from the sign-in page.',
+        expired: 'This link has expired. Ask for a new one from the sign-in page.',
+      });
       const user = await findUserById(db, token.user_id);
       if (!user || user.disabled) {
         throw new AppError('link-invalid', 400, 'This link is not valid. Ask the lab for help.');
@@ -366,21 +393,7 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
             last_sign_in_at: null,
             password_changed_at: null,
           });
-          const { token, hash } = newLinkToken();
-          await insertPasswordToken(trx, {
-            user_id: created.id,
-            token_hash: hash,
-            purpose: 'welcome',
-            expires_at: later(welcomeLinkHours * 3600_000),
-            created_at: now.toISOString(),
-          });
-          await enqueueTemplatedMail(
-            trx,
-            created.email,
-            'account-created',
-            { name: created.name, url: link('/reset-password', token), expiresHours: welcomeLinkHours },
-            now,
-          );
+          await mailPasswordLink(trx, created, 'welcome', now);
           await recordAudit(trx, {
             at: now,
             actor: actor!,
