@@ -27,6 +27,8 @@ export interface JpegStripWriter {
   stripHeight(index: number): number;
   /** Waits for every strip (each must have been started) and returns the joined JPEG. */
   finish(): Promise<Buffer>;
+  /** Resolves once no started strip is still reading its rows (whether it succeeded or not). */
+  settled(): Promise<void>;
 }
 
 export interface JpegStripOptions {
@@ -47,6 +49,15 @@ const MAX_RESTART_INTERVAL = 0xffff;
 /** Plans the strips of a JPEG of `width` × `height`; see `JpegStripWriter`. */
 export function createJpegStripWriter(options: JpegStripOptions): JpegStripWriter {
   const { width, height, quality, metadata } = options;
+  for (const [name, value, max] of [
+    ['width', width, 1 << 20],
+    ['height', height, 1 << 20],
+    ['quality', quality, 100],
+  ] as const)
+    if (!Number.isInteger(value) || value < 1 || value > max)
+      throw new TypeError(
+        `Expected integer between 1 and ${max} for ${name} but received ${value} of type ${typeof value}`,
+      );
   const subsampling = chromaSubsampling(quality);
   // An MCU is 8 × 8 pixels at 4:4:4 and 16 × 16 at 4:2:0 (ITU-T T.81 §A.2.4).
   const mcu = subsampling === '4:4:4' ? 8 : 16;
@@ -99,6 +110,9 @@ export function createJpegStripWriter(options: JpegStripOptions): JpegStripWrite
         parts.push(await part);
       }
       return joinJpegStrips(parts, { height, restartInterval, icc: await srgbProfileSegments() });
+    },
+    async settled() {
+      await Promise.allSettled(encoded.filter(Boolean));
     },
   };
 }

@@ -60,6 +60,28 @@ describe('inversion pool', () => {
     });
   }
 
+  it('reports each band once as it is written, with exactly the single-thread result', async () => {
+    const { neg, input, plan } = frame(97, 61, 'u8');
+    const single = new Uint8Array(neg.data.length);
+    applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
+    const pooled = sharedArray(Uint8Array, neg.data.length);
+    const seen: number[] = [];
+    const rowBytes = neg.width * 3;
+    await pool.invertFrame(plan, input, pooled, neg.width, neg.height, {
+      rows: 16,
+      done: (k) => {
+        // The band is whole when reported.
+        const band = (a: Uint8Array) => Buffer.from(a.subarray(k * 16 * rowBytes, (k + 1) * 16 * rowBytes));
+        expect(band(pooled).equals(band(single))).toBe(true);
+        seen.push(k);
+      },
+    });
+    expect(seen.sort((a, b) => a - b)).toEqual(
+      Array.from({ length: Math.ceil(neg.height / 16) }, (_, k) => k),
+    );
+    expect(Buffer.from(pooled.buffer).equals(Buffer.from(single.buffer))).toBe(true);
+  });
+
   it('handles frames with fewer rows than slices', async () => {
     const { neg, input, plan } = frame(50, 3, 'u8');
     const single = new Uint8Array(neg.data.length);

@@ -20,6 +20,10 @@ export interface InversionPool {
    * Inverts a whole frame across the workers. `input` and `output` must be backed by a
    * SharedArrayBuffer (see `sharedArray`) so the workers write the result in place, without copies.
    * Resolves when every pixel is written.
+   *
+   * With `bands`, the frame is inverted band after band of `bands.rows` rows (the last may be shorter), each
+   * band shared among the workers, and `bands.done(index)` is called as soon as band `index` is written, so
+   * the caller can encode it while later bands are inverted.
    */
   invertFrame(
     plan: InvertChunkTask['plan'],
@@ -27,9 +31,18 @@ export interface InversionPool {
     output: InvertChunkTask['output'],
     width: number,
     height: number,
+    bands?: FrameBands,
   ): Promise<void>;
   /** Stops the workers once running slices finish. */
   close(): Promise<void>;
+}
+
+/** How `invertFrame` reports a frame band by band. */
+export interface FrameBands {
+  /** Rows in every band but the last, at least 1. */
+  rows: number;
+  /** Called once per band, in any order, when all its rows are written. */
+  done(index: number): void;
 }
 
 const WORKER_URL = new URL('./invert-chunk.ts', import.meta.url);
@@ -75,7 +88,7 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
   return {
     threads,
     buffers: createFrameBuffers(),
-    async invertFrame(plan, input, output, width, height) {
+    async invertFrame(plan, input, output, width, height, bands) {
       const pixels = width * height;
       if (input.length < pixels * 3 || output.length < pixels * 3) {
         throw new TypeError(
@@ -85,15 +98,30 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
       if (!(input.buffer instanceof SharedArrayBuffer) || !(output.buffer instanceof SharedArrayBuffer)) {
         throw new TypeError('Expected input and output backed by a SharedArrayBuffer');
       }
-      const shared = sharePlan(plan);
-      const slices = Math.min(height, threads * slicesPerThread);
-      const rowsPerSlice = Math.ceil(height / slices);
-      const tasks: Promise<number>[] = [];
-      for (let row = 0; row < height; row += rowsPerSlice) {
-        const rows = Math.min(rowsPerSlice, height - row);
-        tasks.push(
-          piscina.run({ plan: shared, input, output, firstPixel: row * width, pixelCount: rows * width }),
+      if (bands && (!Number.isInteger(bands.rows) || bands.rows < 1)) {
+        throw new TypeError(
+          `Expected positive integer for bands.rows but received ${bands.rows} of type ${typeof bands.rows}`,
         );
+      }
+      const shared = sharePlan(plan);
+      const slice = (row: number, rows: number) =>
+        piscina.run({ plan: shared, input, output, firstPixel: row * width, pixelCount: rows * width });
+      // Slices are queued in row order and the workers take them in that order, so bands finish top to bottom.
+      const slicesOf = (firstRow: number, rows: number, count: number) => {
+        const tasks: Promise<number>[] = [];
+        const rowsPerSlice = Math.ceil(rows / Math.min(rows, count));
+        for (let row = firstRow; row < firstRow + rows; row += rowsPerSlice)
+          tasks.push(slice(row, Math.min(rowsPerSlice, firstRow + rows - row)));
+        return Promise.all(tasks);
+      };
+      if (!bands) {
+        await slicesOf(0, height, threads * slicesPerThread);
+        return;
+      }
+      const tasks: Promise<void>[] = [];
+      for (let index = 0, row = 0; row < height; index++, row += bands.rows) {
+        const rows = Math.min(bands.rows, height - row);
+        tasks.push(slicesOf(row, rows, threads).then(() => bands.done(index)));
       }
       await Promise.all(tasks);
     },

@@ -10,11 +10,21 @@ import {
   type FilmBase,
   type FrameLevels,
   type InversionParams,
+  type InversionPlan,
   type MeasureLevelsOptions,
   type Region,
   type RgbImage,
 } from '@clearbase/inversion';
-import { readNegative, writePositive, type NegativeImage, type PositiveFormat } from '../imaging/index';
+import {
+  DEFAULT_JPEG_QUALITY,
+  readNegative,
+  writePositive,
+  type NegativeImage,
+  type PositiveFormat,
+  type PositiveMetadata,
+} from '../imaging/index';
+import { createJpegStripWriter } from '../imaging/jpeg-strips';
+import { writeFileAtomically } from '../imaging/write-positive';
 import type { InversionPool } from './inversion-pool';
 
 // Below this a detected base is not trusted; the frame is flagged for QC; from memory.
@@ -168,21 +178,14 @@ export async function invertNegativeFile(
     const plan = compileInversion(
       inversionParams(settings, measured.base, levels, outKind === Uint8Array ? 8 : 16),
     );
-    await pool.invertFrame(plan, negative.data, pixels, negative.width, negative.height);
-    await writePositive(pixels, {
-      path: output,
-      width: negative.width,
-      height: negative.height,
-      format: settings.format,
-      ...(settings.quality ? { quality: settings.quality } : {}),
-      metadata: {
-        stock: settings.profile.stock.name,
-        profileVersion: `${settings.profile.id}@${settings.profile.version}`,
-        scanner: settings.scanner.name,
-        adjustments: { render: settings.render, base: measured.base.rgb.map((v) => Number(v.toFixed(5))) },
-        sourceFile: file.split(/[\\/]/).pop() ?? file,
-      },
-    });
+    const metadata: PositiveMetadata = {
+      stock: settings.profile.stock.name,
+      profileVersion: `${settings.profile.id}@${settings.profile.version}`,
+      scanner: settings.scanner.name,
+      adjustments: { render: settings.render, base: measured.base.rgb.map((v) => Number(v.toFixed(5))) },
+      sourceFile: file.split(/[\\/]/).pop() ?? file,
+    };
+    await invertAndWrite(pool, plan, negative, pixels, output, settings, metadata);
   } finally {
     pool.buffers.release(negative.data);
     pool.buffers.release(pixels);
@@ -194,4 +197,49 @@ export async function invertNegativeFile(
     warnings: [...negative.warnings, ...measured.warnings],
     ms: Math.round(performance.now() - start),
   };
+}
+
+/**
+ * Inverts a decoded negative into `pixels` (a pooled buffer, 8-bit for JPEG, else 16-bit) on the pool and writes
+ * the positive atomically to `output`. A JPEG is written in strips, each encoded (on libuv's threads) as soon as the
+ * workers have written its rows, while later ones are inverted; it resolves only when no strip still reads `pixels`.
+ */
+export async function invertAndWrite(
+  pool: InversionPool,
+  plan: InversionPlan,
+  negative: NegativeImage,
+  pixels: Uint8Array | Uint16Array,
+  output: string,
+  settings: Pick<FrameSettings, 'format' | 'quality'>,
+  metadata: PositiveMetadata,
+): Promise<void> {
+  const { width, height } = negative;
+  if (!(pixels instanceof Uint8Array)) {
+    await pool.invertFrame(plan, negative.data, pixels, width, height);
+    await writePositive(pixels, {
+      path: output,
+      width,
+      height,
+      format: settings.format,
+      ...(settings.quality ? { quality: settings.quality } : {}),
+      metadata,
+    });
+    return;
+  }
+  const quality = settings.quality ?? DEFAULT_JPEG_QUALITY;
+  const writer = createJpegStripWriter({ width, height, quality, metadata });
+  const rowBytes = width * 3;
+  try {
+    await pool.invertFrame(plan, negative.data, pixels, width, height, {
+      rows: writer.stripRows,
+      done: (k) => {
+        const first = k * writer.stripRows * rowBytes;
+        writer.encode(k, pixels.subarray(first, first + writer.stripHeight(k) * rowBytes));
+      },
+    });
+    await writeFileAtomically(output, await writer.finish());
+  } finally {
+    // No strip may still be reading the output buffer when it goes back to the pool.
+    await writer.settled();
+  }
 }
