@@ -2,6 +2,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { converter } from 'culori';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { D65_WHITE, linearSrgbToXyz, srgbDecode, xyzToLab } from '../libs/inversion/src/index';
@@ -105,6 +106,23 @@ async function labOf(
       for (let c = 0; c < 3; c++) sum[c]! += data[(y * info.width + x) * 3 + c]!;
   const linear = sum.map((s) => srgbDecode(s / n / 255)) as [number, number, number];
   return xyzToLab(linearSrgbToXyz(linear), D65_WHITE);
+}
+
+const toLab65 = converter('lab65');
+
+/** CIELAB (D65, culori's lab65) of the mean sRGB code values of a rectangle of RGB(A) pixels, fractions of the image. */
+function meanLab65(
+  data: ArrayLike<number>,
+  size: { width: number; height: number; channels: number },
+  box: { x0: number; y0: number; x1: number; y1: number },
+): { l: number; a: number; b: number } {
+  const sum = [0, 0, 0];
+  let n = 0;
+  for (let y = Math.floor(box.y0 * size.height); y < Math.floor(box.y1 * size.height); y++)
+    for (let x = Math.floor(box.x0 * size.width); x < Math.floor(box.x1 * size.width); x++, n++)
+      for (let c = 0; c < 3; c++) sum[c]! += data[(y * size.width + x) * size.channels + c]!;
+  const lab = toLab65({ mode: 'rgb', r: sum[0]! / n / 255, g: sum[1]! / n / 255, b: sum[2]! / n / 255 });
+  return { l: lab.l, a: lab.a ?? 0, b: lab.b ?? 0 };
 }
 
 async function renderedAfter(since: string | null): Promise<void> {
@@ -260,6 +278,100 @@ describe('tuning a roll', () => {
     await expect.poll(() => carried(2)).toBe('');
     await page.keyboard.press('Control+Shift+z');
     await expect.poll(() => carried(2)).toBe(await carried(1));
+  });
+
+  it('lets an operator take the cast out with the magenta–green control, point by point, and get a neutral grey', async () => {
+    const { page } = browser;
+    // the frame starts over with no tuning of its own: its output carries the roll's magenta cast again
+    expect((await api('PUT', `/api/frames/${frameId}/adjustments`, {})).status).toBe(200);
+    let since = (await api('GET', `/api/rolls/${rollId}/tuning`)).body.frames[0].renderedAt as string;
+    expect((await api('POST', `/api/rolls/${rollId}/invert`, { frames: 'pending' })).status).toBe(202);
+    await renderedAfter(since);
+    const castOutput = await sharp(await outputJpeg(frameId))
+      .removeAlpha()
+      .raw()
+      .toBuffer({ resolveWithObject: true });
+    const cast = meanLab65(castOutput.data, castOutput.info, patch);
+    expect(cast.a).toBeGreaterThan(4);
+
+    await page.goto(`${server.url}/rolls/${rollId}/tune`);
+    const canvas = page.getByTestId('after-canvas');
+    await expect
+      .poll(() => canvas.evaluate((c) => (c as HTMLCanvasElement).width), { timeout: 30_000 })
+      .toBeGreaterThan(0);
+    const points = async () => Number(await page.getByTestId('value-magentaGreen').innerText());
+    expect(await points()).toBe(0);
+    /** The neutral patch as the live preview shows it. */
+    const previewLab = async () => {
+      const pixels = await canvas.evaluate((c) => {
+        const el = c as HTMLCanvasElement;
+        const rgba = el.getContext('2d')!.getImageData(0, 0, el.width, el.height).data;
+        return { width: el.width, height: el.height, rgba: Array.from(rgba) };
+      });
+      return meanLab65(pixels.rgba, { width: pixels.width, height: pixels.height, channels: 4 }, patch);
+    };
+    // the canvas has its default size before the first rendering lands: wait for the preview's timing and a lit patch
+    await page.getByTestId('preview-ms').waitFor();
+    let reading = await previewLab();
+    await expect.poll(async () => (reading = await previewLab()).l, { timeout: 30_000 }).toBeGreaterThan(10);
+    expect(reading.a).toBeGreaterThan(4);
+
+    // one whole point greener at a time (the slider's arrow key), until the patch's a* crosses zero in the preview
+    const slider = page.getByTestId('cast-magentaGreen');
+    await slider.focus();
+    for (let step = 1; step <= 20; step++) {
+      const previous = reading;
+      await page.keyboard.press('ArrowRight');
+      await expect.poll(points).toBe(step);
+      await expect
+        .poll(async () => {
+          reading = await previewLab();
+          return Math.abs(reading.a - previous.a) > 0.05;
+        })
+        .toBe(true);
+      if (reading.a <= 0) {
+        if (Math.abs(previous.a) < Math.abs(reading.a)) {
+          await page.keyboard.press('ArrowLeft');
+          await expect.poll(points).toBe(step - 1);
+        }
+        break;
+      }
+    }
+    // the roll's cast was 8 points of magenta: the control takes out the same 8 points
+    expect(Math.abs((await points()) - 8)).toBeLessThanOrEqual(1);
+    await browser.screenshot('roll-workspace-stepped');
+
+    since = (await api('GET', `/api/rolls/${rollId}/tuning`)).body.frames[0].renderedAt as string;
+    await page.getByTestId('save').click();
+    await renderedAfter(since);
+    const { data, info } = await sharp(await outputJpeg(frameId))
+      .removeAlpha()
+      .raw()
+      .toBuffer({ resolveWithObject: true });
+    const lab = meanLab65(data, info, patch);
+    expect(lab.l).toBeGreaterThan(10);
+    expect(Math.abs(lab.a)).toBeLessThan(2);
+    expect(Math.abs(lab.b)).toBeLessThan(2);
+  });
+
+  it('shows the saved full-size render at 1:1 under the pointer, and goes back to fit on Escape', async () => {
+    const { page } = browser;
+    // the page reads the sheet again while the frames render; 1:1 waits for the frame to be done
+    const box = (await page.getByTestId('after-canvas').boundingBox())!;
+    await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.5);
+    await page.keyboard.press('1');
+    const image = page.getByTestId('actual-pixels-image');
+    await expect
+      .poll(() => image.evaluate((img) => (img as HTMLImageElement).naturalWidth), { timeout: 30_000 })
+      .toBe(360);
+    const ratio = await page.evaluate(() => window.devicePixelRatio);
+    const shown = (await image.boundingBox())!;
+    // one image pixel per screen pixel
+    expect(shown.width * ratio).toBeCloseTo(360, 0);
+    expect(await page.getByTestId('actual-pixels-caption').innerText()).toContain('360×240');
+    await browser.screenshot('roll-workspace-actual-pixels');
+    await page.keyboard.press('Escape');
+    await expect.poll(() => page.getByTestId('actual-pixels-view').count()).toBe(0);
   });
 
   it('loads nothing from any other origin', () => {
