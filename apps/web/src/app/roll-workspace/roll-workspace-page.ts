@@ -293,6 +293,19 @@ export class RollWorkspacePage {
     });
     effect(() => this.draw(this.beforeCanvas()?.nativeElement, this.preview.before()));
     effect(() => this.draw(this.afterCanvas()?.nativeElement, this.preview.after()));
+    // where the pointer is over the stage, for 1:1: plain listeners, as following the pointer changes nothing shown
+    effect((onCleanup) => {
+      const stage = this.stage()?.nativeElement;
+      if (!stage) return;
+      const move = (e: PointerEvent) => (this.lastPointer = { x: e.clientX, y: e.clientY });
+      const leave = () => (this.lastPointer = null);
+      stage.addEventListener('pointermove', move, { passive: true });
+      stage.addEventListener('pointerleave', leave);
+      onCleanup(() => {
+        stage.removeEventListener('pointermove', move);
+        stage.removeEventListener('pointerleave', leave);
+      });
+    });
     // in 1:1, the selected frame's full-size JPEG (again when the frame was rendered again)
     effect(() => {
       const on = this.actual() !== null;
@@ -627,14 +640,6 @@ export class RollWorkspacePage {
 
   // --- 1:1: the saved full-size render at one image pixel per screen pixel
 
-  protected stagePointer(event: PointerEvent): void {
-    this.lastPointer = { x: event.clientX, y: event.clientY };
-  }
-
-  protected stageLeft(): void {
-    this.lastPointer = null;
-  }
-
   /** 1:1 at the spot under the pointer (or under the stage's centre), or back to the fitted frame. */
   protected toggleActual(): void {
     if (this.actual()) {
@@ -703,6 +708,13 @@ export class RollWorkspacePage {
       ...actualPixelsPlacement(view.spot, view.anchor, pixels, viewport, ratio),
       pixels,
     });
+  }
+
+  protected actualFailed(): void {
+    this.actualProblem.set('The full-size render could not be shown. Press 1 again to try once more.');
+    const image = this.actualImage();
+    if (image) URL.revokeObjectURL(image.url);
+    this.actualImage.set(null);
   }
 
   private actualPanFrom: { x: number; y: number; ox: number; oy: number } | null = null;
