@@ -1,6 +1,5 @@
 import { DatePipe, JsonPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, inject, type Signal, signal } from '@angular/core';
-import { takeUntilDestroyed, toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButton } from '@angular/material/button';
 import { MatFormField, MatLabel, MatPrefix } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
@@ -21,19 +20,9 @@ import {
   MatTable,
 } from '@angular/material/table';
 import type { AuditEntry } from '@clearbase/contracts';
-import { catchError, debounceTime, distinctUntilChanged, map, of, startWith, Subject, switchMap } from 'rxjs';
-import { readProblem } from '../problem/read-problem';
+import { afterTypingPause } from '../lists/after-typing-pause';
+import { serverList } from '../lists/server-list';
 import { AuditApi, type AuditPageRequest } from './audit-api';
-
-interface AuditView {
-  loading: boolean;
-  entries: AuditEntry[];
-  total: number;
-  problem: string | null;
-}
-
-// Typing in the action filter waits this long before asking the server (a common UI pause, our choice).
-const filterPauseMs = 300;
 
 /** Admin: the audit log, newest first, paged by the server, with a filter on the action. */
 @Component({
@@ -67,57 +56,31 @@ const filterPauseMs = 300;
 })
 export class AuditPage {
   private readonly api = inject(AuditApi);
-  private readonly typedAction = new Subject<string>();
 
   protected readonly columns = ['at', 'actor', 'action', 'target', 'details'];
   protected readonly pageIndex = signal(0);
   protected readonly pageSize = signal(50);
   protected readonly action = signal('');
-  private readonly reloads = signal(0);
 
-  private readonly request = computed<AuditPageRequest & { reload: number }>(() => ({
+  private readonly request = computed<AuditPageRequest>(() => ({
     limit: this.pageSize(),
     offset: this.pageIndex() * this.pageSize(),
     action: this.action().trim() || undefined,
-    reload: this.reloads(),
   }));
-
-  private readonly view: Signal<AuditView> = toSignal(
-    toObservable(this.request).pipe(
-      switchMap(({ reload: _reload, ...req }) =>
-        this.api.page(req).pipe(
-          map((r): AuditView => ({ loading: false, entries: r.entries, total: r.total, problem: null })),
-          catchError((err: unknown) =>
-            of<AuditView>({ loading: false, entries: [], total: 0, problem: readProblem(err).message }),
-          ),
-          startWith<AuditView>({
-            loading: true,
-            entries: this.entries(),
-            total: this.total(),
-            problem: null,
-          }),
-        ),
-      ),
-    ),
-    { initialValue: { loading: true, entries: [], total: 0, problem: null } satisfies AuditView },
-  );
-  protected readonly entries: Signal<AuditEntry[]> = computed(() => this.view().entries);
-  protected readonly total: Signal<number> = computed(() => this.view().total);
-  protected readonly loading = computed(() => this.view().loading);
-  protected readonly problem = computed(() => this.view().problem);
-
-  constructor() {
-    this.typedAction
-      .pipe(debounceTime(filterPauseMs), distinctUntilChanged(), takeUntilDestroyed())
-      .subscribe((value) => {
-        this.pageIndex.set(0);
-        this.action.set(value);
-      });
-  }
-
-  protected onActionInput(value: string): void {
-    this.typedAction.next(value);
-  }
+  private readonly list = serverList({
+    request: this.request,
+    load: (request: AuditPageRequest) => this.api.page(request),
+    empty: { entries: [] as AuditEntry[], total: 0 },
+  });
+  protected readonly entries: Signal<AuditEntry[]> = computed(() => this.list.value().entries);
+  protected readonly total: Signal<number> = computed(() => this.list.value().total);
+  protected readonly loading = this.list.loading;
+  protected readonly problem = this.list.problem;
+  /** Filters on the action a pause after typing, from the first page. */
+  protected readonly onActionInput = afterTypingPause((value) => {
+    this.pageIndex.set(0);
+    this.action.set(value);
+  });
 
   protected onPage(event: PageEvent): void {
     this.pageSize.set(event.pageSize);
@@ -125,7 +88,7 @@ export class AuditPage {
   }
 
   protected reload(): void {
-    this.reloads.update((n) => n + 1);
+    this.list.reload();
   }
 
   protected hasDetails(entry: AuditEntry): boolean {

@@ -58,6 +58,7 @@ async function render(users: UserRecord[] = people): Promise<Rendered> {
   TestBed.inject(Session).load().subscribe();
   backend.expectOne('/api/auth/me').flush(me);
   const fixture = TestBed.createComponent(UsersPage);
+  await fixture.whenStable();
   backend.expectOne('/api/users').flush({ users });
   await fixture.whenStable();
   return {

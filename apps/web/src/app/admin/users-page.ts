@@ -1,13 +1,5 @@
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  signal,
-  viewChild,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal, viewChild } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormField, MatLabel, MatPrefix } from '@angular/material/form-field';
@@ -35,6 +27,8 @@ import {
 import { MatTooltip } from '@angular/material/tooltip';
 import type { Role, UserRecord } from '@clearbase/contracts';
 import { Session } from '../auth/session';
+import { bindTable } from '../lists/bind-table';
+import { serverList } from '../lists/server-list';
 import { readProblem } from '../problem/read-problem';
 import { roleChoices, roleLabel } from '../shell/role-label';
 import { ConfirmDialog, type ConfirmDialogData } from './confirm-dialog';
@@ -85,8 +79,9 @@ export class UsersPage {
   protected readonly roleLabel = roleLabel;
   protected readonly columns = ['name', 'role', 'disabled', 'lastSignInAt', 'createdAt', 'actions'];
   protected readonly dataSource = new MatTableDataSource<UserRecord>([]);
-  protected readonly loading = signal(true);
-  protected readonly problem = signal<string | null>(null);
+  private readonly list = serverList({ load: () => this.api.list(), empty: [] as UserRecord[] });
+  protected readonly loading = this.list.loading;
+  protected readonly problem = this.list.problem;
   protected readonly filter = signal('');
   /** Rows with a change on its way to the server. */
   protected readonly pending = signal<ReadonlySet<number>>(new Set());
@@ -98,26 +93,7 @@ export class UsersPage {
   constructor() {
     this.dataSource.filterPredicate = (u, term) =>
       `${u.name}\n${u.email}\n${u.role}\n${roleLabel(u.role)}`.toLowerCase().includes(term);
-    effect(() => {
-      this.dataSource.sort = this.sort();
-      this.dataSource.paginator = this.paginator();
-    });
-    this.load();
-  }
-
-  protected load(): void {
-    this.loading.set(true);
-    this.api.list().subscribe({
-      next: (users) => {
-        this.dataSource.data = users;
-        this.loading.set(false);
-        this.problem.set(null);
-      },
-      error: (err: unknown) => {
-        this.loading.set(false);
-        this.problem.set(readProblem(err).message);
-      },
-    });
+    bindTable(this.dataSource, { rows: this.list.value, sort: this.sort, paginator: this.paginator });
   }
 
   protected applyFilter(value: string): void {

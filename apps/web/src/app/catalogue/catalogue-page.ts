@@ -1,14 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  signal,
-  type Signal,
-  viewChild,
-} from '@angular/core';
-import { takeUntilDestroyed, toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject, signal, viewChild } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
@@ -35,21 +25,13 @@ import {
 } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import type { FilmProcess, Stock } from '@clearbase/contracts';
-import { catchError, debounceTime, distinctUntilChanged, map, of, startWith, Subject, switchMap } from 'rxjs';
 import { Session } from '../auth/session';
-import { readProblem } from '../problem/read-problem';
+import { afterTypingPause } from '../lists/after-typing-pause';
+import { bindTable } from '../lists/bind-table';
+import { serverList } from '../lists/server-list';
 import { CatalogueApi, type StockFilters } from './catalogue-api';
 import { NewStockDialog } from './new-stock-dialog';
 import { maskingLabel, processChoices, processLabel } from './stock-labels';
-
-interface CatalogueView {
-  loading: boolean;
-  stocks: Stock[];
-  problem: string | null;
-}
-
-// Typing in the search waits this long before asking the server (a common UI pause, our choice).
-const searchPauseMs = 300;
 
 /** Every signed-in user: the stock catalogue, searched and filtered by the server, sorted in the table. */
 @Component({
@@ -90,7 +72,6 @@ export class CataloguePage {
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
   private readonly session = inject(Session);
-  private readonly typedSearch = new Subject<string>();
 
   protected readonly processes = processChoices;
   protected readonly processLabel = processLabel;
@@ -108,33 +89,24 @@ export class CataloguePage {
   protected readonly search = signal('');
   protected readonly process = signal<FilmProcess | ''>('');
   protected readonly masking = signal<StockFilters['masking']>('');
-  private readonly reloads = signal(0);
   protected readonly filtered = computed(
     () => this.search().trim() !== '' || !!this.process() || !!this.masking(),
   );
 
-  private readonly request = computed(() => ({
-    filters: { q: this.search(), process: this.process(), masking: this.masking() } satisfies StockFilters,
-    reload: this.reloads(),
+  private readonly filters = computed((): StockFilters => ({
+    q: this.search(),
+    process: this.process(),
+    masking: this.masking(),
   }));
-
-  private readonly view: Signal<CatalogueView> = toSignal(
-    toObservable(this.request).pipe(
-      switchMap(({ filters }) =>
-        this.api.stocks(filters).pipe(
-          map((stocks): CatalogueView => ({ loading: false, stocks, problem: null })),
-          catchError((err: unknown) =>
-            of<CatalogueView>({ loading: false, stocks: [], problem: readProblem(err).message }),
-          ),
-          startWith<CatalogueView>({ loading: true, stocks: this.dataSource.data, problem: null }),
-        ),
-      ),
-    ),
-    { initialValue: { loading: true, stocks: [], problem: null } satisfies CatalogueView },
-  );
-  protected readonly loading = computed(() => this.view().loading);
-  protected readonly problem = computed(() => this.view().problem);
-
+  private readonly list = serverList({
+    request: this.filters,
+    load: (filters: StockFilters) => this.api.stocks(filters),
+    empty: [] as Stock[],
+  });
+  protected readonly loading = this.list.loading;
+  protected readonly problem = this.list.problem;
+  /** Sends the search to the server a pause after typing. */
+  private readonly typedSearch = afterTypingPause((value) => this.search.set(value));
   private readonly sort = viewChild.required(MatSort);
 
   constructor() {
@@ -144,25 +116,17 @@ export class CataloguePage {
       const value = stock[column as keyof Stock];
       return typeof value === 'number' ? value : String(value).toLowerCase();
     };
-    effect(() => {
-      this.dataSource.sort = this.sort();
-    });
-    effect(() => {
-      this.dataSource.data = this.view().stocks;
-    });
-    this.typedSearch
-      .pipe(debounceTime(searchPauseMs), distinctUntilChanged(), takeUntilDestroyed())
-      .subscribe((value) => this.search.set(value));
+    bindTable(this.dataSource, { rows: this.list.value, sort: this.sort });
   }
 
   protected onSearchInput(value: string): void {
     this.searchText.set(value);
-    this.typedSearch.next(value);
+    this.typedSearch(value);
   }
 
   protected clearFilters(): void {
     this.searchText.set('');
-    this.typedSearch.next('');
+    this.typedSearch('');
     this.search.set('');
     this.process.set('');
     this.masking.set('');
@@ -174,7 +138,7 @@ export class CataloguePage {
       .afterClosed()
       .subscribe((stock) => {
         if (!stock) return;
-        this.reloads.update((n) => n + 1);
+        this.list.reload();
         this.snackBar.open(`${stock.name} was added to the catalogue.`, undefined, { duration: 4000 });
       });
   }

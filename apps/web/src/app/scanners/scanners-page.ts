@@ -1,5 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject, signal, type Signal } from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIcon } from '@angular/material/icon';
@@ -19,18 +18,11 @@ import {
   MatTable,
 } from '@angular/material/table';
 import type { Scanner } from '@clearbase/contracts';
-import { catchError, map, of, startWith, switchMap } from 'rxjs';
 import { Session } from '../auth/session';
-import { readProblem } from '../problem/read-problem';
+import { serverList } from '../lists/server-list';
 import { ScannerDialog } from './scanner-dialog';
 import { encodingLabel, kindLabel } from './scanner-labels';
 import { ScannersApi } from './scanners-api';
-
-interface ScannersView {
-  loading: boolean;
-  scanners: Scanner[];
-  problem: string | null;
-}
 
 /** Three channel values as the table prints them. */
 function triple(values: readonly number[]): string {
@@ -81,24 +73,10 @@ export class ScannersPage {
     'gains',
     ...(this.canEdit() ? ['actions'] : []),
   ]);
-  private readonly reloads = signal(0);
-  private readonly view: Signal<ScannersView> = toSignal(
-    toObservable(this.reloads).pipe(
-      switchMap(() =>
-        this.api.list().pipe(
-          map((scanners): ScannersView => ({ loading: false, scanners, problem: null })),
-          catchError((err: unknown) =>
-            of<ScannersView>({ loading: false, scanners: [], problem: readProblem(err).message }),
-          ),
-          startWith<ScannersView>({ loading: true, scanners: this.scanners(), problem: null }),
-        ),
-      ),
-    ),
-    { initialValue: { loading: true, scanners: [], problem: null } satisfies ScannersView },
-  );
-  protected readonly scanners = computed(() => this.view().scanners);
-  protected readonly loading = computed(() => this.view().loading);
-  protected readonly problem = computed(() => this.view().problem);
+  private readonly list = serverList({ load: () => this.api.list(), empty: [] as Scanner[] });
+  protected readonly scanners = this.list.value;
+  protected readonly loading = this.list.loading;
+  protected readonly problem = this.list.problem;
 
   protected open(scanner: Scanner | null): void {
     this.dialog
@@ -110,7 +88,7 @@ export class ScannersPage {
       .afterClosed()
       .subscribe((saved) => {
         if (!saved) return;
-        this.reloads.update((n) => n + 1);
+        this.list.reload();
         this.snackBar.open(`${saved.name} was ${scanner ? 'saved' : 'added'}.`, undefined, {
           duration: 4000,
         });
