@@ -173,6 +173,21 @@ describe('OrderPage', () => {
     expect(dialogId('add-roll-error').textContent).toContain('The request is not valid.');
   });
 
+  it('offers no plain move to Ready: an order gets there through Mark ready, which mails the customer', async () => {
+    const { fixture, backend, byId } = await render('operator');
+    byId('order-advance')!.click();
+    backend.expectOne('/api/orders/3').flush({ ...detail.order, status: 'tuning' });
+    await fixture.whenStable();
+    backend.expectOne('/api/orders/3').flush({ ...detail, order: { ...detail.order, status: 'tuning' } });
+    await fixture.whenStable();
+    expect(byId('order-advance')).toBeNull();
+    byId('order-move')!.click();
+    await fixture.whenStable();
+    expect(document.querySelector('[data-testid="order-move-ready"]')).toBeNull();
+    expect(document.querySelector('[data-testid="order-move-delivered"]')).not.toBeNull();
+    expect(byId('order-mark-ready')).not.toBeNull();
+  });
+
   it('keeps Mark ready greyed out and says which rolls still wait', async () => {
     const { byId } = await render('operator');
     expect((byId('order-mark-ready') as HTMLButtonElement).disabled).toBe(true);

@@ -110,15 +110,17 @@ export class OrderPage {
     const order = this.order();
     return order ? orderTimeline(order.status) : [];
   });
+  /** The next status, except Ready: an order becomes ready through Mark ready, which mails the customer. */
   protected readonly next = computed(() => {
     const order = this.order();
-    return order && !orderClosed(order.status) ? nextOrderStatus(order.status) : null;
+    const next = order && !orderClosed(order.status) ? nextOrderStatus(order.status) : null;
+    return next === 'ready' ? null : next;
   });
-  /** Statuses an open order may be moved to other than the next one. */
+  /** Statuses an open order may be moved to other than the next one (Ready only through Mark ready). */
   protected readonly otherMoves = computed(() => {
     const order = this.order();
     if (!order || orderClosed(order.status)) return [];
-    return orderStatusChoices.filter((s) => s !== order.status && s !== this.next());
+    return orderStatusChoices.filter((s) => s !== order.status && s !== this.next() && s !== 'ready');
   });
   protected readonly moving = signal(false);
   /** Customers see the gallery once the scans are ready; staff may look at any time. */
