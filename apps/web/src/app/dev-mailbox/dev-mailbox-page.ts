@@ -2,6 +2,7 @@ import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, type OnInit, inject, signal } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatButtonToggle, MatButtonToggleGroup } from '@angular/material/button-toggle';
+import { RouterLink } from '@angular/router';
 import type { CaughtMail, CaughtMailSummary } from '@clearbase/contracts';
 import { readProblem } from '../problem/read-problem';
 import { DevMailboxApi } from './dev-mailbox-api';
@@ -9,7 +10,7 @@ import { DevMailboxApi } from './dev-mailbox-api';
 /** Development mailbox: the mail the local catcher caught, newest first, as text or as sandboxed HTML. */
 @Component({
   selector: 'cb-dev-mailbox-page',
-  imports: [DatePipe, MatButton, MatButtonToggleGroup, MatButtonToggle],
+  imports: [DatePipe, RouterLink, MatButton, MatButtonToggleGroup, MatButtonToggle],
   templateUrl: './dev-mailbox-page.html',
   styleUrl: './dev-mailbox-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
