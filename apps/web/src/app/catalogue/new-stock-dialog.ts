@@ -13,6 +13,7 @@ import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import type { CreateStockRequest, FilmProcess, Stock } from '@clearbase/contracts';
 import { FormSubmission } from '../forms/form-submission';
+import { SubmissionProblem } from '../forms/submission-problem';
 import { CatalogueApi } from './catalogue-api';
 import { processChoices, processLabel } from './stock-labels';
 import { StockSheetFields } from './stock-sheet-fields';
@@ -24,6 +25,7 @@ import { defaultReciprocityExponent, speedRange, stockFieldError, wholeNumber } 
   selector: 'cb-new-stock-dialog',
   imports: [
     ReactiveFormsModule,
+    SubmissionProblem,
     MatDialogTitle,
     MatDialogContent,
     MatDialogActions,
@@ -71,10 +73,8 @@ export class NewStockDialog {
       handlingNotes: '',
     }),
   });
-  private readonly submission = new FormSubmission(this.form);
+  protected readonly submission = new FormSubmission(this.form);
   protected readonly busy = this.submission.busy;
-  protected readonly problem = this.submission.problem;
-  protected readonly unclaimed = this.submission.unclaimed;
 
   /** The message a field shows under it. */
   protected errorOf(name: string): string {

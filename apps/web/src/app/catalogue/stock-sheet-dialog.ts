@@ -13,6 +13,7 @@ import { MatError, MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatInput } from '@angular/material/input';
 import type { Stock, UpdateStockSheetRequest } from '@clearbase/contracts';
 import { FormSubmission } from '../forms/form-submission';
+import { SubmissionProblem } from '../forms/submission-problem';
 import { CatalogueApi } from './catalogue-api';
 import { StockSheetFields } from './stock-sheet-fields';
 import { stockSheetControls, stockSheetRequest } from './stock-sheet-form';
@@ -23,6 +24,7 @@ import { stockFieldError } from './stock-limits';
   selector: 'cb-stock-sheet-dialog',
   imports: [
     ReactiveFormsModule,
+    SubmissionProblem,
     MatDialogTitle,
     MatDialogContent,
     MatDialogActions,
@@ -45,10 +47,8 @@ export class StockSheetDialog {
   private readonly fb = inject(NonNullableFormBuilder);
 
   protected readonly form = this.fb.group(stockSheetControls(this.fb, this.stock));
-  private readonly submission = new FormSubmission(this.form);
+  protected readonly submission = new FormSubmission(this.form);
   protected readonly busy = this.submission.busy;
-  protected readonly problem = this.submission.problem;
-  protected readonly unclaimed = this.submission.unclaimed;
 
   protected errorOf(name: string): string {
     return stockFieldError(this.form.get(name)?.errors);

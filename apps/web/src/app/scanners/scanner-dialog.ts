@@ -17,6 +17,7 @@ import type { CreateScannerRequest, Scanner, ScannerKind, ScannerProfile } from 
 import { bodyPath } from '../forms/apply-field-problems';
 import { fieldErrorText } from '../forms/field-error-text';
 import { FormSubmission } from '../forms/form-submission';
+import { SubmissionProblem } from '../forms/submission-problem';
 import { kindChoices, kindLabel } from './scanner-labels';
 import { ScannersApi } from './scanners-api';
 
@@ -35,6 +36,7 @@ export const channelNames = ['Red', 'Green', 'Blue'] as const;
   selector: 'cb-scanner-dialog',
   imports: [
     ReactiveFormsModule,
+    SubmissionProblem,
     MatDialogTitle,
     MatDialogContent,
     MatDialogActions,
@@ -61,8 +63,21 @@ export class ScannerDialog {
   protected readonly kinds = kindChoices;
   protected readonly kindLabel = kindLabel;
   protected readonly channels = channelNames;
-  protected readonly blackLevelMax = blackLevelMax;
-  protected readonly gainMax = gainMax;
+  /** The input profile's two rows of one value per channel. */
+  protected readonly channelRows = [
+    {
+      array: 'blackLevel',
+      testId: 'black',
+      step: 0.001,
+      label: `Black level, as a fraction of full scale (0 to ${blackLevelMax})`,
+    },
+    {
+      array: 'gains',
+      testId: 'gain',
+      step: 0.01,
+      label: `Channel gains, from a scan of the bare light (above 0, at most ${gainMax})`,
+    },
+  ] as const;
   protected readonly gammaRange = gammaRange;
 
   private readonly channel = (value: number, min: number, max: number, minExclusive: boolean) =>
@@ -91,14 +106,12 @@ export class ScannerDialog {
       ),
     }),
   });
-  private readonly submission = new FormSubmission(this.form, (path) => {
+  protected readonly submission = new FormSubmission(this.form, (path) => {
     const field = bodyPath(path);
     // the profile's own name is the scanner's name, sent twice
     return this.form.get(field === 'inputProfile.name' ? 'name' : field);
   });
   protected readonly busy = this.submission.busy;
-  protected readonly problem = this.submission.problem;
-  protected readonly unclaimed = this.submission.unclaimed;
   protected readonly usesGamma = signal(this.form.controls.inputProfile.controls.encoding.value === 'gamma');
 
   constructor() {
