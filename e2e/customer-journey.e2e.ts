@@ -117,36 +117,87 @@ describe('a customer’s whole journey', () => {
     await page.goto(link!);
     await page.getByTestId('verify-done').waitFor();
 
-    // the order of two rolls is placed through the API (the ordering form is not built yet)
+    // signed in, the customer orders two rolls through the order form's steps
+    await page.getByTestId('verify-sign-in').click();
+    await page.getByTestId('sign-in-email').fill(customerEmail);
+    await page.getByTestId('sign-in-password').fill(customerPassword);
+    await page.getByTestId('sign-in-submit').click();
+    await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
     const customer = await apiAs(customerEmail, customerPassword);
     const { stocks } = (await (await customer.get('/api/stocks')).json()) as {
-      stocks: { id: number; frameFormats: string[]; process: string }[];
+      stocks: { id: number; name: string; frameFormats: string[]; process: string }[];
     };
-    const stock = stocks.find((s) => s.frameFormats.includes('135-36') && s.process === 'C-41')!;
-    const order = (await (await customer.post('/api/orders', { outputFormats: ['jpeg'] })).json()) as {
-      id: number;
-    };
-    const rollIds: number[] = [];
-    for (const pushPull of [0, 1]) {
-      const roll = await customer.post(`/api/orders/${order.id}/rolls`, {
-        stockId: stock.id,
-        ei: 400,
-        format: '135-36',
-        pushPull,
-      });
-      expect(roll.status).toBe(201);
-      rollIds.push(((await roll.json()) as { id: number }).id);
+    // a C-41 stock on 135 that can be ordered: it has a published profile version
+    let stock: (typeof stocks)[number] | undefined;
+    for (const candidate of stocks.filter((s) => s.frameFormats.includes('135-36') && s.process === 'C-41')) {
+      const { profiles } = (await (await customer.get(`/api/stocks/${candidate.id}`)).json()) as {
+        profiles: { versions: { status: string }[] }[];
+      };
+      if (profiles.some((p) => p.versions.some((v) => v.status === 'published'))) {
+        stock = candidate;
+        break;
+      }
     }
-    const received = await caughtMailTo(customerEmail, /^We have your order/);
-    expect(received.text).toContain(`/orders/${order.id}`);
+    expect(stock).toBeDefined();
+    await page.goto(`${server.url}/orders`);
+    await page.getByTestId('orders-new').click();
+    for (const [i, development] of ['Normal', '+1 stop push'].entries()) {
+      if (i > 0) await page.getByTestId('add-roll-line').click();
+      await page.getByTestId(`roll-${i}-stock`).click();
+      await page.locator('mat-option', { hasText: stock!.name }).first().click();
+      await page.getByTestId(`roll-${i}-ei`).fill('400');
+      await page.getByTestId(`roll-${i}-push-pull`).click();
+      await page.getByRole('option', { name: development, exact: true }).click();
+      await page.getByTestId(`roll-${i}-format`).fill('135-36');
+      await page.keyboard.press('Escape');
+    }
+    await page.getByTestId('rolls-next').click();
+    await page.getByTestId('scans-next').click();
+    await page.getByTestId('negatives-post').locator('input').check();
+    await page.getByTestId('address-name').fill('Ottilie Marsh');
+    await page.getByTestId('address-line1').fill('3 Heron Steps');
+    await page.getByTestId('address-town').fill('Fenmouth');
+    await page.getByTestId('address-postcode').fill('FM1 2AB');
+    await page.getByTestId('address-country').fill('Testland');
+    await page.getByTestId('delivery-next').click();
+    await page.getByTestId('new-order-notes').fill('The second roll was shot at dusk.');
+    await page.getByTestId('notes-next').click();
 
-    // paid on the payment fake's page in the browser
-    const checkout = await customer.post(`/api/orders/${order.id}/checkout`);
-    expect(checkout.status).toBe(201);
-    const { checkoutUrl } = (await checkout.json()) as { checkoutUrl: string };
-    await page.goto(checkoutUrl);
+    // the review shows the lab's price, from its price list, before anything is paid
+    const expected = (await (
+      await customer.post('/api/prices/quote', {
+        scanSize: 'standard',
+        rolls: [0, 1].map((pushPull) => ({ format: '135-36', process: 'C-41', pushPull })),
+      })
+    ).json()) as { currency: string; totalMinor: number };
+    const total = page.getByTestId('quote-total');
+    await total.waitFor();
+    expect((await total.textContent())!.trim()).toBe(
+      new Intl.NumberFormat('en-GB', { style: 'currency', currency: expected.currency }).format(
+        expected.totalMinor / 100,
+      ),
+    );
+    await browser.screenshot('new-order-review');
+
+    // placing it goes straight to the payment fake's page, where the customer pays
+    await page.getByTestId('place-order').click();
     await page.getByTestId('fake-approve').click();
     await page.waitForURL((url) => url.origin === server.url);
+    const orderId = Number(/\/orders\/(\d+)/.exec(page.url())?.[1]);
+    expect(orderId).toBeGreaterThan(0);
+    const order = { id: orderId };
+    const detail = (await (await customer.get(`/api/orders/${order.id}`)).json()) as {
+      order: { negatives: { method: string } };
+      rolls: { id: number; pushPull: number; ei: number; format: string }[];
+    };
+    expect(detail.order.negatives.method).toBe('post');
+    expect(detail.rolls.map((r) => [r.ei, r.pushPull, r.format])).toEqual([
+      [400, 0, '135-36'],
+      [400, 1, '135-36'],
+    ]);
+    const rollIds = detail.rolls.map((r) => r.id);
+    const received = await caughtMailTo(customerEmail, /^We have your order/);
+    expect(received.text).toContain(`/orders/${order.id}`);
     await until('the payment', async () => {
       const { payments } = (await (await customer.get(`/api/orders/${order.id}/payments`)).json()) as {
         payments: { status: string }[];
