@@ -61,15 +61,4 @@ describe('OrderPaymentPanel', () => {
     expect(el(fixture, 'payment-pay')).toBeNull();
     expect(el(fixture, 'payment-refund')).toBeNull();
   });
-
-  it('lets a manager refund a paid payment', async () => {
-    const { fixture, backend } = await render('manager', [paid]);
-    el(fixture, 'payment-refund')!.click();
-    backend
-      .expectOne({ method: 'POST', url: '/api/payments/5/refund' })
-      .flush({ payment: { ...paid, status: 'refunded', refundedMinor: 4300 } });
-    await fixture.whenStable();
-    expect(el(fixture, 'payment-line')?.textContent).toContain('Refunded');
-    expect(el(fixture, 'payment-line')?.textContent).toContain('€43.00 refunded');
-  });
 });

@@ -16,8 +16,9 @@ const statusLabels: Record<PaymentStatus, string> = {
 };
 
 /**
- * An order's payments: its customer pays on the provider's page (priced there from the price list); managers and
- * admins refund. Place it on an order's page with `<cb-order-payment-panel [orderId]="id" />`.
+ * An order's payments as its customer sees them: what was paid or refunded, and paying on the provider's page
+ * (priced there from the price list). Staff see the payments, and refund, on the order page's own section. Place it
+ * on an order's page with `<cb-order-payment-panel [orderId]="id" />`.
  */
 @Component({
   selector: 'cb-order-payment-panel',
@@ -33,11 +34,6 @@ const statusLabels: Record<PaymentStatus, string> = {
           {{ showMoney(p.amountMinor, p.currency) }} · {{ statusLabels[p.status] }}
           @if (p.refundedMinor > 0) {
             · {{ showMoney(p.refundedMinor, p.currency) }} refunded
-          }
-          @if (canRefund() && (p.status === 'paid' || p.status === 'partly-refunded')) {
-            <button mat-stroked-button type="button" (click)="refund(p)" data-testid="payment-refund">
-              Refund the rest
-            </button>
           }
         </p>
       } @empty {
@@ -64,7 +60,6 @@ export class OrderPaymentPanel {
   protected readonly problem = signal<string | null>(null);
   protected readonly statusLabels = statusLabels;
   protected readonly showMoney = showMoney;
-  protected readonly canRefund = computed(() => this.role() === 'manager' || this.role() === 'admin');
   protected readonly canPay = computed(
     () =>
       this.role() === 'customer' &&
@@ -93,14 +88,6 @@ export class OrderPaymentPanel {
         this.busy.set(false);
         this.problem.set(readProblem(err).message);
       },
-    });
-  }
-
-  protected refund(payment: Payment): void {
-    this.problem.set(null);
-    this.api.refund(payment.id).subscribe({
-      next: (updated) => this.payments.update((list) => list.map((p) => (p.id === updated.id ? updated : p))),
-      error: (err: unknown) => this.problem.set(readProblem(err).message),
     });
   }
 }
