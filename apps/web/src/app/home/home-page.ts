@@ -2,6 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/c
 import { RouterLink } from '@angular/router';
 import { MatIcon } from '@angular/material/icon';
 import { Session } from '../auth/session';
+import { ClientConfig } from '../shell/client-config';
 import { navEntriesFor } from '../shell/nav-entries';
 import { roleLabel } from '../shell/role-label';
 import { roleDuties } from './role-duties';
@@ -16,6 +17,7 @@ import { roleDuties } from './role-duties';
 })
 export class HomePage {
   private readonly session = inject(Session);
+  private readonly clientConfig = inject(ClientConfig);
 
   protected readonly user = this.session.user;
   protected readonly firstName = computed(() => (this.user()?.name ?? '').split(/\s+/)[0] ?? '');
@@ -25,6 +27,8 @@ export class HomePage {
     return role === null ? [] : roleDuties[role];
   });
   protected readonly pages = computed(() =>
-    navEntriesFor(this.session.role()).filter((e) => e.name !== 'home'),
+    navEntriesFor(this.session.role(), { localFakes: this.clientConfig.localFakes() }).filter(
+      (e) => e.name !== 'home',
+    ),
   );
 }
