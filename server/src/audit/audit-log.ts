@@ -13,7 +13,8 @@ export type AuditAction =
   | 'user-role-changed'
   | 'user-disabled'
   | 'user-enabled'
-  | 'settings-changed';
+  | 'settings-changed'
+  | 'mail-retried';
 
 export interface AuditEvent {
   at: Date;

@@ -79,6 +79,12 @@ describe('the outbox for admins', () => {
     mailServer.down = false;
     const retried = await admin.post(`/api/admin/outbox/${id}/retry`).expect(202);
     expect(retried.body.entry).toMatchObject({ id, state: 'pending', nextAttemptAt: start.toISOString() });
+    const audit = await t.db
+      .selectFrom('audit_log')
+      .select(['action', 'target'])
+      .where('action', '=', 'mail-retried')
+      .execute();
+    expect(audit).toEqual([{ action: 'mail-retried', target: `outbox:${id}` }]);
     expect(await sender.runOnce()).toBe(1);
     expect(mailServer.accepted.map((m) => m.to)).toEqual(['forgetful@example.test']);
     expect((await admin.get('/api/admin/outbox?status=pending')).body.entries).toEqual([]);

@@ -1,3 +1,4 @@
+import { recordAudit } from '../audit/audit-log';
 import { outboxQuerySchema, type OutboxEntry } from '@clearbase/contracts';
 import { z } from 'zod';
 import { AppError } from '../errors/app-error';
@@ -66,6 +67,13 @@ export const outboxAdminRoutes: RouteModule = (api, { db, clock, logger }) => {
         );
       }
       logger.info({ outboxId: row.id, by: user!.id }, 'an admin asked to retry an e-mail now');
+      await recordAudit(db, {
+        at: clock.now(),
+        actor: { id: user!.id, email: user!.email },
+        action: 'mail-retried',
+        target: `outbox:${row.id}`,
+        details: { to: row.to_address, subject: row.subject },
+      });
       res.status(202).json({ entry: toOutboxEntry((await findMail(db, row.id))!) });
     },
   );
