@@ -6,7 +6,7 @@ import type {
   PixelRegion,
   QcFlag,
 } from '@clearbase/contracts';
-import { outputFormats } from '@clearbase/contracts';
+import { outputFormats, readStoredAdjustments } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
 import type { FrameOutputKind, FrameRow } from '../orders/order-tables';
@@ -153,7 +153,7 @@ export function toFrame(row: FrameRow, outputs: OutputFormat[] = []): Frame {
       source: row.base_source,
       measured: parse<MeasuredBase>(row.base_measured),
     },
-    adjustments: JSON.parse(row.adjustments) as Adjustments,
+    adjustments: readStoredAdjustments(row.adjustments),
     attempts: row.attempts,
     error: row.error,
     warnings: JSON.parse(row.warnings) as string[],

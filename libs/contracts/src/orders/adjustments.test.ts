@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { balanceSchema } from '../profile/profile-document';
-import { adjustmentsSchema, isSixthOfStop } from './roll';
+import { adjustmentsSchema, isSixthOfStop, readStoredAdjustments } from './roll';
 
 describe('adjustments of a roll or a frame', () => {
   it('moves black and white points by up to 3 stops in steps of 1/6 stop', () => {
@@ -51,5 +51,23 @@ describe('printer points and exposure steps of a roll or a frame', () => {
     expect(balanceSchema.parse({ cyanRed: 0.4, magentaGreen: -1.25, yellowBlue: 2.2 }).magentaGreen).toBe(
       -1.25,
     );
+  });
+});
+
+describe('stored adjustments', () => {
+  it('read back with no point shift when saved before the shifts existed', () => {
+    const saved =
+      '{"balance":{"cyanRed":2,"magentaGreen":0,"yellowBlue":-1},"exposureStops":0.5,"contrast":1.1}';
+    expect(readStoredAdjustments(saved)).toEqual({
+      balance: { cyanRed: 2, magentaGreen: 0, yellowBlue: -1 },
+      exposureStops: 0.5,
+      contrast: 1.1,
+      blackPointStops: 0,
+      whitePointStops: 0,
+    });
+    expect(
+      readStoredAdjustments(JSON.stringify({ ...readStoredAdjustments(saved), whitePointStops: 1 }))
+        .whitePointStops,
+    ).toBe(1);
   });
 });

@@ -70,6 +70,15 @@ export const neutralAdjustments: Adjustments = {
   whitePointStops: 0,
 };
 
+/**
+ * Adjustments read back from their stored JSON: a field added since they were saved (the black and white point
+ * shifts) takes its neutral value.
+ * @example readStoredAdjustments('{"balance":{"cyanRed":2,"magentaGreen":0,"yellowBlue":0},"exposureStops":0,"contrast":null}').blackPointStops // 0
+ */
+export function readStoredAdjustments(json: string): Adjustments {
+  return { ...neutralAdjustments, ...(JSON.parse(json) as Partial<Adjustments>) };
+}
+
 /** Where a roll stands on the way from scans to finished positives. */
 export const rollStatuses = [
   'awaiting-scans',
