@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { demoCalibrationFrame, demoCalibrationLayout } from '../server/src/demo/demo-calibration-layout';
 import { openBrowser, type BrowserSession } from './support/browser-session';
 import { startTestServer, type TestServer } from './support/test-server';
 
@@ -70,14 +71,21 @@ async function onScreen(testId: string, [x, y]: readonly number[], frame: { widt
   return { x: box.x + (fx / frame.width) * box.width, y: box.y + (fy / frame.height) * box.height };
 }
 
+/** Signs in afresh as a demo account. */
+async function signIn(email: string) {
+  const { page } = browser;
+  await browser.context.clearCookies();
+  await page.goto(`${server.url}/sign-in`);
+  await page.getByTestId('sign-in-email').fill(email);
+  await page.getByTestId('sign-in-password').fill(demoPassword);
+  await page.getByTestId('sign-in-submit').click();
+  await page.getByTestId('home-greeting').waitFor();
+}
+
 describe('calibration', () => {
   it('an operator uploads a calibration roll, marks the chart by clicking its corners and sees the report with its draft', async () => {
     const { page } = browser;
-    await page.goto(`${server.url}/sign-in`);
-    await page.getByTestId('sign-in-email').fill('operator@clearbase.test');
-    await page.getByTestId('sign-in-password').fill(demoPassword);
-    await page.getByTestId('sign-in-submit').click();
-    await page.getByTestId('home-greeting').waitFor();
+    await signIn('operator@clearbase.test');
 
     await page.getByTestId('nav-calibration').click();
     // the field's floating label lies over the empty select: the click reaches the field, which opens it
@@ -132,5 +140,102 @@ describe('calibration', () => {
     }, versionId);
     expect(status).toBe('draft');
     expect(await page.getByTestId('pdf-link').getAttribute('href')).toMatch(/\/report\.pdf$/);
+  });
+
+  it('an operator loads the demo lab’s roll on file, keeps the grey rectangle, marks the chart, fits it and edits the draft', async () => {
+    const { page } = browser;
+    await signIn('operator@clearbase.test');
+    await page.getByTestId('nav-calibration').click();
+    await page.getByTestId('rolls-on-file').getByText('Fenlight 100 (trial)').waitFor();
+    await page.getByTestId('load-roll-1').click();
+
+    // the bracket comes with its stops; the grey rectangle the page proposes (the first frame's central half) is kept
+    await page.getByTestId('bracket-table').waitFor();
+    const stops = await page
+      .locator('[data-testid^="stops-"]')
+      .evaluateAll((inputs) => inputs.map((i) => Number((i as HTMLInputElement).value)));
+    expect(stops).toEqual([-3, -2, -1, 0, 1, 2, 3, 4]);
+    await page.getByTestId('grey-marker').waitFor();
+    // the proposed rectangle lies on the grey card, clear of the rebates above and below it
+    const proposed = (await page.getByTestId('grey-region').textContent())!.match(/\d+/g)!.map(Number);
+    const [, gy, , gh] = proposed;
+    const { rebate, height } = demoCalibrationFrame;
+    expect(gy).toBeGreaterThanOrEqual(rebate);
+    expect(gy! + gh!).toBeLessThanOrEqual(height - rebate);
+    await page.getByText('leader.tif').waitFor();
+
+    await page.getByTestId('chart-marker').waitFor();
+    // each click is placed on the marker when it is clicked, after it has stopped moving (previews load in any order)
+    const marker = page.getByTestId('chart-marker');
+    const size = (await marker.boundingBox())!;
+    const { chart } = demoCalibrationLayout;
+    for (const [x, y] of demoCalibrationLayout.chartCorners) {
+      const fx = Math.min(chart.width - 0.5, Math.max(0.5, x));
+      const fy = Math.min(chart.height - 0.5, Math.max(0.5, y));
+      await marker.click({
+        position: { x: (fx / chart.width) * size.width, y: (fy / chart.height) * size.height },
+      });
+    }
+    await browser.screenshot('calibration-demo-roll-marked');
+    expect(await page.getByTestId('corner-hint').textContent()).toContain('All four corners set');
+    expect(await page.getByTestId('sample-area').count()).toBe(24);
+    await page.getByTestId('calibration-submit').click();
+    await page
+      .getByTestId('report-title')
+      .filter({ hasText: 'Fenlight 100 (trial)' })
+      .waitFor({ timeout: 60_000 });
+
+    // three curves, the ΔE00 table and the warnings
+    for (const channel of ['red', 'green', 'blue']) await page.getByTestId(`curve-${channel}`).waitFor();
+    expect(await page.getByTestId('delta-e-row').count()).toBe(24);
+    expect(await page.getByTestId('calibration-warnings').locator('li').count()).toBeGreaterThan(0);
+    expect(await page.getByTestId('calibration-warnings').textContent()).toMatch(/speed point/i);
+    await browser.screenshot('calibration-report-demo-roll');
+
+    const calibrationId = Number(page.url().split('/').pop());
+
+    // the draft was saved with the fit: it opens in the profile editor, where a change is saved to it
+    await page.getByTestId('draft-link').click();
+    await page.getByTestId('editor-status').filter({ hasText: 'Draft' }).waitFor();
+    expect(await page.getByTestId('editor-title').textContent()).toContain('Fenlight 100 (trial)');
+    const draftId = Number(page.url().split('/').pop());
+    const saturationOf = () =>
+      page.evaluate(async (id) => {
+        const res = await fetch(`/api/profile-versions/${id}`);
+        const body = (await res.json()) as {
+          version: { status: string; parameters: { saturation: number } };
+        };
+        return body.version;
+      }, draftId);
+    const start = (await saturationOf()).parameters.saturation;
+    const wanted = Math.round((start + 0.05) * 100) / 100;
+    await page.getByTestId('saturation').fill(String(wanted));
+    await page.getByTestId('editor-save').click();
+    for (const end = Date.now() + 15_000; ;) {
+      const saved = await saturationOf();
+      if (Math.abs(saved.parameters.saturation - wanted) < 1e-9) {
+        expect(saved.status).toBe('draft');
+        break;
+      }
+      if (Date.now() > end) throw new Error(`the draft kept saturation ${saved.parameters.saturation}`);
+      await new Promise((r) => setTimeout(r, 200));
+    }
+
+    // the stock page offers a calibration of the stock and links the draft back to its calibration report
+    const stockId = await page.evaluate(async (id) => {
+      const res = await fetch(`/api/calibrations/${id}`);
+      return ((await res.json()) as { stockId: number }).stockId;
+    }, calibrationId);
+    await page.goto(`${server.url}/catalogue/stocks/${stockId}`);
+    expect(await page.getByTestId('calibrate-stock').getAttribute('href')).toBe(
+      `/calibration?stock=${stockId}`,
+    );
+    await page.getByTestId(`calibration-report-${draftId}`).click();
+    await page
+      .getByTestId('report-title')
+      .filter({ hasText: `Calibration ${calibrationId}` })
+      .waitFor();
+    await page.getByTestId('stock-link').click();
+    await page.getByTestId('stock-name').filter({ hasText: 'Fenlight 100 (trial)' }).waitFor();
   });
 });
