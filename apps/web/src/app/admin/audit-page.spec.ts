@@ -1,14 +1,11 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatPaginatorHarness } from '@angular/material/paginator/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
 import type { AuditEntry } from '@clearbase/contracts';
 import { AuditPage } from './audit-page';
+import { setUpListPage } from '../lists/set-up-list-page';
 
 function entries(from: number, count: number): AuditEntry[] {
   return Array.from({ length: count }, (_, i) => ({
@@ -23,20 +20,12 @@ function entries(from: number, count: number): AuditEntry[] {
 }
 
 async function render() {
-  TestBed.configureTestingModule({
-    imports: [AuditPage],
-    providers: [
-      provideZonelessChangeDetection(),
-      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      provideHttpClient(),
-      provideHttpClientTesting(),
-    ],
-  });
+  const backend = setUpListPage(AuditPage);
   const fixture = TestBed.createComponent(AuditPage);
   await fixture.whenStable();
   return {
     fixture,
-    backend: TestBed.inject(HttpTestingController),
+    backend,
     page: TestbedHarnessEnvironment.loader(fixture),
   };
 }

@@ -1,20 +1,16 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import { type HttpTestingController } from '@angular/common/http/testing';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { ComponentHarness, type HarnessLoader } from '@angular/cdk/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
-import { provideRouter } from '@angular/router';
 import type { UserRecord } from '@clearbase/contracts';
-import { Session } from '../auth/session';
 import { UsersPage } from './users-page';
+import { setUpListPage } from '../lists/set-up-list-page';
 
 /** The name line of a user's cell. */
 class PersonName extends ComponentHarness {
@@ -44,19 +40,7 @@ interface Rendered {
 }
 
 async function render(users: UserRecord[] = people): Promise<Rendered> {
-  TestBed.configureTestingModule({
-    imports: [UsersPage],
-    providers: [
-      provideZonelessChangeDetection(),
-      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      provideHttpClient(),
-      provideHttpClientTesting(),
-      provideRouter([]),
-    ],
-  });
-  const backend = TestBed.inject(HttpTestingController);
-  TestBed.inject(Session).load().subscribe();
-  backend.expectOne('/api/auth/me').flush(me);
+  const backend = setUpListPage(UsersPage, me);
   const fixture = TestBed.createComponent(UsersPage);
   await fixture.whenStable();
   backend.expectOne('/api/users').flush({ users });

@@ -1,13 +1,6 @@
-import { provideHttpClient } from '@angular/common/http';
-import {
-  HttpTestingController,
-  provideHttpClientTesting,
-  type TestRequest,
-} from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
+import type { TestRequest } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatButtonToggleGroupHarness } from '@angular/material/button-toggle/testing';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
@@ -15,27 +8,13 @@ import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatSortHarness } from '@angular/material/sort/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
-import { provideRouter } from '@angular/router';
-import type { Role, Stock, User } from '@clearbase/contracts';
-import { Session } from '../auth/session';
+import type { Role, Stock } from '@clearbase/contracts';
 import { CataloguePage } from './catalogue-page';
+import { setUpListPage } from '../lists/set-up-list-page';
 import { testStocks } from './catalogue-testing';
 
 async function render(role: Role, stocks: Stock[] = testStocks) {
-  TestBed.configureTestingModule({
-    imports: [CataloguePage],
-    providers: [
-      provideZonelessChangeDetection(),
-      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      provideHttpClient(),
-      provideHttpClientTesting(),
-      provideRouter([]),
-    ],
-  });
-  const backend = TestBed.inject(HttpTestingController);
-  TestBed.inject(Session).load().subscribe();
-  const me: User = { id: 1, email: `${role}@lab.test`, name: 'Test', role };
-  backend.expectOne('/api/auth/me').flush(me);
+  const backend = setUpListPage(CataloguePage, { id: 1, email: `${role}@lab.test`, name: 'Test', role });
   const fixture = TestBed.createComponent(CataloguePage);
   await fixture.whenStable();
   backend.expectOne((r) => r.url === '/api/stocks').flush({ stocks });

@@ -1,18 +1,13 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { MAT_RIPPLE_GLOBAL_OPTIONS, MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatDialogHarness } from '@angular/material/dialog/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { MatTableHarness } from '@angular/material/table/testing';
-import { provideRouter } from '@angular/router';
-import type { Role, Scanner, User } from '@clearbase/contracts';
-import { Session } from '../auth/session';
+import type { Role, Scanner } from '@clearbase/contracts';
 import { ScannersPage } from './scanners-page';
+import { setUpListPage } from '../lists/set-up-list-page';
 
 const scanners: Scanner[] = [
   {
@@ -31,22 +26,7 @@ const scanners: Scanner[] = [
 ];
 
 async function render(role: Role) {
-  TestBed.configureTestingModule({
-    imports: [ScannersPage],
-    providers: [
-      provideZonelessChangeDetection(),
-      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
-      // a ripple asks jsdom for computed styles, which costs a second or more over Material's stylesheets
-      { provide: MAT_RIPPLE_GLOBAL_OPTIONS, useValue: { disabled: true } },
-      provideHttpClient(),
-      provideHttpClientTesting(),
-      provideRouter([]),
-    ],
-  });
-  const backend = TestBed.inject(HttpTestingController);
-  TestBed.inject(Session).load().subscribe();
-  const me: User = { id: 1, email: `${role}@lab.test`, name: 'Test', role };
-  backend.expectOne('/api/auth/me').flush(me);
+  const backend = setUpListPage(ScannersPage, { id: 1, email: `${role}@lab.test`, name: 'Test', role });
   const fixture = TestBed.createComponent(ScannersPage);
   await fixture.whenStable();
   backend.expectOne('/api/scanners').flush({ scanners });
