@@ -59,6 +59,31 @@ describe('JPEG written in strips', () => {
     });
   }
 
+  it('cycles RST0…RST7 over more than eight strips and still decodes to the whole-image pixels', async () => {
+    const [width, height] = [203, 141];
+    const data = positive(width, height);
+    const writer = createJpegStripWriter({ width, height, quality: 92, metadata, strips: 12 });
+    expect(writer.strips).toBe(9);
+    for (let k = 0; k < writer.strips; k++) {
+      const first = k * writer.stripRows * width * 3;
+      writer.encode(k, data.subarray(first, first + writer.stripHeight(k) * width * 3));
+    }
+    const joined = await writer.finish();
+    const restarts = [];
+    for (let i = 0; i + 1 < joined.length; i++)
+      if (joined[i] === 0xff && joined[i + 1]! >= 0xd0 && joined[i + 1]! <= 0xd7)
+        restarts.push(joined[i + 1]! - 0xd0);
+    expect(restarts).toEqual([0, 1, 2, 3, 4, 5, 6, 7]);
+    const whole = await positivePipeline(data, {
+      width,
+      height,
+      format: 'jpeg',
+      quality: 92,
+      metadata,
+    }).toBuffer();
+    expect((await raw(joined)).equals(await raw(whole))).toBe(true);
+  });
+
   it('is split into strips with restart markers between them when the image is tall enough', () => {
     const writer = createJpegStripWriter({ width: 203, height: 141, quality: 92, metadata });
     expect(writer.strips).toBeGreaterThan(1);
