@@ -2,6 +2,7 @@
 // tables from disk, which the library itself never does (purity.test.ts holds both to that).
 import { readFileSync } from 'node:fs';
 import type { ScannerProfile } from '@clearbase/contracts';
+import { invertPixel, resolveInversion, type InversionParams } from './index';
 import type { Rgb } from './srgb';
 
 /** One patch of the 24-patch chart: its name and published L*a*b* under D50. */
@@ -56,4 +57,23 @@ export function mixedTestImage(): Uint16Array {
     }
   }
   return data;
+}
+
+/**
+ * The largest difference, in output code values, between `out` (an inversion of `input`) and the plain per-pixel
+ * path's answer for the same pixels, looking at every `step`-th pixel.
+ */
+export function worstCodeDifference(
+  params: InversionParams,
+  input: Uint16Array,
+  out: Uint8Array | Uint16Array,
+  step: number,
+): number {
+  const r = resolveInversion(params);
+  let worst = 0;
+  for (let p = 0; p < input.length / 3; p += step) {
+    const want = invertPixel(params, [input[3 * p]!, input[3 * p + 1]!, input[3 * p + 2]!], r);
+    for (let c = 0; c < 3; c++) worst = Math.max(worst, Math.abs(want[c]! - out[3 * p + c]!));
+  }
+  return worst;
 }
