@@ -8,10 +8,11 @@ import {
   demoBracketStops,
   demoCalibrationRoll,
   demoCalibrationSeedStep,
-  demoTrialFilm,
-  demoTrialStock,
+  demoCalibrationFilm,
+  demoCalibrationStockName,
 } from './demo-calibration-seed';
 import { demoCalibrationLayout } from './demo-calibration-layout';
+import { catalogueSeedStep } from '../profiles/demo-catalogue-seed';
 import { seedDemo } from './seed';
 
 let t: TestApp;
@@ -29,7 +30,7 @@ const binary = (res: Response, done: (err: Error | null, body: Buffer) => void) 
 beforeAll(async () => {
   t = await createTestApp();
   const started = performance.now();
-  await seedDemo(t.db, { clock: t.clock }, [demoCalibrationSeedStep]);
+  await seedDemo(t.db, { clock: t.clock }, [catalogueSeedStep, demoCalibrationSeedStep]);
   seedSeconds = (performance.now() - started) / 1000;
   await addUser(t.db, 'operator', 'olwen@lab.test');
   await addUser(t.db, 'customer', 'corin@lab.test');
@@ -39,25 +40,20 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 describe('demo calibration roll', () => {
-  it('seeds a trial stock with no profile and its roll on file: the bracket with its stops, a chart and a leader', async () => {
+  it('puts a roll on file for a demo stock with no calibration yet: the bracket with its stops, a chart and a leader', async () => {
     const stock = await t.db
       .selectFrom('stocks')
       .selectAll()
-      .where('name', '=', demoTrialStock.name)
+      .where('name', '=', demoCalibrationStockName)
       .executeTakeFirstOrThrow();
     expect(stock.masked).toBe(0);
-    const profiles = await t.db
-      .selectFrom('profiles')
-      .select('id')
-      .where('stock_id', '=', stock.id)
-      .execute();
-    expect(profiles).toEqual([]);
+    expect(await t.db.selectFrom('calibrations').select('id').execute()).toEqual([]);
 
     const res = await operator.get('/api/calibration-rolls');
     expect(res.status, res.text).toBe(200);
     expect(res.body.rolls).toHaveLength(1);
     const roll = res.body.rolls[0];
-    expect(roll).toMatchObject({ stockId: stock.id, stockName: demoTrialStock.name, scannerId: null });
+    expect(roll).toMatchObject({ stockId: stock.id, stockName: demoCalibrationStockName, scannerId: null });
     const frames = roll.frames as {
       n: number;
       role: string;
@@ -102,7 +98,7 @@ describe('demo calibration roll', () => {
     expect(missing.headers['content-type']).toMatch(/^application\/problem\+json/);
   });
 
-  it('fits, marked by its known layout, into a draft whose γ is the trial film’s', async () => {
+  it('fits, marked by its known layout, into a new draft of the stock’s profile with the batch’s γ', async () => {
     const [roll] = await listCalibrationRollsOnFile(t.db);
     const made = demoCalibrationRoll();
     // the layout browser tests click by is where the generated roll's marks are
@@ -136,12 +132,19 @@ describe('demo calibration roll', () => {
     }
     const res = await req;
     expect(res.status, res.text).toBe(201);
-    // γ of the forward model's trial film within 3 %, as the library's own check asks
+    // γ of the forward model's batch within 3 %, as the library's own check asks
     (res.body.fit.gamma as number[]).forEach((g, c) =>
-      expect(Math.abs(g / demoTrialFilm.gamma[c]! - 1)).toBeLessThan(0.03),
+      expect(Math.abs(g / demoCalibrationFilm.gamma[c]! - 1)).toBeLessThan(0.03),
     );
     expect(res.body.fit.deltaE.patches).toHaveLength(24);
     expect(res.body.profileVersionId).toBeGreaterThan(0);
+    // the draft is a new version of the stock's house profile
+    const house = await t.db
+      .selectFrom('profiles')
+      .select('id')
+      .where('stock_id', '=', roll!.stockId)
+      .executeTakeFirstOrThrow();
+    expect(res.body.profileId).toBe(house.id);
     // the bracket stops at three under, above the speed point's density: the report has a warning to show
     expect((res.body.warnings as { code: string }[]).map((w) => w.code)).toContain(
       'speed-point-extrapolated',

@@ -1,4 +1,3 @@
-import type { CreateStockRequest } from '@clearbase/contracts';
 import {
   calibrationRoll,
   LINEAR_SCANNER,
@@ -10,33 +9,27 @@ import { dirname } from 'node:path';
 import sharp from 'sharp';
 import {
   addCalibrationRollOnFile,
+  listCalibrationRollsOnFile,
   type CalibrationFrameOnFile,
 } from '../calibrations/calibration-rolls-on-file';
 import type { Database } from '../db/database';
 import { recordFile } from '../files/file-repository';
 import { createFileStore } from '../files/file-store';
-import { findStockByName, insertStock } from '../stocks/stock-repository';
+import { findStockByName } from '../stocks/stock-repository';
 import { demoCalibrationFrame } from './demo-calibration-layout';
 import type { SeedStep } from './seed';
 
-/** The invented trial emulsion the demo calibration roll was shot on: no profile yet. */
-export const demoTrialStock: CreateStockRequest = {
-  name: 'Fenlight 100 (trial)',
-  maker: 'Ostry Coating Works',
-  iso: 100,
-  process: 'C-41',
-  masked: false,
-  baseMaterial: 'clear polyester',
-  frameFormats: ['135-36'],
-  notes:
-    'Trial coating of an unmasked emulsion on clear polyester. No profile yet: its calibration roll is on file.',
-};
+/**
+ * The demo stock a new coating batch of which was shot for calibration: one of the demo catalogue's stocks, with a
+ * house profile but no calibration yet.
+ */
+export const demoCalibrationStockName = 'Tealine 200';
 
-/** How the forward model develops the trial emulsion: invented values, softer in blue than the demo stocks. */
-export const demoTrialFilm: FilmStock = {
-  name: 'Fenlight 100 (trial)',
+/** How the forward model develops the new batch: invented values, a little faster than the stock's box speed. */
+export const demoCalibrationFilm: FilmStock = {
+  name: demoCalibrationStockName,
   base: 'clear',
-  iso: 100,
+  iso: 200,
   gamma: [0.56, 0.6, 0.66],
   toe: [-2.2, -2.15, -2.1],
   maxDensity: [2.3, 2.4, 2.5],
@@ -62,7 +55,7 @@ const grain = 0.006;
  */
 export function demoCalibrationRoll(): ReturnType<typeof calibrationRoll> {
   return calibrationRoll({
-    stock: demoTrialFilm,
+    stock: demoCalibrationFilm,
     scanner: LINEAR_SCANNER,
     stops: demoBracketStops,
     greySize: frameWidth,
@@ -91,16 +84,17 @@ function tiffOf(negative: SyntheticNegative): Promise<Buffer> {
 }
 
 /**
- * A trial stock with no profile, and its calibration roll on file — eight grey frames, the chart, the leader — so
- * an operator finds it on the calibration page ready to mark and fit. Does nothing when the stock already exists;
- * the frames are stored by their bytes' hash, so a second run stores nothing new.
+ * A calibration roll on file for a new batch of the demo stock — eight grey frames, the chart, the leader — so an
+ * operator finds it on the calibration page ready to mark and fit. Does nothing without the stock or when the stock
+ * already has a roll on file; the frames are stored by their bytes' hash, so a second run stores nothing new.
  */
 export const demoCalibrationSeedStep: SeedStep = {
   name: 'calibration roll',
   async run(db, { clock }) {
-    if (await findStockByName(db, demoTrialStock.name)) return;
+    const stock = await findStockByName(db, demoCalibrationStockName);
+    if (!stock) return;
+    if ((await listCalibrationRollsOnFile(db)).some((r) => r.stockId === stock.id)) return;
     const at = clock.now();
-    const stock = await insertStock(db, demoTrialStock, at);
     const store = createFileStore(await dataDirOf(db));
     const roll = demoCalibrationRoll();
     const negatives: {
@@ -140,8 +134,8 @@ export const demoCalibrationSeedStep: SeedStep = {
     await addCalibrationRollOnFile(db, {
       stockId: stock.id,
       scannerId: null,
-      title: 'Trial roll 1',
-      note: 'Grey card bracketed in whole stops from −3 to +4, one chart frame at the metered exposure, leader cut from the roll’s start.',
+      title: 'New batch, calibration roll',
+      note: 'A new coating batch. Grey card bracketed in whole stops from −3 to +4, one chart frame at the metered exposure, leader cut from the roll’s start.',
       frames,
       createdAt: at.toISOString(),
     });
