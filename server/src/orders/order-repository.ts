@@ -128,7 +128,7 @@ export function toOrder(row: OrderListRow): Order {
 }
 
 /** The stored negatives' return; a value that no longer parses reads as kept at the lab, the safe default. */
-function readNegatives(json: string): NegativesReturn {
+export function readNegatives(json: string): NegativesReturn {
   try {
     const parsed = negativesReturnSchema.safeParse(JSON.parse(json));
     return parsed.success ? parsed.data : { method: 'collect' };

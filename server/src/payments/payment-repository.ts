@@ -1,3 +1,4 @@
+import { readNegatives } from '../orders/order-repository';
 import type { Payment } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
@@ -63,6 +64,7 @@ export async function findOrderForPayment(db: Kysely<Database>, orderId: number)
       'orders.customer_id',
       'orders.scan_size',
       'orders.status',
+      'orders.negatives',
       'users.email as customer_email',
       'users.name as customer_name',
     ])
@@ -76,5 +78,5 @@ export async function findOrderForPayment(db: Kysely<Database>, orderId: number)
     .where('rolls.order_id', '=', orderId)
     .orderBy('rolls.id')
     .execute();
-  return { ...order, rolls };
+  return { ...order, negatives: readNegatives(order.negatives), rolls };
 }

@@ -14,7 +14,11 @@ const signer = new Stripe('sk_test_signer');
 let stocksMade = 0;
 
 /** An order of the given rolls on a fresh stock and draft profile, written straight to the tables. */
-async function addOrder(owner: number, rolls: { format: string; pushPull: number }[]): Promise<number> {
+async function addOrder(
+  owner: number,
+  rolls: { format: string; pushPull: number }[],
+  negatives: object = { method: 'collect' },
+): Promise<number> {
   stocksMade += 1;
   const now = '2026-03-02T09:00:00.000Z';
   const stock = await t.db
@@ -68,6 +72,7 @@ async function addOrder(owner: number, rolls: { format: string; pushPull: number
       status: 'received',
       output_formats: '["jpeg"]',
       scan_size: 'standard',
+      negatives: JSON.stringify(negatives),
       created_at: now,
       updated_at: now,
     })
@@ -150,6 +155,20 @@ async function approvedEvent(sessionId: string) {
 }
 
 describe('paying for an order', () => {
+  it('charges posting the negatives back as a line of the whole order when the customer asked for it', async () => {
+    const orderId = await addOrder(customerId, [{ format: '135-36', pushPull: 0 }], {
+      method: 'post',
+      address: { name: 'Ida Payer', line1: '4 Quay Row', town: 'Portwick', country: 'Invented Isles' },
+    });
+    const payer = await signedIn(t.app, 'payer@example.test');
+    const res = await payer.post(`/api/orders/${orderId}/checkout`);
+    expect(res.status).toBe(201);
+    // starter list: 12.00 develop + 8.00 scan, 4.50 to post the negatives back
+    expect(res.body.payment).toMatchObject({ amountMinor: 2000 + 450 });
+    const sessionId = new URL(res.body.checkoutUrl).pathname.split('/').at(-1)!;
+    expect(fake.sessions.get(sessionId)?.amount_total).toBe(2450);
+  });
+
   it('opens a checkout priced from the price list and marks it paid only on the signed event, once', async () => {
     const orderId = await addOrder(customerId, [
       { format: '135-36', pushPull: 0 },

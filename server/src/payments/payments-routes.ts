@@ -164,6 +164,7 @@ export const paymentsRoutes: RouteModule = (api, { db, clock, config, logger }) 
           process: filmProcessSchema.parse(r.process),
           pushPull: r.push_pull,
         })),
+        negatives: order.negatives.method,
       };
       let quote;
       try {
@@ -187,7 +188,9 @@ export const paymentsRoutes: RouteModule = (api, { db, clock, config, logger }) 
           price_data: {
             currency: quote.currency.toLowerCase(),
             unit_amount: line.amountMinor,
-            product_data: { name: `Roll ${line.rollIndex + 1}: ${line.label}` },
+            product_data: {
+              name: line.rollIndex === null ? line.label : `Roll ${line.rollIndex + 1}: ${line.label}`,
+            },
           },
         })),
       });

@@ -18,6 +18,7 @@ export const starterPriceList: PriceList = {
     { size: 'full', amountMinor: 2200 },
   ],
   pushPullPerStopMinor: 300,
+  returnByPostMinor: 450,
 };
 
 /** The lab's price list from settings; the starter list when none was saved or the saved one no longer parses. */

@@ -16,6 +16,7 @@ const edited = {
   develop: [{ format: '135-36', process: 'C-41', amountMinor: 1100 }],
   scan: [{ size: 'standard', amountMinor: 700 }],
   pushPullPerStopMinor: 250,
+  returnByPostMinor: 400,
 };
 
 describe('the price list', () => {
@@ -38,9 +39,26 @@ describe('the price list', () => {
     });
     expect(quote.status).toBe(200);
     expect(quote.body).toMatchObject({ currency: 'GBP', totalMinor: 1100 + 700 + 250 });
+    const posted = await customer.post('/api/prices/quote', {
+      scanSize: 'standard',
+      negatives: 'post',
+      rolls: [{ format: '135-36', process: 'C-41', pushPull: 0 }],
+    });
+    expect(posted.body).toMatchObject({ currency: 'GBP', totalMinor: 1100 + 700 + 400 });
 
     const audit = await t.db.selectFrom('audit_log').selectAll().where('target', '=', 'price-list').execute();
     expect(audit).toHaveLength(1);
+  });
+
+  it('reads a list saved before postage was priced as posting for free', async () => {
+    const { returnByPostMinor: _dropped, ...older } = edited;
+    await t.db
+      .updateTable('settings')
+      .set({ value: JSON.stringify(older) })
+      .where('key', '=', 'price-list')
+      .execute();
+    const customer = await signedIn(t.app, 'customer@lab.test');
+    expect((await customer.get('/api/prices')).body).toEqual({ ...older, returnByPostMinor: 0 });
   });
 
   it('refuses a fractional amount and a format listed twice, naming the field', async () => {

@@ -14,12 +14,14 @@ const list: PriceList = {
     { size: 'large', amountMinor: 1500 },
   ],
   pushPullPerStopMinor: 300,
+  returnByPostMinor: 450,
 };
 
 describe('quoteOrder', () => {
   it('charges developing and scanning per roll', () => {
     const quote = quoteOrder(list, {
       scanSize: 'standard',
+      negatives: 'collect',
       rolls: [
         { format: '135-36', process: 'C-41', pushPull: 0 },
         { format: '120', process: 'C-41', pushPull: 0 },
@@ -40,6 +42,7 @@ describe('quoteOrder', () => {
       { ...list, pushPullPerStopMinor: 125 },
       {
         scanSize: 'large',
+        negatives: 'collect',
         rolls: [
           { format: '135-36', process: 'C-41', pushPull: 2 },
           { format: '135-36', process: 'C-41', pushPull: -1 },
@@ -56,9 +59,29 @@ describe('quoteOrder', () => {
     expect(quote.totalMinor).toBe(3 * (1200 + 1500) + 250 + 125 + 63);
   });
 
+  it('charges posting the negatives back once per order, and nothing when they are collected or post is free', () => {
+    const rolls = [
+      { format: '135-36', process: 'C-41' as const, pushPull: 0 },
+      { format: '120', process: 'C-41' as const, pushPull: 0 },
+    ];
+    const posted = quoteOrder(list, { scanSize: 'standard', negatives: 'post', rolls });
+    expect(posted.lines.filter((l) => l.kind === 'return-by-post')).toEqual([
+      { rollIndex: null, kind: 'return-by-post', label: 'Negatives posted back', amountMinor: 450 },
+    ]);
+    expect(posted.totalMinor).toBe(4150 + 450);
+    const collected = quoteOrder(list, { scanSize: 'standard', negatives: 'collect', rolls });
+    expect(collected.totalMinor).toBe(4150);
+    const free = quoteOrder(
+      { ...list, returnByPostMinor: 0 },
+      { scanSize: 'standard', negatives: 'post', rolls },
+    );
+    expect(free.lines.some((l) => l.kind === 'return-by-post')).toBe(false);
+  });
+
   it('names every format, process and scan size the list does not price', () => {
     const draft = {
       scanSize: 'full' as const,
+      negatives: 'collect' as const,
       rolls: [
         { format: '135-24', process: 'C-41' as const, pushPull: 0 },
         { format: '120', process: 'E-6' as const, pushPull: 0 },
@@ -75,6 +98,7 @@ describe('quoteOrder', () => {
   it('gives the same quote for the same inputs, in whole minor units only', () => {
     const draft = {
       scanSize: 'standard' as const,
+      negatives: 'post' as const,
       rolls: [{ format: '120', process: 'C-41' as const, pushPull: 1.5 }],
     };
     const a = quoteOrder(list, draft);

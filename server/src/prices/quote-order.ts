@@ -16,7 +16,8 @@ function stopsLabel(pushPull: number): string {
 /**
  * Prices an order from the price list: per roll, developing (by format and process), scanning (by the order's scan
  * size) and, for a pushed or pulled roll, the per-stop surcharge times the stops, rounded half up to a whole minor
- * unit. Pure: the same list and draft always give the same quote.
+ * unit; then, once per order, posting the negatives back when the customer asks for it and the lab charges for it.
+ * Pure: the same list and draft always give the same quote.
  *
  * Throws QuoteError naming every format/process or scan size the list does not price.
  *
@@ -53,6 +54,14 @@ export function quoteOrder(priceList: PriceList, draft: OrderDraft): Quote {
       });
     }
   });
+  if (draft.negatives === 'post' && priceList.returnByPostMinor > 0) {
+    lines.push({
+      rollIndex: null,
+      kind: 'return-by-post',
+      label: 'Negatives posted back',
+      amountMinor: priceList.returnByPostMinor,
+    });
+  }
   if (missing.size) throw new QuoteError([...missing]);
   return {
     currency: priceList.currency,

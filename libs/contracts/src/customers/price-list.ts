@@ -21,7 +21,10 @@ export type DevelopPrice = z.infer<typeof developPriceSchema>;
 export const scanPriceSchema = z.strictObject({ size: scanSizeSchema, amountMinor: amountMinorSchema });
 export type ScanPrice = z.infer<typeof scanPriceSchema>;
 
-/** What the lab charges: developing per roll by format and process, scanning per roll by size, push/pull per stop. */
+/**
+ * What the lab charges: developing per roll by format and process, scanning per roll by size, push/pull per stop, and
+ * posting the negatives back, per order (0 when the lab does not charge for it; collecting them is free).
+ */
 export const priceListSchema = z.strictObject({
   currency: currencySchema,
   develop: z
@@ -36,6 +39,8 @@ export const priceListSchema = z.strictObject({
     .max(20)
     .refine((rows) => new Set(rows.map((r) => r.size)).size === rows.length, 'List each scan size once'),
   pushPullPerStopMinor: amountMinorSchema,
+  // absent in price lists saved before it existed: read as free
+  returnByPostMinor: amountMinorSchema.default(0),
 });
 export type PriceList = z.infer<typeof priceListSchema>;
 
@@ -57,12 +62,15 @@ export const orderDraftSchema = z.strictObject({
     )
     .min(1, 'Add at least one roll')
     .max(100),
+  /** What happens to the negatives: posting them back is priced once per order. */
+  negatives: z.enum(['post', 'collect']).default('collect'),
 });
 export type OrderDraft = z.infer<typeof orderDraftSchema>;
 
 export const quoteLineSchema = z.object({
-  rollIndex: z.number().int().min(0),
-  kind: z.enum(['develop', 'scan', 'push-pull']),
+  /** The roll the line is for; null for a line of the whole order (postage). */
+  rollIndex: z.number().int().min(0).nullable(),
+  kind: z.enum(['develop', 'scan', 'push-pull', 'return-by-post']),
   label: z.string(),
   amountMinor: z.number().int(),
 });

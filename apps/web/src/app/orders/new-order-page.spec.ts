@@ -32,8 +32,9 @@ const quote: Quote = {
     { rollIndex: 1, kind: 'develop', label: 'Develop 120 C-41', amountMinor: 1200 },
     { rollIndex: 1, kind: 'scan', label: 'Scan, large', amountMinor: 1500 },
     { rollIndex: 1, kind: 'push-pull', label: 'push 1 stop', amountMinor: 300 },
+    { rollIndex: null, kind: 'return-by-post', label: 'Negatives posted back', amountMinor: 450 },
   ],
-  totalMinor: 5700,
+  totalMinor: 6150,
 };
 
 async function render(role: Role) {
@@ -209,12 +210,16 @@ describe('NewOrderPage', { timeout: 30_000 }, () => {
         { format: '135-36', process: 'C-41', pushPull: 0 },
         { format: '120', process: 'C-41', pushPull: 1 },
       ],
+      negatives: 'post',
     });
     expect(p.byId<HTMLButtonElement>('place-order')!.disabled).toBe(true);
     quoted.flush(quote);
     await p.settle();
-    expect(p.text('quote-total')).toBe('€57.00');
-    expect(p.root.querySelectorAll('[data-testid="quote-line"]')).toHaveLength(5);
+    expect(p.text('quote-total')).toBe('€61.50');
+    const lines = [...p.root.querySelectorAll('[data-testid="quote-line"]')];
+    expect(lines).toHaveLength(6);
+    expect(lines[5]!.textContent).toContain('Order');
+    expect(lines[5]!.textContent).toContain('Negatives posted back');
     expect(p.text('review-negatives')).toBe(
       'Posted back to Marit Olsen, 7 Saltmarsh Lane, Greywick GW2 9RT, Testland',
     );

@@ -312,6 +312,7 @@ export class NewOrderPage {
         process: this.stocks().find((s) => s.id === r.stockId)?.process ?? 'C-41',
         pushPull: r.pushPull,
       })),
+      negatives: v.delivery.negatives.method,
     };
   }
 

@@ -11,6 +11,7 @@ const list: PriceList = {
   develop: [{ format: '135-36', process: 'C-41', amountMinor: 1200 }],
   scan: [{ size: 'standard', amountMinor: 800 }],
   pushPullPerStopMinor: 300,
+  returnByPostMinor: 450,
 };
 
 async function render(role: Role) {
@@ -36,6 +37,7 @@ describe('PricesPage', () => {
     const { fixture } = await render('customer');
     expect(el(fixture, 'prices-develop')?.textContent).toContain('€12.00');
     expect(el(fixture, 'prices-scan')?.textContent).toContain('€8.00');
+    expect(el(fixture, 'prices-return-by-post')?.textContent).toContain('€4.50 per order');
     expect(el(fixture, 'prices-edit')).toBeNull();
   });
 
@@ -47,6 +49,10 @@ describe('PricesPage', () => {
     expect(amount.value).toBe('12');
     amount.value = '12.35';
     amount.dispatchEvent(new Event('input'));
+    const post = el(fixture, 'prices-return-by-post-input') as HTMLInputElement;
+    expect(post.value).toBe('4.5');
+    post.value = '0';
+    post.dispatchEvent(new Event('input'));
     el(fixture, 'prices-save')!.click();
     await fixture.whenStable();
 
@@ -54,9 +60,11 @@ describe('PricesPage', () => {
     expect(req.request.body).toEqual({
       ...list,
       develop: [{ format: '135-36', process: 'C-41', amountMinor: 1235 }],
+      returnByPostMinor: 0,
     });
     req.flush(req.request.body);
     await fixture.whenStable();
     expect(el(fixture, 'prices-develop')?.textContent).toContain('€12.35');
+    expect(el(fixture, 'prices-return-by-post')?.textContent).toContain('free');
   });
 });

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, type OnInit, computed, inject, signal } from '@angular/core';
 import { type FormArray, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton, MatIconButton } from '@angular/material/button';
-import { MatError, MatFormField, MatLabel } from '@angular/material/form-field';
+import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
 import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
@@ -34,6 +34,7 @@ const scanSizeLabels: Record<ScanSize, string> = {
     MatFormField,
     MatLabel,
     MatError,
+    MatHint,
     MatInput,
     MatSelect,
     MatOption,
@@ -62,6 +63,7 @@ export class PricesPage implements OnInit {
   protected readonly form = this.fb.group({
     currency: ['EUR', [Validators.required, Validators.pattern(/^[A-Z]{3}$/)]],
     pushPullPerStop: [0, [Validators.required, Validators.min(0)]],
+    returnByPost: [0, [Validators.required, Validators.min(0)]],
     develop: this.fb.array([this.developRow()]),
     scan: this.fb.array([this.scanRow()]),
   });
@@ -102,6 +104,7 @@ export class PricesPage implements OnInit {
     const c = list.currency;
     this.form.controls.currency.setValue(c);
     this.form.controls.pushPullPerStop.setValue(toMajor(list.pushPullPerStopMinor, c));
+    this.form.controls.returnByPost.setValue(toMajor(list.returnByPostMinor, c));
     this.developRows.clear();
     for (const d of list.develop)
       this.developRows.push(this.developRow(d.format, d.process, toMajor(d.amountMinor, c)));
@@ -126,6 +129,7 @@ export class PricesPage implements OnInit {
     const list: PriceList = {
       currency: v.currency,
       pushPullPerStopMinor: toMinor(v.pushPullPerStop, v.currency),
+      returnByPostMinor: toMinor(v.returnByPost, v.currency),
       develop: v.develop.map((d) => ({
         format: d.format.trim(),
         process: d.process,
