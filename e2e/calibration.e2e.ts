@@ -146,7 +146,7 @@ describe('calibration', () => {
     const { page } = browser;
     await signIn('operator@clearbase.test');
     await page.getByTestId('nav-calibration').click();
-    await page.getByTestId('rolls-on-file').getByText('Fenlight 100 (trial)').waitFor();
+    await page.getByTestId('rolls-on-file').getByText('Tealine 200').waitFor();
     await page.getByTestId('load-roll-1').click();
 
     // the bracket comes with its stops; the grey rectangle the page proposes (the first frame's central half) is kept
@@ -180,10 +180,7 @@ describe('calibration', () => {
     expect(await page.getByTestId('corner-hint').textContent()).toContain('All four corners set');
     expect(await page.getByTestId('sample-area').count()).toBe(24);
     await page.getByTestId('calibration-submit').click();
-    await page
-      .getByTestId('report-title')
-      .filter({ hasText: 'Fenlight 100 (trial)' })
-      .waitFor({ timeout: 60_000 });
+    await page.getByTestId('report-title').filter({ hasText: 'Tealine 200' }).waitFor({ timeout: 60_000 });
 
     // three curves, the ΔE00 table and the warnings
     for (const channel of ['red', 'green', 'blue']) await page.getByTestId(`curve-${channel}`).waitFor();
@@ -197,7 +194,7 @@ describe('calibration', () => {
     // the draft was saved with the fit: it opens in the profile editor, where a change is saved to it
     await page.getByTestId('draft-link').click();
     await page.getByTestId('editor-status').filter({ hasText: 'Draft' }).waitFor();
-    expect(await page.getByTestId('editor-title').textContent()).toContain('Fenlight 100 (trial)');
+    expect(await page.getByTestId('editor-title').textContent()).toContain('Tealine 200');
     const draftId = Number(page.url().split('/').pop());
     const saturationOf = () =>
       page.evaluate(async (id) => {
@@ -236,6 +233,6 @@ describe('calibration', () => {
       .filter({ hasText: `Calibration ${calibrationId}` })
       .waitFor();
     await page.getByTestId('stock-link').click();
-    await page.getByTestId('stock-name').filter({ hasText: 'Fenlight 100 (trial)' }).waitFor();
+    await page.getByTestId('stock-name').filter({ hasText: 'Tealine 200' }).waitFor();
   });
 });
