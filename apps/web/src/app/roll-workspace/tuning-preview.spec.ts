@@ -58,9 +58,13 @@ describe('the tuning preview', () => {
     expect(stopsAsPoints(1)).toBeCloseTo(12.041, 3);
   });
 
-  const rendersAsServer = (rollAdjustments: Adjustments, frameAdjustments: Adjustments) => {
+  const rendersAsServer = (
+    rollAdjustments: Adjustments,
+    frameAdjustments: Adjustments,
+    frameProfile: typeof profile = profile,
+  ) => {
     const server = serverRenderParams(
-      profile,
+      frameProfile,
       LINEAR_SCANNER,
       base,
       levels,
@@ -68,7 +72,14 @@ describe('the tuning preview', () => {
       frameAdjustments,
       8,
     );
-    const preview = previewParams(profile, LINEAR_SCANNER, base, levels, rollAdjustments, frameAdjustments);
+    const preview = previewParams(
+      frameProfile,
+      LINEAR_SCANNER,
+      base,
+      levels,
+      rollAdjustments,
+      frameAdjustments,
+    );
     const a = resolveInversion(server);
     const b = resolveInversion(preview);
     for (let c = 0; c < 3; c++) expect(b.offset[c]).toBeCloseTo(a.offset[c]!, 12);
@@ -81,6 +92,10 @@ describe('the tuning preview', () => {
 
   it('renders every pixel as the server’s render of the same frame does', () => {
     rendersAsServer(roll, frame);
+  });
+
+  it('renders a film recorded in wide primaries as the server does', () => {
+    rendersAsServer(roll, frame, { ...profile, capturePrimaries: 'wide' });
   });
 
   it('renders moved black and white points as the server does, and moves them', () => {

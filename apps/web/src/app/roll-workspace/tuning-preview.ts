@@ -41,6 +41,7 @@ export function previewProfile(
     saturation: profile.saturation,
     balance: addBalances(sum.balance, neutralBalance(levels), exposure),
     tone: summedTone(levels, sum),
+    ...(profile.capturePrimaries ? { capturePrimaries: profile.capturePrimaries } : {}),
   };
 }
 
