@@ -194,6 +194,8 @@ describe('tuning a roll', () => {
     await expect
       .poll(() => canvas.evaluate((c) => (c as HTMLCanvasElement).width), { timeout: 30_000 })
       .toBeGreaterThan(0);
+    // the canvas has a size before the first rendering: the picker needs the negative and its preview in
+    await page.getByTestId('preview-ms').waitFor({ timeout: 30_000 });
     await page.getByText('Toggle', { exact: true }).click();
     await browser.screenshot('roll-workspace-before-pick');
 
@@ -311,7 +313,7 @@ describe('tuning a roll', () => {
       return meanLab65(pixels.rgba, { width: pixels.width, height: pixels.height, channels: 4 }, patch);
     };
     // the canvas has its default size before the first rendering lands: wait for the preview's timing and a lit patch
-    await page.getByTestId('preview-ms').waitFor();
+    await page.getByTestId('preview-ms').waitFor({ timeout: 30_000 });
     let reading = await previewLab();
     await expect.poll(async () => (reading = await previewLab()).l, { timeout: 30_000 }).toBeGreaterThan(10);
     expect(reading.a).toBeGreaterThan(4);
@@ -333,6 +335,13 @@ describe('tuning a roll', () => {
         if (Math.abs(previous.a) < Math.abs(reading.a)) {
           await page.keyboard.press('ArrowLeft');
           await expect.poll(points).toBe(step - 1);
+          const overshot = reading;
+          await expect
+            .poll(async () => {
+              reading = await previewLab();
+              return Math.abs(reading.a - overshot.a) > 0.05;
+            })
+            .toBe(true);
         }
         break;
       }
@@ -349,6 +358,11 @@ describe('tuning a roll', () => {
       .raw()
       .toBuffer({ resolveWithObject: true });
     const lab = meanLab65(data, info, patch);
+    const fixed = (v: number) => v.toFixed(2);
+    console.info(
+      `magenta–green control: ${await points()} points; grey patch before a* ${fixed(cast.a)} b* ${fixed(cast.b)}, ` +
+        `preview a* ${fixed(reading.a)}, saved output L* ${fixed(lab.l)} a* ${fixed(lab.a)} b* ${fixed(lab.b)}`,
+    );
     expect(lab.l).toBeGreaterThan(10);
     expect(Math.abs(lab.a)).toBeLessThan(2);
     expect(Math.abs(lab.b)).toBeLessThan(2);
