@@ -1,4 +1,5 @@
 import {
+  readStoredAdjustments,
   scanSizeLongEdge,
   type Adjustments,
   type MeasuredBase,
@@ -194,7 +195,7 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
           scanner: context.scanner,
           base: chosen.base,
           roll: context.adjustments,
-          frame: JSON.parse(frame.adjustments) as Adjustments,
+          frame: readStoredAdjustments(frame.adjustments),
           formats: context.formats,
           longEdge: context.longEdge,
           maxPixels: config.uploads.maxPixels,
@@ -299,7 +300,7 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
     return {
       profile: JSON.parse(version.parameters) as ProfileDocument,
       scanner: await scannerProfileOf(db, roll.scanner_id),
-      adjustments: JSON.parse(roll.adjustments) as Adjustments,
+      adjustments: readStoredAdjustments(roll.adjustments),
       rollBase: roll.base_mode === 'region' ? parse<MeasuredBase>(roll.base_measured) : medianBaseOf(all),
       formats: JSON.parse(order.output_formats) as OutputFormat[],
       longEdge: scanSizeLongEdge[order.scan_size as ScanSize] ?? null,

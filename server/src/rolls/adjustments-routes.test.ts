@@ -76,4 +76,20 @@ describe('tuning', () => {
     const { body } = await operator.get(`/api/rolls/${roll}`).expect(200);
     expect(body.frames.map((f: { status: string }) => f.status)).toEqual(['queued', 'queued']);
   });
+
+  it('reads adjustments saved before the black and white point shifts existed as shifts of 0, and renders them', async () => {
+    const older = JSON.stringify({
+      balance: { cyanRed: 0, magentaGreen: 2, yellowBlue: 0 },
+      exposureStops: 0,
+      contrast: null,
+    });
+    await t.db.updateTable('rolls').set({ adjustments: older }).where('id', '=', roll).execute();
+    await t.db.updateTable('frames').set({ adjustments: older }).where('id', '=', frames[1]!).execute();
+    const { body } = await operator.get(`/api/rolls/${roll}`).expect(200);
+    expect(body.roll.adjustments).toMatchObject({ blackPointStops: 0, whitePointStops: 0 });
+    expect(body.frames[1].adjustments).toMatchObject({ blackPointStops: 0, whitePointStops: 0 });
+    await operator.post(`/api/rolls/${roll}/invert`, { frames: 'all' }).expect(202);
+    const detail = await settled();
+    expect(detail.frames.map((f: { status: string }) => f.status)).toEqual(['done', 'done']);
+  });
 });

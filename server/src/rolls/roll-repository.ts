@@ -1,4 +1,5 @@
 import type { Adjustments, MeasuredBase, PixelRegion, Roll, RollStatus } from '@clearbase/contracts';
+import { readStoredAdjustments } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
 import type { RollRow } from '../orders/order-tables';
@@ -129,7 +130,7 @@ export function toRoll(row: RollListRow): Roll {
       region: parse<PixelRegion>(row.base_region),
       measured: parse<MeasuredBase>(row.base_measured),
     },
-    adjustments: JSON.parse(row.adjustments) as Adjustments,
+    adjustments: readStoredAdjustments(row.adjustments),
     frameCount: row.frame_count,
     createdAt: row.created_at,
     updatedAt: row.updated_at,
