@@ -86,6 +86,15 @@ describe('batch inversion', () => {
       sourceFile: 'f1.tif',
       adjustments: { roll: { exposureStops: 0 }, frame: { exposureStops: 0 } },
     });
+    const jpeg = await customer.get(`/api/frames/${frameId}/output?format=jpeg`).expect(200);
+    const jpegMeta = await sharp(jpeg.body as Buffer).metadata();
+    expect([jpegMeta.width, jpegMeta.height, jpegMeta.space, jpegMeta.hasProfile]).toEqual([
+      96,
+      64,
+      'srgb',
+      true,
+    ]);
+    expect(parsePositiveXmp(jpegMeta.xmpAsString ?? '')).toMatchObject({ profileVersion: 'testline@1' });
     expect((await customer.get(`/api/frames/${frameId}/output?format=png16`)).status).toBe(404);
     expect(readdirSync(join(t.config.dataDir, 'tmp'))).toEqual([]);
   });

@@ -7,7 +7,7 @@ import {
   type SavedAdjustments,
 } from '@clearbase/inversion';
 import type { FileStore } from '../files/file-store';
-import { positivePipeline, readNegative, type PositiveMetadata } from '../imaging/index';
+import { encodePositive, positivePipeline, readNegative, type PositiveMetadata } from '../imaging/index';
 import type { InversionPool } from '../inversion-pool/inversion-pool';
 import { measureLevels } from '../inversion-pool/invert-negative-file';
 import type { FrameOutputKind } from '../orders/order-tables';
@@ -118,13 +118,15 @@ export async function renderFrame(
       bytes: (previewFit ? preview.resize(previewFit) : preview).toBuffer(),
     });
     for (const format of request.formats) {
-      const pipeline = positivePipeline(positive, { width, height, format, metadata });
       const size = fit(request.longEdge);
-      encodings.push({
-        kind: format,
-        mediaType: mediaTypes[format],
-        bytes: (size ? pipeline.resize(size) : pipeline).toBuffer(),
-      });
+      // A full-size JPEG goes through the strip encoder: the same pixels and metadata, encoded on several threads
+      // and without sharp's sRGB → sRGB transform; a resized one needs sharp's pipeline for the resize.
+      const pipeline = () => positivePipeline(positive, { width, height, format, metadata });
+      const bytes =
+        format === 'jpeg' && !size
+          ? encodePositive(positive, { width, height, format, metadata })
+          : (size ? pipeline().resize(size) : pipeline()).toBuffer();
+      encodings.push({ kind: format, mediaType: mediaTypes[format], bytes });
     }
     const encoded = await Promise.all(encodings.map((e) => e.bytes));
     const outputs: StoredRender[] = [];
