@@ -60,11 +60,18 @@ interface Scratch {
   sums: Uint32Array;
   sorted: Uint32Array;
   channel: Uint16Array;
+  /** The unclipped samples' counts, gathered once: the frame is read once per block, not once per channel. */
+  pixels: Uint16Array;
 }
 
 function scratchFor(scratch: Scratch | null, n: number): Scratch {
   if (scratch && scratch.sums.length >= n) return scratch;
-  return { sums: new Uint32Array(n), sorted: new Uint32Array(n), channel: new Uint16Array(n) };
+  return {
+    sums: new Uint32Array(n),
+    sorted: new Uint32Array(n),
+    channel: new Uint16Array(n),
+    pixels: new Uint16Array(3 * n),
+  };
 }
 
 /** Median of sorted counts in linear light: the mean of the two middle ones' linear values for an even count. */
@@ -89,7 +96,7 @@ function sampleRect(
   const [x0, y0, w, h] = rect;
   const grid = Math.ceil(w / step) * Math.ceil(h / step);
   const scratch = (buffers.scratch = scratchFor(buffers.scratch, grid));
-  const { sums, sorted, channel } = scratch;
+  const { sums, sorted, channel, pixels } = scratch;
   const data = image.data;
   let n = 0;
   for (let y = y0; y < y0 + h; y += step) {
@@ -98,6 +105,9 @@ function sampleRect(
         g = data[i + 1]!,
         b = data[i + 2]!;
       if (r >= clip || g >= clip || b >= clip) continue;
+      pixels[3 * n] = r;
+      pixels[3 * n + 1] = g;
+      pixels[3 * n + 2] = b;
       sums[n++] = r + g + b;
     }
   }
@@ -114,17 +124,8 @@ function sampleRect(
   const mad = kept % 2 ? deviations[kept >> 1]! : 0.5 * (deviations[kept / 2 - 1]! + deviations[kept / 2]!);
   const rgb: Rgb = [0, 0, 0];
   for (let c = 0 as 0 | 1 | 2; c < 3; c++) {
-    let m = 0,
-      k = 0;
-    for (let y = y0; y < y0 + h; y += step) {
-      for (let x = x0, i = (y * image.width + x0) * 3; x < x0 + w; x += step, i += 3 * step) {
-        const r = data[i]!,
-          g = data[i + 1]!,
-          b = data[i + 2]!;
-        if (r >= clip || g >= clip || b >= clip) continue;
-        if (sums[k++]! >= floor) channel[m++] = c === 0 ? r : c === 1 ? g : b;
-      }
-    }
+    let m = 0;
+    for (let k = 0; k < n; k++) if (sums[k]! >= floor) channel[m++] = pixels[3 * k + c]!;
     rgb[c] = linearMedian(channel.subarray(0, m).sort(), scanner, c);
   }
   return { rgb, used: kept, spread: mSum > 0 ? mad / mSum : 1 };
