@@ -2,6 +2,7 @@ import type { Routes } from '@angular/router';
 import { authGuard } from './auth/auth-guard';
 import { roleGuard } from './auth/role-guard';
 import { signedOutGuard } from './auth/signed-out-guard';
+import { unsavedChangesGuard } from './forms/unsaved-changes-guard';
 
 export const appRoutes: Routes = [
   {
@@ -85,6 +86,7 @@ export const appRoutes: Routes = [
         title: 'Tuning · Clearbase',
         canActivate: [roleGuard],
         data: { roles: ['operator', 'manager', 'admin'] },
+        canDeactivate: [unsavedChangesGuard],
         loadComponent: () => import('./roll-workspace/roll-workspace-page').then((m) => m.RollWorkspacePage),
       },
       {

@@ -42,7 +42,7 @@ import {
 } from './profile-form';
 import { ProfileVersionsApi } from './profile-versions-api';
 import { PublishDialog, type PublishDialogData } from './publish-dialog';
-import type { LeavesWithCare } from './unsaved-changes-guard';
+import type { LeavesWithCare } from '../forms/unsaved-changes-guard';
 
 type PreviewMode = 'side-by-side' | 'before' | 'after';
 
@@ -163,6 +163,8 @@ export class ProfileEditorPage implements LeavesWithCare {
     effect(() => this.draw(this.afterCanvas()?.nativeElement, this.preview.after()));
     inject(DestroyRef).onDestroy(() => this.formChanges?.unsubscribe());
   }
+
+  readonly leaveQuestion = 'This draft has unsaved changes. Leave and lose them?';
 
   hasUnsavedChanges(): boolean {
     return this.isDraft() && this.dirty();

@@ -1,5 +1,5 @@
 import type { Routes } from '@angular/router';
-import { unsavedChangesGuard } from './unsaved-changes-guard';
+import { unsavedChangesGuard } from '../forms/unsaved-changes-guard';
 
 /** The profile editor; the parent route's role guard keeps it to staff. */
 export const profileEditorRoutes: Routes = [

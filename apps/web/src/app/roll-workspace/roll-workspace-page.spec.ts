@@ -236,6 +236,22 @@ describe('RollWorkspacePage', { timeout: 20_000 }, () => {
     expect(after.profile.balance.magentaGreen).toBeCloseTo(before + 6, 9);
   });
 
+  it('asks before leaving, and holds a closing tab, only while tuning is unsaved', async () => {
+    const fixture = await render(sheet([frame(1), frame(2)]));
+    const page = fixture.componentInstance;
+    const closing = () => {
+      const event = new Event('beforeunload', { cancelable: true });
+      window.dispatchEvent(event);
+      return event.defaultPrevented;
+    };
+    expect(page.hasUnsavedChanges()).toBe(false);
+    expect(closing()).toBe(false);
+    await slide(fixture, 'cast-magentaGreen', 2);
+    expect(page.hasUnsavedChanges()).toBe(true);
+    expect(page.leaveQuestion).toContain('unsaved tuning');
+    expect(closing()).toBe(true);
+  });
+
   it('saves the changed frame and the roll, then renders what is pending', async () => {
     const fixture = await render(sheet([frame(1), frame(2)]));
     await slide(fixture, 'cast-magentaGreen', 5);

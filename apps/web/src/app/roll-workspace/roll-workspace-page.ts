@@ -1,3 +1,4 @@
+import { holdUnloadWithUnsavedChanges, type LeavesWithCare } from '../forms/unsaved-changes-guard';
 import { DecimalPipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
@@ -140,9 +141,12 @@ const zero: Adjustments = {
   templateUrl: './roll-workspace-page.html',
   styleUrl: './roll-workspace-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  host: { '(document:keydown)': 'onKey($event)' },
+  host: {
+    '(document:keydown)': 'onKey($event)',
+    '(window:beforeunload)': 'holdUnload($event)',
+  },
 })
-export class RollWorkspacePage {
+export class RollWorkspacePage implements LeavesWithCare {
   /** The roll id, from the route. */
   readonly id = input.required<string>();
 
@@ -214,6 +218,16 @@ export class RollWorkspacePage {
     return (id !== null && this.state().frames[id]) || zero;
   });
   protected readonly unsaved = computed(() => JSON.stringify(this.state()) !== JSON.stringify(this.saved()));
+
+  readonly leaveQuestion = 'This roll has unsaved tuning. Leave and lose it?';
+
+  hasUnsavedChanges(): boolean {
+    return this.unsaved();
+  }
+
+  protected holdUnload(event: BeforeUnloadEvent): void {
+    holdUnloadWithUnsavedChanges(this, event);
+  }
   protected readonly canUndo = computed(() => this.history().past.length > 0);
   protected readonly canRedo = computed(() => this.history().future.length > 0);
   protected readonly densityBars = computed<Histogram | null>(() => {

@@ -1,7 +1,11 @@
 import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import type { ActivatedRouteSnapshot, RouterStateSnapshot } from '@angular/router';
-import { unsavedChangesGuard, type LeavesWithCare } from './unsaved-changes-guard';
+import {
+  holdUnloadWithUnsavedChanges,
+  unsavedChangesGuard,
+  type LeavesWithCare,
+} from './unsaved-changes-guard';
 
 function leave(page: LeavesWithCare): boolean {
   TestBed.configureTestingModule({ providers: [provideZonelessChangeDetection()] });
@@ -34,5 +38,24 @@ describe('the unsaved-changes guard', () => {
   it('leaves when the person agrees to lose the edits', () => {
     vi.spyOn(window, 'confirm').mockReturnValue(true);
     expect(leave({ hasUnsavedChanges: () => true })).toBe(true);
+  });
+
+  it('asks the page’s own question', () => {
+    const confirm = vi.spyOn(window, 'confirm').mockReturnValue(false);
+    leave({
+      hasUnsavedChanges: () => true,
+      leaveQuestion: 'This roll has unsaved tuning. Leave and lose it?',
+    });
+    expect(confirm).toHaveBeenCalledWith('This roll has unsaved tuning. Leave and lose it?');
+  });
+
+  it('holds a tab closing only while there are unsaved edits', () => {
+    const closing = () => new Event('beforeunload', { cancelable: true }) as BeforeUnloadEvent;
+    const clean = closing();
+    holdUnloadWithUnsavedChanges({ hasUnsavedChanges: () => false }, clean);
+    expect(clean.defaultPrevented).toBe(false);
+    const edited = closing();
+    holdUnloadWithUnsavedChanges({ hasUnsavedChanges: () => true }, edited);
+    expect(edited.defaultPrevented).toBe(true);
   });
 });
