@@ -167,6 +167,7 @@ describe('a customer’s whole journey', () => {
     const expected = (await (
       await customer.post('/api/prices/quote', {
         scanSize: 'standard',
+        negatives: 'post',
         rolls: [0, 1].map((pushPull) => ({ format: '135-36', process: 'C-41', pushPull })),
       })
     ).json()) as { currency: string; totalMinor: number };
@@ -177,6 +178,8 @@ describe('a customer’s whole journey', () => {
         expected.totalMinor / 100,
       ),
     );
+    // posting the negatives back is a line of the whole order
+    expect(await page.getByTestId('quote-line').last().textContent()).toContain('Negatives posted back');
     await browser.screenshot('new-order-review');
 
     // placing it goes straight to the payment fake's page, where the customer pays
