@@ -13,6 +13,7 @@ import { MatInput } from '@angular/material/input';
 import type { CounterCustomerRequest, UserRecord } from '@clearbase/contracts';
 import { fieldErrorText } from '../forms/field-error-text';
 import { FormSubmission } from '../forms/form-submission';
+import { SubmissionProblem } from '../forms/submission-problem';
 import { CustomersApi } from './customers-api';
 
 /**
@@ -22,6 +23,7 @@ import { CustomersApi } from './customers-api';
 @Component({
   selector: 'cb-counter-customer-dialog',
   imports: [
+    SubmissionProblem,
     ReactiveFormsModule,
     MatDialogTitle,
     MatDialogContent,
@@ -47,10 +49,8 @@ export class CounterCustomerDialog {
     name: ['', [Validators.required, Validators.maxLength(120)]],
     email: ['', [Validators.required, Validators.email, Validators.maxLength(254)]],
   });
-  private readonly submission = new FormSubmission(this.form);
+  protected readonly submission = new FormSubmission(this.form);
   protected readonly busy = this.submission.busy;
-  protected readonly problem = this.submission.problem;
-  protected readonly unclaimed = this.submission.unclaimed;
   protected readonly created = signal<UserRecord | null>(null);
 
   protected errorOf(field: 'name' | 'email'): string {

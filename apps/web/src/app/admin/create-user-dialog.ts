@@ -15,6 +15,7 @@ import { MatOption, MatSelect } from '@angular/material/select';
 import type { CreateUserRequest, Role, UserRecord } from '@clearbase/contracts';
 import { fieldErrorText } from '../forms/field-error-text';
 import { FormSubmission } from '../forms/form-submission';
+import { SubmissionProblem } from '../forms/submission-problem';
 import { roleChoices, roleLabel } from '../shell/role-label';
 import { UsersApi } from './users-api';
 
@@ -28,6 +29,7 @@ const minPasswordLength = 10;
 @Component({
   selector: 'cb-create-user-dialog',
   imports: [
+    SubmissionProblem,
     ReactiveFormsModule,
     MatDialogTitle,
     MatDialogContent,
@@ -60,10 +62,8 @@ export class CreateUserDialog {
     role: ['customer' as Role, [Validators.required]],
     password: ['', [Validators.minLength(minPasswordLength), Validators.maxLength(200)]],
   });
-  private readonly submission = new FormSubmission(this.form);
+  protected readonly submission = new FormSubmission(this.form);
   protected readonly busy = this.submission.busy;
-  protected readonly problem = this.submission.problem;
-  protected readonly unclaimed = this.submission.unclaimed;
   protected readonly created = signal<{ user: UserRecord; temporaryPassword: string } | null>(null);
   protected readonly copied = signal(false);
 
