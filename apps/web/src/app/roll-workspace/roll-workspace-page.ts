@@ -86,6 +86,24 @@ export const RENDER_POLL_MS = new InjectionToken<number>('render poll interval',
 const RENDER_POLL_LIMIT = 90;
 
 /** The three casts in the positive's terms (positive values: more red, green, blue). */
+/** The black and white point controls: which shift each moves, and what a positive move does. */
+const pointControls = [
+  {
+    key: 'blackPointStops',
+    label: 'Black point',
+    id: 'black-point',
+    valueId: 'blackPoint',
+    hint: '+ deeper blacks, − lifted shadows',
+  },
+  {
+    key: 'whitePointStops',
+    label: 'White point',
+    id: 'white-point',
+    valueId: 'whitePoint',
+    hint: '+ dimmer highlights, − brighter highlights',
+  },
+] as const;
+
 const castAxes = [
   { key: 'cyanRed', label: 'Cyan – red', hint: '+ redder, − more cyan' },
   { key: 'magentaGreen', label: 'Magenta – green', hint: '+ greener, − more magenta' },
@@ -155,6 +173,7 @@ export class RollWorkspacePage implements LeavesWithCare {
   private readonly pollMs = inject(RENDER_POLL_MS);
   protected readonly preview = inject(PreviewRenderer);
   protected readonly castAxes = castAxes;
+  protected readonly pointControls = pointControls;
   protected readonly keys = tuningKeys;
   protected readonly stopsLabel = stopsLabel;
 
