@@ -1,14 +1,5 @@
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  signal,
-  type Signal,
-} from '@angular/core';
-import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal } from '@angular/core';
 import { MatButton } from '@angular/material/button';
 import { MatFormField, MatLabel, MatPrefix } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
@@ -30,10 +21,9 @@ import {
   MatTableDataSource,
 } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
-import type { Order, OrderStatus } from '@clearbase/contracts';
-import { catchError, map, of, startWith, switchMap } from 'rxjs';
+import type { Order, OrderListResponse, OrderStatus } from '@clearbase/contracts';
 import { Session } from '../auth/session';
-import { readProblem } from '../problem/read-problem';
+import { serverList } from '../lists/server-list';
 import {
   isStaffRole,
   orderColumns,
@@ -43,13 +33,6 @@ import {
   outputFormatLabel,
 } from './order-labels';
 import { OrdersApi } from './orders-api';
-
-interface OrdersView {
-  loading: boolean;
-  orders: Order[];
-  total: number;
-  problem: string | null;
-}
 
 /** Every signed-in user: staff see every order, filtered by status and found by customer; a customer their own. */
 @Component({
@@ -98,29 +81,20 @@ export class OrdersPage {
   /** Part of a customer's name; the list on screen is narrowed as it is typed. */
   protected readonly customer = signal('');
 
-  private readonly view: Signal<OrdersView> = toSignal(
-    toObservable(this.status).pipe(
-      switchMap((status) =>
-        this.api.list(status).pipe(
-          map((r): OrdersView => ({ loading: false, orders: r.orders, total: r.total, problem: null })),
-          catchError((err: unknown) =>
-            of<OrdersView>({ loading: false, orders: [], total: 0, problem: readProblem(err).message }),
-          ),
-          startWith<OrdersView>({ loading: true, orders: this.dataSource.data, total: 0, problem: null }),
-        ),
-      ),
-    ),
-    { initialValue: { loading: true, orders: [], total: 0, problem: null } satisfies OrdersView },
-  );
-  protected readonly loading = computed(() => this.view().loading);
-  protected readonly problem = computed(() => this.view().problem);
-  protected readonly more = computed(() => this.view().total - this.view().orders.length);
+  private readonly list = serverList({
+    request: this.status,
+    load: (status: OrderStatus | '') => this.api.list(status),
+    empty: { orders: [], total: 0 } as OrderListResponse,
+  });
+  protected readonly loading = this.list.loading;
+  protected readonly problem = this.list.problem;
+  protected readonly more = computed(() => this.list.value().total - this.list.value().orders.length);
   protected readonly filtered = computed(() => !!this.status() || this.customer().trim() !== '');
 
   constructor() {
     this.dataSource.filterPredicate = (order, text) => order.customerName.toLowerCase().includes(text);
     effect(() => {
-      this.dataSource.data = this.view().orders;
+      this.dataSource.data = this.list.value().orders;
     });
     effect(() => {
       this.dataSource.filter = this.customer().trim().toLowerCase();
