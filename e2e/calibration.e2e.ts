@@ -112,11 +112,21 @@ describe('calibration', () => {
 
     await page.getByTestId('chart-file').setInputFiles(chartPath);
     await page.getByTestId('chart-marker').waitFor();
-    for (const corner of roll.chartCorners) {
-      const at = await onScreen('chart-marker', corner, roll.chart);
-      await page.mouse.click(at.x, at.y);
+    // each click is placed on the marker when it is clicked, after it has stopped moving (previews load in any order)
+    const chartMarker = page.getByTestId('chart-marker');
+    await chartMarker.scrollIntoViewIfNeeded();
+    const chartBox = (await chartMarker.boundingBox())!;
+    for (const [x, y] of roll.chartCorners) {
+      const fx = Math.min(roll.chart.width - 0.5, Math.max(0.5, x!));
+      const fy = Math.min(roll.chart.height - 0.5, Math.max(0.5, y!));
+      await chartMarker.click({
+        position: {
+          x: (fx / roll.chart.width) * chartBox.width,
+          y: (fy / roll.chart.height) * chartBox.height,
+        },
+      });
     }
-    expect(await page.getByTestId('sample-area').count()).toBe(24);
+    await expect.poll(() => page.getByTestId('sample-area').count()).toBe(24);
     expect(await page.getByTestId('corner-hint').textContent()).toContain('All four corners set');
 
     await page.getByTestId('calibration-submit').click();
@@ -177,8 +187,8 @@ describe('calibration', () => {
       });
     }
     await browser.screenshot('calibration-demo-roll-marked');
+    await expect.poll(() => page.getByTestId('sample-area').count()).toBe(24);
     expect(await page.getByTestId('corner-hint').textContent()).toContain('All four corners set');
-    expect(await page.getByTestId('sample-area').count()).toBe(24);
     await page.getByTestId('calibration-submit').click();
     await page.getByTestId('report-title').filter({ hasText: 'Tealine 200' }).waitFor({ timeout: 60_000 });
 
