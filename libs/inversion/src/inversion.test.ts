@@ -128,6 +128,7 @@ describe('compiled fast path', () => {
   const input = mixedTestImage();
   for (const [render, bits, saturation] of [
     ['reference', 8, 1],
+    ['print', 8, 1],
     ['print', 8, 1.3],
     ['print', 16, 0.8],
     ['reference', 16, 1],
@@ -143,6 +144,8 @@ describe('compiled fast path', () => {
         outputBits: bits,
       };
       const plan = structuredClone(compileInversion(params));
+      // 8-bit with saturation 1 reads rounded codes at the nearest entry; the others interpolate.
+      expect(plan.codeLut !== null).toBe(bits === 8 && saturation === 1);
       const pixels = input.length / 3;
       const out = bits === 8 ? new Uint8Array(input.length) : new Uint16Array(input.length);
       applyInversion(plan, input, out, 0, pixels >> 1);

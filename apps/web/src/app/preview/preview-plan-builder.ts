@@ -89,6 +89,7 @@ export function createPreviewPlanBuilder(
       directLut: null,
       // the template's composed table describes the template's own tables, not these
       foldedLut: null,
+      codeLut: null,
     };
   };
 }
