@@ -84,6 +84,8 @@ function linearMedian(sorted: Uint16Array, scanner: ScannerProfile, c: 0 | 1 | 2
 /**
  * Per-channel medians (linear light) of the unclipped pixels on a grid of `step` over a rectangle; dark specks
  * left out. The scanner's decoding is increasing, so medians are taken on counts and only they are linearised.
+ * Null when too few pixels are film, or when the rectangle is less even than `maxSpread` (its medians are then
+ * not taken: detection drops such blocks, and most of a frame's blocks are picture).
  */
 function sampleRect(
   image: RgbImage,
@@ -92,6 +94,7 @@ function sampleRect(
   clip: number,
   step: number,
   buffers: { scratch: Scratch | null },
+  maxSpread = Infinity,
 ): { rgb: Rgb; used: number; spread: number } | null {
   const [x0, y0, w, h] = rect;
   const grid = Math.ceil(w / step) * Math.ceil(h / step);
@@ -122,13 +125,15 @@ function sampleRect(
   for (let k = 0; k < n; k++) if (sums[k]! >= floor) order[kept++] = Math.abs(sums[k]! - mSum);
   const deviations = order.subarray(0, kept).sort();
   const mad = kept % 2 ? deviations[kept >> 1]! : 0.5 * (deviations[kept / 2 - 1]! + deviations[kept / 2]!);
+  const spread = mSum > 0 ? mad / mSum : 1;
+  if (spread > maxSpread) return null;
   const rgb: Rgb = [0, 0, 0];
   for (let c = 0 as 0 | 1 | 2; c < 3; c++) {
     let m = 0;
     for (let k = 0; k < n; k++) if (sums[k]! >= floor) channel[m++] = pixels[3 * k + c]!;
     rgb[c] = linearMedian(channel.subarray(0, m).sort(), scanner, c);
   }
-  return { rgb, used: kept, spread: mSum > 0 ? mad / mSum : 1 };
+  return { rgb, used: kept, spread };
 }
 
 /**
@@ -171,8 +176,8 @@ export function detectFilmBase(
   const blocks: { rect: Region; rgb: Rgb; used: number; spread: number; level: number }[] = [];
   for (let y = 0; y + size <= image.height; y += size) {
     for (let x = 0; x + size <= image.width; x += size) {
-      const s = sampleRect(image, scanner, [x, y, size, size], clip, step, buffers);
-      if (!s || s.spread > EVENNESS) continue;
+      const s = sampleRect(image, scanner, [x, y, size, size], clip, step, buffers, EVENNESS);
+      if (!s) continue;
       blocks.push({ rect: [x, y, size, size], ...s, level: s.rgb[0] + s.rgb[1] + s.rgb[2] });
     }
   }

@@ -1,4 +1,6 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { percentilePair } from './frame-levels';
 import {
   exposeNegative,
   gradientScene,
@@ -120,5 +122,29 @@ describe('black and white point shifts', () => {
 
   it('refuses a shift that is not a number', () => {
     expect(() => shiftLevelPoints(levels, Number.NaN, 0)).toThrow(RangeError);
+  });
+});
+
+describe('percentilePair', () => {
+  it('reads the same two ranks as a full sort does (property)', () => {
+    fc.assert(
+      fc.property(
+        // + 0 turns −0 into 0: a sort orders the two, a selection (rightly) does not.
+        fc.array(
+          fc.double({ min: -6, max: 3, noNaN: true }).map((v) => v + 0),
+          { minLength: 1, maxLength: 400 },
+        ),
+        fc.double({ min: 0, max: 0.5, noNaN: true }),
+        (values, q) => {
+          const sorted = Float64Array.from(values).sort();
+          const at = (p: number) => sorted[Math.round(p * (sorted.length - 1))]!;
+          expect(percentilePair(Float64Array.from(values), q)).toEqual([at(q), at(1 - q)]);
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+  it('gives zeros for no values', () => {
+    expect(percentilePair(new Float64Array(0), 0.005)).toEqual([0, 0]);
   });
 });

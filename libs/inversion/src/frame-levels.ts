@@ -1,4 +1,5 @@
 import type { Balance, Tone } from '@clearbase/contracts';
+import quickselect from 'quickselect';
 import type { Region, RgbImage } from './film-base';
 import { DENSITY_RANGE, LUMINANCE_WEIGHTS, resolveInversion, type InversionParams } from './invert-pixel';
 import { densityTable, exposureTable, EXPOSURE_TABLE_SIZE } from './inversion-tables';
@@ -78,19 +79,37 @@ export function measureFrameLevels(
   }
   const n = Math.max(1, count);
   const channelMeans: Rgb = [sums[0] / n, sums[1] / n, sums[2] / n];
-  const sorted = lum.subarray(0, count).sort();
   const pct = (options.clipPercent ?? 0.5) / 100;
-  const at = (q: number) =>
-    sorted[Math.min(sorted.length - 1, Math.max(0, Math.round(q * (sorted.length - 1))))] ?? 0;
+  const [black, white] = percentilePair(lum.subarray(0, count), pct);
   return {
     midLogExposure:
       LUMINANCE_WEIGHTS[0] * channelMeans[0] +
       LUMINANCE_WEIGHTS[1] * channelMeans[1] +
       LUMINANCE_WEIGHTS[2] * channelMeans[2],
     channelMeans,
-    blackLogExposure: at(pct),
-    whiteLogExposure: at(1 - pct),
+    blackLogExposure: black,
+    whiteLogExposure: white,
   };
+}
+
+/**
+ * The values at ranks round(q·(n − 1)) and round((1 − q)·(n − 1)), q ≤ 0.5, the same as reading them from the
+ * sorted values, by two selections in place (Floyd–Rivest, linear time) instead of a sort; [0, 0] when empty.
+ */
+export function percentilePair(values: Float64Array, q: number): [number, number] {
+  const n = values.length;
+  if (!n) return [0, 0];
+  const rank = (p: number) => Math.min(n - 1, Math.max(0, Math.round(p * (n - 1))));
+  const low = rank(q),
+    high = rank(1 - q);
+  // A typed array works as the plain array the package's types name: it only reads, writes and swaps by index.
+  const arr = values as unknown as number[];
+  quickselect(arr, low);
+  const black = values[low]!;
+  // Everything after `low` is at least values[low], so the high rank is selected there (read the low one first:
+  // the second selection moves what it holds).
+  if (high > low) quickselect(arr, high, low + 1);
+  return [black, values[high]!];
 }
 
 /**
