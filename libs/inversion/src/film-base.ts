@@ -1,4 +1,5 @@
 import type { ScannerProfile } from '@clearbase/contracts';
+import quickselect from 'quickselect';
 import { linearise, FULL_SCALE_16 } from './scanner-input';
 import type { Rgb } from './srgb';
 
@@ -58,7 +59,8 @@ function sampleStep(w: number, h: number): number {
 /** Reusable sample buffers, grown on demand, so a detection allocates nothing per block. */
 interface Scratch {
   sums: Uint32Array;
-  sorted: Uint32Array;
+  /** Room to select medians in, which reorders what it holds. */
+  work: Uint32Array;
   channel: Uint16Array;
   /** The unclipped samples' counts, gathered once: the frame is read once per block, not once per channel. */
   pixels: Uint16Array;
@@ -68,17 +70,34 @@ function scratchFor(scratch: Scratch | null, n: number): Scratch {
   if (scratch && scratch.sums.length >= n) return scratch;
   return {
     sums: new Uint32Array(n),
-    sorted: new Uint32Array(n),
+    work: new Uint32Array(n),
     channel: new Uint16Array(n),
     pixels: new Uint16Array(3 * n),
   };
 }
 
-/** Median of sorted counts in linear light: the mean of the two middle ones' linear values for an even count. */
-function linearMedian(sorted: Uint16Array, scanner: ScannerProfile, c: 0 | 1 | 2): number {
-  const n = sorted.length;
-  const lin = (i: number) => linearise(sorted[i]! / FULL_SCALE_16, scanner, c);
-  return n % 2 ? lin(n >> 1) : 0.5 * (lin(n / 2 - 1) + lin(n / 2));
+/**
+ * The middle value of unsorted values, or for an even count the two middle ones, as a sort would put them: by
+ * selection in place (Floyd–Rivest, linear time), which reorders `values`. Blocks hold about a hundred samples, and
+ * a detection takes a few thousand such medians, where a sort each costs several times more.
+ */
+function middlePair(values: Uint16Array | Uint32Array): [number, number] {
+  const n = values.length;
+  const upper = n >> 1;
+  // A typed array works as the plain array the package's types name: it only reads, writes and swaps by index.
+  quickselect(values as unknown as number[], upper);
+  if (n % 2) return [values[upper]!, values[upper]!];
+  // Everything before `upper` is at most values[upper]: the lower middle one is the largest of them.
+  let lower = values[0]!;
+  for (let i = 1; i < upper; i++) if (values[i]! > lower) lower = values[i]!;
+  return [lower, values[upper]!];
+}
+
+/** Median of counts in linear light: the mean of the two middle ones' linear values for an even count. */
+function linearMedian(counts: Uint16Array, scanner: ScannerProfile, c: 0 | 1 | 2): number {
+  const [lo, hi] = middlePair(counts);
+  const low = linearise(lo / FULL_SCALE_16, scanner, c);
+  return lo === hi ? low : 0.5 * (low + linearise(hi / FULL_SCALE_16, scanner, c));
 }
 
 /**
@@ -99,7 +118,7 @@ function sampleRect(
   const [x0, y0, w, h] = rect;
   const grid = Math.ceil(w / step) * Math.ceil(h / step);
   const scratch = (buffers.scratch = scratchFor(buffers.scratch, grid));
-  const { sums, sorted, channel, pixels } = scratch;
+  const { sums, work, channel, pixels } = scratch;
   const data = image.data;
   let n = 0;
   for (let y = y0; y < y0 + h; y += step) {
@@ -115,23 +134,24 @@ function sampleRect(
     }
   }
   if (n < Math.max(4, grid / 4)) return null;
-  const order = sorted.subarray(0, n);
+  const order = work.subarray(0, n);
   order.set(sums.subarray(0, n));
-  order.sort();
-  const mSum = n % 2 ? order[n >> 1]! : 0.5 * (order[n / 2 - 1]! + order[n / 2]!);
+  const [sumLo, sumHi] = middlePair(order);
+  const mSum = 0.5 * (sumLo + sumHi);
   const floor = DUST_FRACTION * mSum;
-  // Deviations of the kept (not dust) sums from the median, for the evenness measure.
+  // Deviations of the kept (not dust) sums from the median, for the evenness measure (an even count's median of
+  // sums may end in .5, so they are kept doubled, in whole numbers).
   let kept = 0;
-  for (let k = 0; k < n; k++) if (sums[k]! >= floor) order[kept++] = Math.abs(sums[k]! - mSum);
-  const deviations = order.subarray(0, kept).sort();
-  const mad = kept % 2 ? deviations[kept >> 1]! : 0.5 * (deviations[kept / 2 - 1]! + deviations[kept / 2]!);
+  for (let k = 0; k < n; k++) if (sums[k]! >= floor) order[kept++] = Math.abs(2 * sums[k]! - sumLo - sumHi);
+  const [devLo, devHi] = middlePair(order.subarray(0, kept));
+  const mad = 0.25 * (devLo + devHi);
   const spread = mSum > 0 ? mad / mSum : 1;
   if (spread > maxSpread) return null;
   const rgb: Rgb = [0, 0, 0];
   for (let c = 0 as 0 | 1 | 2; c < 3; c++) {
     let m = 0;
     for (let k = 0; k < n; k++) if (sums[k]! >= floor) channel[m++] = pixels[3 * k + c]!;
-    rgb[c] = linearMedian(channel.subarray(0, m).sort(), scanner, c);
+    rgb[c] = linearMedian(channel.subarray(0, m), scanner, c);
   }
   return { rgb, used: kept, spread };
 }
