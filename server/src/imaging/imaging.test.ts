@@ -110,16 +110,20 @@ describe('readNegative', () => {
     expect(Array.from(target)).toEqual(Array.from(data));
   });
 
-  it('reads an 8-bit file scaled to 16-bit full scale, with a warning', async () => {
-    const path = join(dir, 'eight.png');
-    await sharp(new Uint8Array(W * H * 3).fill(200), { raw: { width: W, height: H, channels: 3 } })
-      .png()
-      .toFile(path);
-    const img = await readNegative(path);
-    expect(img.bitDepth).toBe(8);
-    expect(img.data[0]).toBe(200 * 257);
-    expect(img.warnings.join(' ')).toMatch(/8 bits/);
-  });
+  // A PNG says its depth in its first bytes; a TIFF is first decoded as 16-bit and again once its header says 8.
+  for (const format of ['png', 'tiff'] as const) {
+    it(`reads an 8-bit ${format} file scaled to 16-bit full scale, with a warning`, async () => {
+      const path = join(dir, `eight.${format}`);
+      await sharp(new Uint8Array(W * H * 3).fill(200), { raw: { width: W, height: H, channels: 3 } })
+        .toFormat(format)
+        .toFile(path);
+      const img = await readNegative(path);
+      expect(img.bitDepth).toBe(8);
+      expect(img.data.length).toBe(W * H * 3);
+      expect(img.data.every((v) => v === 200 * 257)).toBe(true);
+      expect(img.warnings.join(' ')).toMatch(/8 bits/);
+    });
+  }
 
   it('drops an alpha channel with a warning', async () => {
     const rgba = new Uint16Array(W * H * 4).fill(40000);

@@ -28,6 +28,9 @@ export interface NegativeImage {
   warnings: string[];
 }
 
+/** Where a PNG's bit depth is: 8 signature bytes, the IHDR chunk's length and type, width and height (PNG §11.2.2). */
+const PNG_BIT_DEPTH_AT = 24;
+
 const FORMAT_NAMES: Record<Exclude<SniffedFormat, 'unknown'>, string> = {
   tiff: 'TIFF',
   png: 'PNG',
@@ -66,7 +69,8 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
       'The file is not an image: it does not start like a TIFF, PNG or JPEG file.',
     );
   }
-  const formatName = FORMAT_NAMES[sniffed];
+  const format = sniffed;
+  const formatName = FORMAT_NAMES[format];
   const damaged = (cause: unknown) =>
     new ImageInputError(
       'truncated',
@@ -74,78 +78,101 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
       { cause },
     );
 
-  let meta: Metadata;
-  try {
-    meta = await sharp(path, { limitInputPixels: false }).metadata();
-  } catch (cause) {
-    throw damaged(cause);
-  }
-  const { width, height } = meta;
-  if (!width || !height) throw damaged(new Error('header has no size'));
-  if (width * height > maxPixels) {
-    throw new ImageInputError(
-      'too-many-pixels',
-      `The image is ${width} × ${height} pixels (${formatMegapixels(width * height)}), more than the ${formatMegapixels(maxPixels)} allowed.`,
-    );
-  }
-
-  const warnings: string[] = [];
-  let bitDepth: 8 | 16;
-  if (meta.depth === 'ushort') {
-    bitDepth = 16;
-  } else if (meta.depth === 'uchar') {
-    bitDepth = 8;
-    warnings.push(
-      'The scan has 8 bits per channel; 16-bit scans keep more detail in the dense parts of the negative.',
-    );
-  } else {
-    throw new ImageInputError(
-      'unsupported-depth',
-      `The image stores samples as ${meta.depth ?? 'an unknown type'}; only 8- and 16-bit integer samples are supported.`,
-    );
-  }
-  if (meta.space === 'cmyk') {
-    throw new ImageInputError('not-colour', 'The image is CMYK; a negative scan must be RGB.');
-  }
-  const colourChannels = meta.hasAlpha ? meta.channels - 1 : meta.channels;
-  if (colourChannels < 3) {
-    throw new ImageInputError(
-      'not-colour',
-      'The scan is greyscale; a colour negative must be scanned in RGB so the film base and each dye layer can be measured.',
-    );
-  }
-  if (meta.hasAlpha) warnings.push('The alpha channel was dropped.');
-  if (meta.icc)
-    warnings.push(
-      'The embedded ICC profile was ignored; the scanner profile describes how counts are encoded.',
-    );
-
-  let raw: { data: Buffer; info: OutputInfo };
-  try {
-    raw = await sharp(path, {
-      limitInputPixels: maxPixels,
-      failOn: 'error',
-      ignoreIcc: true,
-      sequentialRead: true,
-    })
+  const decode = (bits: 8 | 16) =>
+    sharp(path, { limitInputPixels: maxPixels, failOn: 'error', ignoreIcc: true, sequentialRead: true })
       .removeAlpha()
-      .toColourspace(bitDepth === 16 ? 'rgb16' : 'srgb')
-      .raw({ depth: bitDepth === 16 ? 'ushort' : 'uchar' })
+      .toColourspace(bits === 16 ? 'rgb16' : 'srgb')
+      .raw({ depth: bits === 16 ? 'ushort' : 'uchar' })
       .toBuffer({ resolveWithObject: true });
-  } catch (cause) {
-    throw damaged(cause);
+  // The decode is nearly all of a read, so it starts beside the header's, on another of libuv's threads, at the depth
+  // the first bytes suggest (a JPEG or an 8-bit PNG: 8, else 16); a wrong guess decodes again once the header says.
+  // libvips checks `limitInputPixels` from the header before it decodes any pixel. Settled here, so a refusal below
+  // never leaves it rejected unheard; every refusal waits for it, so no decode outlives its read.
+  const guess: 8 | 16 = sniffed === 'jpeg' || (sniffed === 'png' && head[PNG_BIT_DEPTH_AT] === 8) ? 8 : 16;
+  const early = decode(guess).then(
+    (value) => ({ value, error: null }),
+    (error: unknown) => ({ value: null, error }),
+  );
+  try {
+    return await readWithHeader();
+  } catch (error) {
+    await early;
+    throw error;
   }
-  if (raw.info.channels !== 3 || raw.info.width !== width || raw.info.height !== height) {
-    throw damaged(new Error(`decoded ${raw.info.width}x${raw.info.height}x${raw.info.channels}`));
+
+  async function readWithHeader(): Promise<NegativeImage> {
+    let meta: Metadata;
+    try {
+      meta = await sharp(path, { limitInputPixels: false }).metadata();
+    } catch (cause) {
+      throw damaged(cause);
+    }
+    const { width, height } = meta;
+    if (!width || !height) throw damaged(new Error('header has no size'));
+    if (width * height > maxPixels) {
+      throw new ImageInputError(
+        'too-many-pixels',
+        `The image is ${width} × ${height} pixels (${formatMegapixels(width * height)}), more than the ${formatMegapixels(maxPixels)} allowed.`,
+      );
+    }
+
+    const warnings: string[] = [];
+    let bitDepth: 8 | 16;
+    if (meta.depth === 'ushort') {
+      bitDepth = 16;
+    } else if (meta.depth === 'uchar') {
+      bitDepth = 8;
+      warnings.push(
+        'The scan has 8 bits per channel; 16-bit scans keep more detail in the dense parts of the negative.',
+      );
+    } else {
+      throw new ImageInputError(
+        'unsupported-depth',
+        `The image stores samples as ${meta.depth ?? 'an unknown type'}; only 8- and 16-bit integer samples are supported.`,
+      );
+    }
+    if (meta.space === 'cmyk') {
+      throw new ImageInputError('not-colour', 'The image is CMYK; a negative scan must be RGB.');
+    }
+    const colourChannels = meta.hasAlpha ? meta.channels - 1 : meta.channels;
+    if (colourChannels < 3) {
+      throw new ImageInputError(
+        'not-colour',
+        'The scan is greyscale; a colour negative must be scanned in RGB so the film base and each dye layer can be measured.',
+      );
+    }
+    if (meta.hasAlpha) warnings.push('The alpha channel was dropped.');
+    if (meta.icc)
+      warnings.push(
+        'The embedded ICC profile was ignored; the scanner profile describes how counts are encoded.',
+      );
+
+    let raw: { data: Buffer; info: OutputInfo };
+    let first: Awaited<typeof early> | null = await early;
+    if (bitDepth === guess) {
+      if (!first.value) throw damaged(first.error);
+      raw = first.value;
+    } else {
+      // Let go of the guessed decode's pixels before the second decode holds its own.
+      first = null;
+      try {
+        raw = await decode(bitDepth);
+      } catch (cause) {
+        throw damaged(cause);
+      }
+    }
+    if (raw.info.channels !== 3 || raw.info.width !== width || raw.info.height !== height) {
+      throw damaged(new Error(`decoded ${raw.info.width}x${raw.info.height}x${raw.info.channels}`));
+    }
+    const samples = width * height * 3;
+    const allocate =
+      options.allocate ??
+      (options.shared ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2)) : undefined);
+    const data = bitDepth === 16 ? toUint16(raw.data, allocate) : expand8(raw.data, allocate);
+    if (data.length < samples)
+      throw new RangeError(`Expected at least ${samples} samples from allocate but received ${data.length}`);
+    return { width, height, data, bitDepth, format, warnings };
   }
-  const samples = width * height * 3;
-  const allocate =
-    options.allocate ??
-    (options.shared ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2)) : undefined);
-  const data = bitDepth === 16 ? toUint16(raw.data, allocate) : expand8(raw.data, allocate);
-  if (data.length < samples)
-    throw new RangeError(`Expected at least ${samples} samples from allocate but received ${data.length}`);
-  return { width, height, data, bitDepth, format: sniffed, warnings };
 }
 
 async function readHead(path: string): Promise<Uint8Array> {
@@ -158,7 +185,8 @@ async function readHead(path: string): Promise<Uint8Array> {
   if (size === 0) throw new ImageInputError('empty', 'The file is empty (0 bytes).');
   const handle = await open(path, 'r');
   try {
-    const head = new Uint8Array(16);
+    // Enough for the format's signature and a PNG's bit depth.
+    const head = new Uint8Array(32);
     const { bytesRead } = await handle.read(head, 0, head.length, 0);
     return head.subarray(0, bytesRead);
   } finally {
