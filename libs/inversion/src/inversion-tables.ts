@@ -1,5 +1,5 @@
 import type { ScannerProfile } from '@clearbase/contracts';
-import { densityAboveBase } from './density';
+import { MIN_TRANSMITTANCE } from './density';
 import { DENSITY_RANGE, RELATIVE_LOG_EXPOSURE_RANGE, type ResolvedInversion } from './invert-pixel';
 import { linearise, FULL_SCALE_16 } from './scanner-input';
 import type { Rgb } from './srgb';
@@ -27,14 +27,36 @@ let lastInverse: { key: string; table: Float64Array } | null = null;
 
 function buildDensityTable(scanner: ScannerProfile, base: Rgb): Float32Array {
   const [dMin, dMax] = DENSITY_RANGE;
+  const logLight = scannerLogLight(scanner);
   const table = new Float32Array(3 * 65536);
   for (let c = 0 as 0 | 1 | 2; c < 3; c++) {
-    const b = base[c];
-    for (let v = 0; v < 65536; v++) {
-      const d = densityAboveBase(linearise(v / FULL_SCALE_16, scanner, c), b);
-      table[c * 65536 + v] = d < dMin ? dMin : d > dMax ? dMax : d;
+    // D = log10(B / L) = log10 B − log10 L (densityAboveBase), with the scanner's part kept from frame to frame.
+    const logBase = Math.log10(Math.max(base[c], MIN_TRANSMITTANCE));
+    for (let v = c * 65536; v < (c + 1) * 65536; v++) {
+      const d = logBase - logLight[v]!;
+      table[v] = d < dMin ? dMin : d > dMax ? dMax : d;
     }
   }
+  return table;
+}
+
+let lastLogLight: { key: string; table: Float64Array } | null = null;
+
+/**
+ * log10 of the linear light of every 16-bit count, per channel (3 × 65536), held to MIN_TRANSMITTANCE: the scanner's
+ * part of the density table, which does not change with the base, so each frame's own base costs a subtraction a
+ * count instead of a decoding and a logarithm. The last scanner's is kept.
+ */
+function scannerLogLight(scanner: ScannerProfile): Float64Array {
+  const key = JSON.stringify(scanner);
+  if (lastLogLight?.key === key) return lastLogLight.table;
+  const table = new Float64Array(3 * 65536);
+  for (let c = 0 as 0 | 1 | 2; c < 3; c++)
+    for (let v = 0; v < 65536; v++)
+      table[c * 65536 + v] = Math.log10(
+        Math.max(linearise(v / FULL_SCALE_16, scanner, c), MIN_TRANSMITTANCE),
+      );
+  lastLogLight = { key, table };
   return table;
 }
 
