@@ -1,7 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import {
+  baseBlockLayout,
+  baseFromBlocks,
   baseFromRegion,
   detectFilmBase,
+  examineBaseBlocks,
   exposeNegative,
   LINEAR_SCANNER,
   outdoorScene,
@@ -16,6 +19,26 @@ import { gammaTestScanner } from './test-fixtures';
 const scanner = gammaTestScanner;
 
 describe('film base detection', () => {
+  it('finds the same base from blocks examined in parts, joined in row order', () => {
+    const neg = exposeNegative(outdoorScene(320, 200), {
+      stock: TINTLINE_400,
+      scanner,
+      rebate: 24,
+      sprocketHoles: true,
+      dust: 60,
+      grain: 0.01,
+      seed: 3,
+    });
+    const { blockRows } = baseBlockLayout(neg);
+    const cut = Math.floor(blockRows / 3);
+    const parts = [
+      examineBaseBlocks(neg, scanner, {}, 0, cut),
+      examineBaseBlocks(neg, scanner, {}, cut, 2 * cut),
+      examineBaseBlocks(neg, scanner, {}, 2 * cut),
+    ];
+    expect(parts.every((p) => p.length > 0)).toBe(true);
+    expect(baseFromBlocks(parts.flat())).toEqual(detectFilmBase(neg, scanner));
+  });
   for (const stock of [POLYCLEAR_200, TINTLINE_400, AMBERMASK_100]) {
     it(`finds the base of ${stock.base} film within 1 % per channel despite sprocket holes, dust and grain`, () => {
       const neg = exposeNegative(outdoorScene(320, 200), {

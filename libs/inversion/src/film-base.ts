@@ -176,6 +176,55 @@ export function baseFromRegion(
   return { rgb: s.rgb, region: [x, y, w, h], confidence: Math.max(0, Math.min(1, 1 - s.spread / EVENNESS)) };
 }
 
+/** One block examined by base detection that is even enough to be base. */
+export interface BaseBlock {
+  rect: Region;
+  /** Per-channel medians, linear light. */
+  rgb: Rgb;
+  used: number;
+  spread: number;
+  /** Sum of the medians, to find the least dense blocks. */
+  level: number;
+}
+
+/** How detection divides an image into blocks: their side, the sampling step, and how many rows of blocks. */
+export function baseBlockLayout(
+  image: Pick<RgbImage, 'width' | 'height'>,
+  options: DetectFilmBaseOptions = {},
+): { size: number; step: number; blockRows: number } {
+  const size = options.blockSize ?? Math.max(4, Math.floor(Math.min(image.width, image.height) / 40));
+  // Each block is sampled on the same grid, at most MAX_BASE_SAMPLES pixels over the image and 4 × 4 per block.
+  const step = Math.min(Math.max(1, Math.floor(size / 4)), sampleStep(image.width, image.height));
+  return { size, step, blockRows: Math.floor(image.height / size) };
+}
+
+/**
+ * The even blocks of film among rows [firstRow, endRow) of detection's blocks (all by default), in row order:
+ * the first half of `detectFilmBase`, which parts of an image can do apart (on worker threads) and
+ * `baseFromBlocks` then joins, in the same order, into the same base.
+ */
+export function examineBaseBlocks(
+  image: RgbImage,
+  scanner: ScannerProfile,
+  options: DetectFilmBaseOptions = {},
+  firstRow = 0,
+  endRow = Number.POSITIVE_INFINITY,
+): BaseBlock[] {
+  const clip = options.clipCount ?? DEFAULT_CLIP_FRACTION * FULL_SCALE_16;
+  const { size, step, blockRows } = baseBlockLayout(image, options);
+  const buffers = { scratch: null as Scratch | null };
+  const blocks: BaseBlock[] = [];
+  for (let row = Math.max(0, firstRow); row < Math.min(blockRows, endRow); row++) {
+    const y = row * size;
+    for (let x = 0; x + size <= image.width; x += size) {
+      const s = sampleRect(image, scanner, [x, y, size, size], clip, step, buffers, EVENNESS);
+      if (!s) continue;
+      blocks.push({ rect: [x, y, size, size], ...s, level: s.rgb[0] + s.rgb[1] + s.rgb[2] });
+    }
+  }
+  return blocks;
+}
+
 /**
  * Finds the film base: examines square blocks over the image (rebate strips, inter-frame gaps and the
  * frame alike), keeps even blocks of film (bare light and dust left out), and takes the per-channel
@@ -187,21 +236,14 @@ export function detectFilmBase(
   scanner: ScannerProfile,
   options: DetectFilmBaseOptions = {},
 ): FilmBase {
-  const clip = options.clipCount ?? DEFAULT_CLIP_FRACTION * FULL_SCALE_16;
-  const size = options.blockSize ?? Math.max(4, Math.floor(Math.min(image.width, image.height) / 40));
+  return baseFromBlocks(examineBaseBlocks(image, scanner, options), options);
+}
+
+/** The second half of `detectFilmBase`: the base from the even blocks of the whole image, in row order. */
+export function baseFromBlocks(blocks: BaseBlock[], options: DetectFilmBaseOptions = {}): FilmBase {
   const tolerance = options.tolerance ?? 0.02;
-  // Each block is sampled on the same grid, at most MAX_BASE_SAMPLES pixels over the image and 4 × 4 per block.
-  const step = Math.min(Math.max(1, Math.floor(size / 4)), sampleStep(image.width, image.height));
-  const buffers = { scratch: null as Scratch | null };
-  const blocks: { rect: Region; rgb: Rgb; used: number; spread: number; level: number }[] = [];
-  for (let y = 0; y + size <= image.height; y += size) {
-    for (let x = 0; x + size <= image.width; x += size) {
-      const s = sampleRect(image, scanner, [x, y, size, size], clip, step, buffers, EVENNESS);
-      if (!s) continue;
-      blocks.push({ rect: [x, y, size, size], ...s, level: s.rgb[0] + s.rgb[1] + s.rgb[2] });
-    }
-  }
   if (!blocks.length) return { rgb: [0, 0, 0], region: [0, 0, 0, 0], confidence: 0 };
+  const size = blocks[0]!.rect[2];
   const top = Math.max(...blocks.map((b) => b.level));
   const chosen = blocks.filter((b) => b.level >= (1 - tolerance) * top);
   const rgb: Rgb = [
@@ -210,9 +252,13 @@ export function detectFilmBase(
     median(chosen.map((b) => b.rgb[2])),
   ];
   // Report one strip an operator can check: the row or column of blocks holding most base blocks.
-  const count = (key: (b: (typeof chosen)[number]) => number) => {
-    const m = new Map<number, typeof chosen>();
-    for (const b of chosen) m.set(key(b), [...(m.get(key(b)) ?? []), b]);
+  const count = (key: (b: BaseBlock) => number) => {
+    const m = new Map<number, BaseBlock[]>();
+    for (const b of chosen) {
+      const group = m.get(key(b));
+      if (group) group.push(b);
+      else m.set(key(b), [b]);
+    }
     return [...m.values()].reduce((a, b) => (b.length > a.length ? b : a));
   };
   const byRow = count((b) => b.rect[1]),
