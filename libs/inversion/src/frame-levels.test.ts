@@ -4,10 +4,7 @@ import { percentilePair } from './frame-levels';
 import {
   exposeNegative,
   gradientScene,
-  levelExposures,
   levelSample,
-  levelSampleRows,
-  levelsFromExposures,
   levelsToTone,
   measureFrameLevels,
   neutralBalance,
@@ -55,27 +52,6 @@ describe('auto exposure and levels', () => {
     expect(l.whiteLogExposure).toBeGreaterThan(l.midLogExposure);
     expect(tone.blackPoint).toBeLessThan(0.18);
     expect(tone.whitePoint).toBeGreaterThan(0.18);
-  });
-  it('measures the same levels from parts of its sample, joined in row order', () => {
-    const neg = exposeNegative(outdoorScene(300, 200), {
-      stock: POLYCLEAR_200,
-      scanner,
-      grain: 0.01,
-      rebate: 8,
-    });
-    const params = {
-      profile,
-      scanner,
-      base: neg.truth.base,
-      render: 'print' as const,
-      outputBits: 8 as const,
-    };
-    const options = { region: neg.truth.frame, step: 3 };
-    const rows = levelSampleRows(neg, options);
-    const half = rows >> 1;
-    const parts = [levelExposures(params, neg, options, 0, half), levelExposures(params, neg, options, half)];
-    expect(parts[0]!.length + parts[1]!.length).toBe(3 * rows * Math.ceil(neg.truth.frame[2] / 3));
-    expect(levelsFromExposures(parts)).toEqual(measureFrameLevels(params, neg, options));
   });
   it('measures the same levels from its default strided sample as from every pixel', () => {
     const neg = exposeNegative(outdoorScene(900, 600), {

@@ -40,41 +40,10 @@ export function measureFrameLevels(
   image: RgbImage,
   options: MeasureLevelsOptions = {},
 ): FrameLevels {
-  return levelsFromExposures([levelExposures(params, image, options)], options);
-}
-
-/** The rows of the strided sample `measureFrameLevels` takes over `options.region`, to share out among threads. */
-export function levelSampleRows(
-  image: Pick<RgbImage, 'width' | 'height'>,
-  options: MeasureLevelsOptions = {},
-): number {
-  const [, , w, h] = options.region ?? [0, 0, image.width, image.height];
-  return Math.ceil(h / levelStep(w, h, options));
-}
-
-function levelStep(w: number, h: number, options: MeasureLevelsOptions): number {
-  return Math.max(1, Math.floor(options.step ?? Math.ceil(Math.sqrt((w * h) / MAX_LEVEL_SAMPLES))));
-}
-
-/**
- * The first half of `measureFrameLevels`: the log exposures (red, green, blue, pixel after pixel) of rows
- * [firstRow, endRow) of its strided sample (all by default), which parts of a frame can measure apart (on worker
- * threads) and `levelsFromExposures` then joins, in the same order, into the same levels.
- */
-export function levelExposures(
-  params: Omit<InversionParams, 'midLogExposure' | 'exposureStops'>,
-  image: RgbImage,
-  options: MeasureLevelsOptions = {},
-  firstRow = 0,
-  endRow = Number.POSITIVE_INFINITY,
-): Float64Array {
   const full: InversionParams = { ...params, midLogExposure: 0, exposureStops: 0, render: 'reference' };
   const resolved = resolveInversion(full);
   const [x0, y0, w, h] = options.region ?? [0, 0, image.width, image.height];
-  const step = levelStep(w, h, options);
-  const rows = Math.ceil(h / step);
-  const from = Math.max(0, firstRow),
-    to = Math.min(rows, endRow);
+  const step = Math.max(1, Math.floor(options.step ?? Math.ceil(Math.sqrt((w * h) / MAX_LEVEL_SAMPLES))));
   const dl = densityTable(params.scanner, params.base);
   const el = exposureTable(resolved, JSON.stringify(params.profile.curves));
   const [dMin, dMax] = DENSITY_RANGE;
@@ -90,47 +59,28 @@ export function levelExposures(
     const lo = el[c * EXPOSURE_TABLE_SIZE + k]!;
     return lo + (x - k) * (el[c * EXPOSURE_TABLE_SIZE + k + 1]! - lo);
   };
-  const out = new Float64Array(3 * Math.max(0, to - from) * Math.ceil(w / step));
-  let o = 0;
-  for (let y = y0 + from * step; y < y0 + h && y < y0 + to * step; y += step) {
-    for (let x = x0; x < x0 + w; x += step, o += 3) {
+  const sums: Rgb = [0, 0, 0];
+  const lum = new Float64Array(Math.ceil(w / step) * Math.ceil(h / step));
+  let count = 0;
+  for (let y = y0; y < y0 + h; y += step) {
+    for (let x = x0; x < x0 + w; x += step) {
       const i = (y * image.width + x) * 3;
       const d0 = dl[image.data[i]!]!,
         d1 = dl[65536 + image.data[i + 1]!]!,
         d2 = dl[131072 + image.data[i + 2]!]!;
-      out[o] = expo(0, m[0][0] * d0 + m[0][1] * d1 + m[0][2] * d2);
-      out[o + 1] = expo(1, m[1][0] * d0 + m[1][1] * d1 + m[1][2] * d2);
-      out[o + 2] = expo(2, m[2][0] * d0 + m[2][1] * d1 + m[2][2] * d2);
+      const er = expo(0, m[0][0] * d0 + m[0][1] * d1 + m[0][2] * d2),
+        eg = expo(1, m[1][0] * d0 + m[1][1] * d1 + m[1][2] * d2),
+        eb = expo(2, m[2][0] * d0 + m[2][1] * d1 + m[2][2] * d2);
+      sums[0] += er;
+      sums[1] += eg;
+      sums[2] += eb;
+      lum[count++] = LUMINANCE_WEIGHTS[0] * er + LUMINANCE_WEIGHTS[1] * eg + LUMINANCE_WEIGHTS[2] * eb;
     }
   }
-  return out.subarray(0, o);
-}
-
-/** The second half of `measureFrameLevels`: levels from the sample's log exposures, parts in row order. */
-export function levelsFromExposures(
-  parts: Float64Array[],
-  options: Pick<MeasureLevelsOptions, 'clipPercent'> = {},
-): FrameLevels {
-  const [wr, wg, wb] = LUMINANCE_WEIGHTS;
-  const lum = new Float64Array(parts.reduce((n, p) => n + p.length / 3, 0));
-  let s0 = 0,
-    s1 = 0,
-    s2 = 0,
-    count = 0;
-  for (const part of parts)
-    for (let o = 0; o < part.length; o += 3) {
-      const er = part[o]!,
-        eg = part[o + 1]!,
-        eb = part[o + 2]!;
-      s0 += er;
-      s1 += eg;
-      s2 += eb;
-      lum[count++] = wr * er + wg * eg + wb * eb;
-    }
   const n = Math.max(1, count);
-  const channelMeans: Rgb = [s0 / n, s1 / n, s2 / n];
+  const channelMeans: Rgb = [sums[0] / n, sums[1] / n, sums[2] / n];
   const pct = (options.clipPercent ?? 0.5) / 100;
-  const [black, white] = percentilePair(lum, pct);
+  const [black, white] = percentilePair(lum.subarray(0, count), pct);
   return {
     midLogExposure:
       LUMINANCE_WEIGHTS[0] * channelMeans[0] +
@@ -173,7 +123,7 @@ export function levelSample(
   options: Pick<MeasureLevelsOptions, 'region' | 'step'> = {},
 ): RgbImage {
   const [x0, y0, w, h] = options.region ?? [0, 0, image.width, image.height];
-  const step = levelStep(w, h, options);
+  const step = Math.max(1, Math.floor(options.step ?? Math.ceil(Math.sqrt((w * h) / MAX_LEVEL_SAMPLES))));
   const width = Math.ceil(w / step),
     height = Math.ceil(h / step);
   const data = new Uint16Array(width * height * 3);

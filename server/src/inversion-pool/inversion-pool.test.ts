@@ -5,6 +5,7 @@ import {
   compileInversion,
   exposeNegative,
   LINEAR_SCANNER,
+  detectFilmBase,
   measureFrameLevels,
   outdoorScene,
   profileForStock,
@@ -20,7 +21,7 @@ afterAll(async () => {
   await pool.close();
 });
 
-function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: Matrix3) {
+function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: Matrix3, saturation = 1.2) {
   const neg = exposeNegative(outdoorScene(width, height), {
     stock: TINTLINE_400,
     scanner: LINEAR_SCANNER,
@@ -31,7 +32,7 @@ function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: 
   const input = sharedArray(Uint16Array, neg.data.length);
   input.set(neg.data);
   const stock = profileForStock(TINTLINE_400);
-  const profile = { ...stock, saturation: 1.2, ...(crosstalk ? { crosstalk } : {}) };
+  const profile = { ...stock, saturation, ...(crosstalk ? { crosstalk } : {}) };
   const params = {
     profile,
     scanner: LINEAR_SCANNER,
@@ -44,6 +45,22 @@ function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: 
 }
 
 describe('inversion pool', () => {
+  it('gives exactly the single-thread result through the nearest-code table (u8, saturation 1)', async () => {
+    const { neg, input, plan } = frame(301, 199, 'u8', undefined, 1);
+    expect(plan.codeLut).toBeTruthy();
+    const single = new Uint8Array(neg.data.length);
+    applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
+    const pooled = sharedArray(Uint8Array, neg.data.length);
+    await pool.invertFrame(plan, input, pooled, neg.width, neg.height);
+    expect(Buffer.from(pooled.buffer).equals(Buffer.from(single.buffer))).toBe(true);
+  });
+  it('detects the same film base as one thread, rows of blocks shared among the workers', async () => {
+    const { neg, input } = frame(420, 280, 'u8');
+    const image = { width: neg.width, height: neg.height, data: input };
+    const base = await pool.detectBase(image, LINEAR_SCANNER);
+    expect(base).toEqual(detectFilmBase(neg, LINEAR_SCANNER));
+    expect(base.confidence).toBeGreaterThan(0);
+  });
   for (const output of ['u8', 'u16'] as const) {
     it(`gives exactly the single-thread result (${output} output)`, async () => {
       const { neg, input, plan } = frame(331, 217, output, [

@@ -81,13 +81,28 @@ export function measureBase(
   negative: RgbImage,
   settings: Pick<FrameSettings, 'base' | 'scanner'>,
 ): { base: FilmBase; warnings: string[] } {
-  const warnings: string[] = [];
-  const base =
+  return checkedBase(
     settings.base === 'auto'
       ? detectFilmBase(negative, settings.scanner)
       : Array.isArray(settings.base)
         ? baseFromRegion(negative, settings.scanner, settings.base)
-        : settings.base;
+        : settings.base,
+  );
+}
+
+/** `measureBase` with a detection's work shared among the pool's workers (same result, off the calling thread). */
+export async function measureBaseOnPool(
+  pool: InversionPool,
+  negative: RgbImage,
+  settings: Pick<FrameSettings, 'base' | 'scanner'>,
+): Promise<{ base: FilmBase; warnings: string[] }> {
+  if (settings.base !== 'auto') return measureBase(negative, settings);
+  return checkedBase(await pool.detectBase(negative, settings.scanner));
+}
+
+/** A measured base with its warnings; throws FilmBaseError for one that cannot be used. */
+function checkedBase(base: FilmBase): { base: FilmBase; warnings: string[] } {
+  const warnings: string[] = [];
   if (!base.rgb.every((v) => v > 0 && v <= 1))
     throw new FilmBaseError(
       'No usable film base found; draw the base region by hand (--base x,y,w,h) over unexposed film.',
@@ -173,7 +188,7 @@ export async function invertNegativeFile(
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
   let measured: ReturnType<typeof measureBase>;
   try {
-    measured = measureBase(negative, settings);
+    measured = await measureBaseOnPool(pool, negative, settings);
     const levels = settings.levels ?? measureLevels(negative, settings, measured.base);
     const plan = compileInversion(
       inversionParams(settings, measured.base, levels, outKind === Uint8Array ? 8 : 16),
