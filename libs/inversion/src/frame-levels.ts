@@ -122,20 +122,53 @@ export function levelSample(
   image: RgbImage,
   options: Pick<MeasureLevelsOptions, 'region' | 'step'> = {},
 ): RgbImage {
-  const [x0, y0, w, h] = options.region ?? [0, 0, image.width, image.height];
+  const sampler = levelSampler(image, options);
+  sampler.take(image.data, image.height);
+  return sampler.sample();
+}
+
+/** `levelSample` taken band by band, as a frame's rows arrive (see `levelSampler`). */
+export interface LevelSampler {
+  /** Takes the sample's pixels among rows [0, endRow) of `data` (a frame of the size given) not taken yet. */
+  take(data: Uint16Array, endRow: number): void;
+  /** The sample, once every row holding part of it has been taken; throws a RangeError before. */
+  sample(): RgbImage;
+}
+
+/**
+ * `levelSample` of a frame of the given size, taken while its rows arrive (for example as they are copied in,
+ * while still in cache): the same pixels in the same order.
+ * @example const s = levelSampler(frame); s.take(data, 200); s.take(data, frame.height); s.sample()
+ */
+export function levelSampler(
+  frame: { width: number; height: number },
+  options: Pick<MeasureLevelsOptions, 'region' | 'step'> = {},
+): LevelSampler {
+  const [x0, y0, w, h] = options.region ?? [0, 0, frame.width, frame.height];
   const step = Math.max(1, Math.floor(options.step ?? Math.ceil(Math.sqrt((w * h) / MAX_LEVEL_SAMPLES))));
   const width = Math.ceil(w / step),
     height = Math.ceil(h / step);
   const data = new Uint16Array(width * height * 3);
-  let o = 0;
-  for (let y = y0; y < y0 + h; y += step)
-    for (let x = x0; x < x0 + w; x += step, o += 3) {
-      const i = (y * image.width + x) * 3;
-      data[o] = image.data[i]!;
-      data[o + 1] = image.data[i + 1]!;
-      data[o + 2] = image.data[i + 2]!;
-    }
-  return { width, height, data };
+  let row = 0,
+    o = 0;
+  return {
+    take(source, endRow) {
+      for (; row < height && y0 + row * step < endRow; row++) {
+        const y = y0 + row * step;
+        for (let x = x0; x < x0 + w; x += step, o += 3) {
+          const i = (y * frame.width + x) * 3;
+          data[o] = source[i]!;
+          data[o + 1] = source[i + 1]!;
+          data[o + 2] = source[i + 2]!;
+        }
+      }
+    },
+    sample() {
+      if (row < height)
+        throw new RangeError(`Expected all ${height} rows of the sample but ${row} were taken`);
+      return { width, height, data };
+    },
+  };
 }
 
 /**

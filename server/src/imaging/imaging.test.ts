@@ -110,6 +110,31 @@ describe('readNegative', () => {
     expect(Array.from(target)).toEqual(Array.from(data));
   });
 
+  it('tells onRows, band by band of about a megabyte, how many rows of the copy are in place', async () => {
+    // 3000 × 400: 18 000 bytes a row, so 58 rows a band and 7 bands.
+    const [w, h] = [3000, 400];
+    const data = ramp16(w, h);
+    const path = join(dir, 'bands.tif');
+    await sharp(data, { raw: { width: w, height: h, channels: 3 } })
+      .toColourspace('rgb16')
+      .tiff({ compression: 'deflate' })
+      .toFile(path);
+    const seen: number[] = [];
+    let wrong = 0;
+    const img = await readNegative(path, {
+      shared: true,
+      onRows: ({ data: copy }, endRow) => {
+        seen.push(endRow);
+        // the band just copied holds its decoded values
+        const from = (seen.at(-2) ?? 0) * w * 3;
+        for (let i = from; i < endRow * w * 3; i++) if (copy[i] !== data[i]) wrong++;
+      },
+    });
+    expect(seen).toEqual([58, 116, 174, 232, 290, 348, 400]);
+    expect(wrong).toBe(0);
+    expect(Buffer.from(img.data.buffer).equals(Buffer.from(data.buffer))).toBe(true);
+  });
+
   // A PNG says its depth in its first bytes; a TIFF is first decoded as 16-bit and again once its header says 8.
   for (const format of ['png', 'tiff'] as const) {
     it(`reads an 8-bit ${format} file scaled to 16-bit full scale, with a warning`, async () => {

@@ -14,6 +14,12 @@ export interface ReadNegativeOptions {
   shared?: boolean;
   /** Supplies the array the pixels are copied into (for example a reused shared buffer); overrides `shared`. */
   allocate?: (samples: number) => Uint16Array;
+  /**
+   * Called as the pixels are copied into `allocate`'s array, band by band of about a megabyte, with the frame (its
+   * `data` that array) and how many of its rows are in place: work on a band's rows now finds them in cache. Not called without `allocate`
+   * or `shared`, when a 16-bit image's own buffer is handed over without a copy.
+   */
+  onRows?: (frame: { width: number; height: number; data: Uint16Array }, endRow: number) => void;
 }
 
 export interface NegativeImage {
@@ -168,7 +174,8 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     const allocate =
       options.allocate ??
       (options.shared ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2)) : undefined);
-    const data = bitDepth === 16 ? toUint16(raw.data, allocate) : expand8(raw.data, allocate);
+    const rows = { width, onRows: options.onRows };
+    const data = bitDepth === 16 ? toUint16(raw.data, allocate, rows) : expand8(raw.data, allocate, rows);
     if (data.length < samples)
       throw new RangeError(`Expected at least ${samples} samples from allocate but received ${data.length}`);
     return { width, height, data, bitDepth, format, warnings };
@@ -194,18 +201,59 @@ async function readHead(path: string): Promise<Uint8Array> {
   }
 }
 
-function toUint16(bytes: Buffer, allocate: ((n: number) => Uint16Array) | undefined): Uint16Array {
+/** Rows copied at a time: about a megabyte of 16-bit RGB, which stays in cache for `onRows` (our choice). */
+const BAND_BYTES = 1 << 20;
+
+interface RowBands {
+  width: number;
+  onRows: ReadNegativeOptions['onRows'];
+}
+
+/** Copies `total` samples band by band of whole rows with `copy(from, to)`, telling `onRows` after each band. */
+function copyInBands(
+  out: Uint16Array,
+  total: number,
+  { width, onRows }: RowBands,
+  copy: (from: number, to: number) => void,
+) {
+  if (!onRows) {
+    copy(0, total);
+    return;
+  }
+  const rowSamples = width * 3;
+  const rows = total / rowSamples;
+  const frame = { width, height: rows, data: out };
+  const band = Math.max(1, Math.floor(BAND_BYTES / (rowSamples * 2)));
+  for (let row = 0; row < rows; row += band) {
+    const end = Math.min(rows, row + band);
+    copy(row * rowSamples, end * rowSamples);
+    onRows(frame, end);
+  }
+}
+
+function toUint16(
+  bytes: Buffer,
+  allocate: ((n: number) => Uint16Array) | undefined,
+  bands: RowBands,
+): Uint16Array {
   const count = bytes.byteLength / 2;
   if (!allocate && bytes.byteOffset % 2 === 0) return new Uint16Array(bytes.buffer, bytes.byteOffset, count);
   const out = allocate ? allocate(count) : new Uint16Array(count);
-  new Uint8Array(out.buffer, out.byteOffset, bytes.byteLength).set(bytes);
+  const target = new Uint8Array(out.buffer, out.byteOffset, bytes.byteLength);
+  copyInBands(out, count, bands, (from, to) => target.set(bytes.subarray(2 * from, 2 * to), 2 * from));
   return out;
 }
 
 /** 8 → 16 bits by ×257, so 255 maps to 65535 (sharp's own cast shifts by 8 and stops at 65280). */
-function expand8(bytes: Buffer, allocate: ((n: number) => Uint16Array) | undefined): Uint16Array {
+function expand8(
+  bytes: Buffer,
+  allocate: ((n: number) => Uint16Array) | undefined,
+  bands: RowBands,
+): Uint16Array {
   const out = allocate ? allocate(bytes.length) : new Uint16Array(bytes.length);
-  for (let i = 0; i < bytes.length; i++) out[i] = bytes[i]! * 257;
+  copyInBands(out, bytes.length, bands, (from, to) => {
+    for (let i = from; i < to; i++) out[i] = bytes[i]! * 257;
+  });
   return out;
 }
 

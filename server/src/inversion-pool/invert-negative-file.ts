@@ -22,10 +22,12 @@ import {
   type NegativeImage,
   type PositiveFormat,
   type PositiveMetadata,
+  type ReadNegativeOptions,
 } from '../imaging/index';
 import { createJpegStripWriter } from '../imaging/jpeg-strips';
 import { writeFileAtomically } from '../imaging/write-positive';
 import type { InversionPool } from './inversion-pool';
+import { measureWhileReading } from './measure-while-reading';
 
 // Below this a detected base is not trusted; the frame is flagged for QC; from memory.
 export const MIN_BASE_CONFIDENCE = 0.3;
@@ -162,10 +164,12 @@ export function readPooledNegative(
   pool: InversionPool,
   file: string,
   settings: Pick<FrameSettings, 'maxPixels'>,
+  onRows?: ReadNegativeOptions['onRows'],
 ): Promise<NegativeImage> {
   return readNegative(file, {
     allocate: (samples) => pool.buffers.acquire(Uint16Array, samples),
     ...(settings.maxPixels ? { maxPixels: settings.maxPixels } : {}),
+    ...(onRows ? { onRows } : {}),
   });
 }
 
@@ -183,13 +187,27 @@ export async function invertNegativeFile(
   decoded?: NegativeImage,
 ): Promise<FrameResult> {
   const start = performance.now();
-  const negative = decoded ?? (await readPooledNegative(pool, file, settings));
+  // A frame read here is measured as it is copied in, while its rows are in cache (same base and levels).
+  const reading = decoded
+    ? null
+    : measureWhileReading(settings.scanner, {
+        detectBase: settings.base === 'auto',
+        sampleLevels: !settings.levels,
+      });
+  const negative = decoded ?? (await readPooledNegative(pool, file, settings, reading?.onRows));
   const outKind = settings.format === 'jpeg' ? Uint8Array : Uint16Array;
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
   let measured: ReturnType<typeof measureBase>;
   try {
-    measured = await measureBaseOnPool(pool, negative, settings);
-    const levels = settings.levels ?? measureLevels(negative, settings, measured.base);
+    measured =
+      reading && settings.base === 'auto'
+        ? checkedBase(reading.base())
+        : await measureBaseOnPool(pool, negative, settings);
+    const levels =
+      settings.levels ??
+      (reading
+        ? measureLevels(reading.levelSample(), settings, measured.base, { step: 1 })
+        : measureLevels(negative, settings, measured.base));
     const plan = compileInversion(
       inversionParams(settings, measured.base, levels, outKind === Uint8Array ? 8 : 16),
     );
