@@ -9,7 +9,6 @@ import {
   type ScannerProfile,
 } from '@clearbase/contracts';
 import {
-  levelSample,
   LINEAR_SCANNER,
   rollBase,
   rollLevels,
@@ -24,6 +23,7 @@ import {
   type PositiveFormat,
 } from '../imaging/index';
 import { createInversionPool, type InversionPool } from '../inversion-pool/inversion-pool';
+import { measureWhileReading } from '../inversion-pool/measure-while-reading';
 import { mayKeepFrame } from '../inversion-pool/roll-keep-budget';
 import { runPipelined } from '../inversion-pool/run-pipelined';
 import {
@@ -143,11 +143,16 @@ async function measureRoll(
   // Two frames decode at once, as in the inverting pass: a decode keeps about one core busy.
   await runPipelined([...todo], FRAMES_IN_FLIGHT, async (index) => {
     try {
-      const negative = await readPooledNegative(pool, files[index]!, settings);
+      // Measured as it is copied in, while its rows are in cache (the same base and sample as afterwards).
+      const reading = measureWhileReading(settings.scanner, {
+        detectBase: settings.base === 'auto',
+        sampleLevels: true,
+      });
+      const negative = await readPooledNegative(pool, files[index]!, settings, reading.onRows);
       let keep = false;
       try {
-        bases[index] = measureBase(negative, settings).base;
-        samples[index] = levelSample(negative);
+        bases[index] = measureBase(negative, settings, reading).base;
+        samples[index] = reading.levelSample();
         keep = mayKeepFrame(negative.data.byteLength, keptBytes, freemem());
         if (keep) {
           kept.set(index, negative);

@@ -27,7 +27,7 @@ import {
 import { createJpegStripWriter } from '../imaging/jpeg-strips';
 import { writeFileAtomically } from '../imaging/write-positive';
 import type { InversionPool } from './inversion-pool';
-import { measureWhileReading } from './measure-while-reading';
+import { measureWhileReading, type MeasureWhileReading } from './measure-while-reading';
 
 // Below this a detected base is not trusted; the frame is flagged for QC; from memory.
 export const MIN_BASE_CONFIDENCE = 0.3;
@@ -82,10 +82,11 @@ export interface FrameResult {
 export function measureBase(
   negative: RgbImage,
   settings: Pick<FrameSettings, 'base' | 'scanner'>,
+  reading?: MeasureWhileReading,
 ): { base: FilmBase; warnings: string[] } {
   return checkedBase(
     settings.base === 'auto'
-      ? detectFilmBase(negative, settings.scanner)
+      ? (reading?.base() ?? detectFilmBase(negative, settings.scanner))
       : Array.isArray(settings.base)
         ? baseFromRegion(negative, settings.scanner, settings.base)
         : settings.base,
@@ -199,10 +200,9 @@ export async function invertNegativeFile(
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
   let measured: ReturnType<typeof measureBase>;
   try {
-    measured =
-      reading && settings.base === 'auto'
-        ? checkedBase(reading.base())
-        : await measureBaseOnPool(pool, negative, settings);
+    measured = reading
+      ? measureBase(negative, settings, reading)
+      : await measureBaseOnPool(pool, negative, settings);
     const levels =
       settings.levels ??
       (reading
