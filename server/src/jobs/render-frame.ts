@@ -10,6 +10,7 @@ import type { FileStore } from '../files/file-store';
 import { encodePositive, positivePipeline, readNegative, type PositiveMetadata } from '../imaging/index';
 import type { InversionPool } from '../inversion-pool/inversion-pool';
 import { measureLevels } from '../inversion-pool/invert-negative-file';
+import { measureWhileReading } from '../inversion-pool/measure-while-reading';
 import type { FrameOutputKind } from '../orders/order-tables';
 import { frameQcFlags } from './frame-qc';
 
@@ -60,14 +61,20 @@ export async function renderFrame(
   store: FileStore,
   request: FrameRenderRequest,
 ): Promise<{ outputs: StoredRender[]; qcFlags: QcFlag[]; warnings: string[] }> {
+  // The frame's own levels are sampled as it is copied in, while its rows are in cache (the same levels).
+  const reading = request.levels
+    ? null
+    : measureWhileReading(request.scanner, { detectBase: false, sampleLevels: true });
   const negative = await readNegative(request.sourcePath, {
     maxPixels: request.maxPixels,
     allocate: (samples) => pool.buffers.acquire(Uint16Array, samples),
+    ...(reading ? { onRows: reading.onRows } : {}),
   });
   const positive = pool.buffers.acquire(Uint16Array, negative.data.length);
   try {
     const settings = { profile: request.profile, scanner: request.scanner, render: 'print' as const };
-    const levels = request.levels ?? measureLevels(negative, settings, request.base);
+    const levels =
+      request.levels ?? measureLevels(reading!.levelSample(), settings, request.base, { step: 1 });
     const params = frameRenderParams({
       profile: request.profile,
       scanner: request.scanner,
