@@ -147,11 +147,13 @@ async function measureRoll(
       const reading = measureWhileReading(settings.scanner, {
         detectBase: settings.base === 'auto',
         sampleLevels: true,
+        pool,
       });
       const negative = await readPooledNegative(pool, files[index]!, settings, reading.onRows);
       let keep = false;
       try {
-        bases[index] = measureBase(negative, settings, reading).base;
+        const detected = settings.base === 'auto' ? await reading.base() : undefined;
+        bases[index] = measureBase(negative, settings, detected).base;
         samples[index] = reading.levelSample();
         keep = mayKeepFrame(negative.data.byteLength, keptBytes, freemem());
         if (keep) {
