@@ -9,8 +9,21 @@ export type Timed = () => Promise<unknown>;
 export async function timeInterleaved(
   cases: Record<string, Timed>,
   repetitions: number,
-  { warmUp = true }: { warmUp?: boolean } = {},
+  options: { warmUp?: boolean } = {},
 ): Promise<Record<string, number>> {
+  const samples = await sampleInterleaved(cases, repetitions, options);
+  return Object.fromEntries(Object.entries(samples).map(([n, ms]) => [n, median(ms)]));
+}
+
+/**
+ * As `timeInterleaved`, but every round's ms per case (round k of each case ran within one round of the others, so
+ * a ratio of two cases' round k is measured side by side).
+ */
+export async function sampleInterleaved(
+  cases: Record<string, Timed>,
+  repetitions: number,
+  { warmUp = true }: { warmUp?: boolean } = {},
+): Promise<Record<string, number[]>> {
   const names = Object.keys(cases);
   const samples: Record<string, number[]> = Object.fromEntries(names.map((n) => [n, []]));
   if (warmUp) for (const name of names) await cases[name]!();
@@ -22,5 +35,5 @@ export async function timeInterleaved(
       samples[name]!.push(performance.now() - start);
     }
   }
-  return Object.fromEntries(names.map((n) => [n, median(samples[n]!)]));
+  return samples;
 }

@@ -12,7 +12,8 @@ import { readNegative, writePositive } from '../server/src/imaging/index';
 import { createInversionPool } from '../server/src/inversion-pool/inversion-pool';
 import { invertNegativeFile } from '../server/src/inversion-pool/invert-negative-file';
 import { BENCH_SETTINGS, OUT_DIR, benchNegative } from './bench-negative';
-import { timeInterleaved } from './interleave';
+import { sampleInterleaved, timeInterleaved } from './interleave';
+import { median } from './median';
 
 const { values } = parseArgs({
   options: {
@@ -61,7 +62,10 @@ const cases = {
       .jpeg({ quality: 92, chromaSubsampling: '4:4:4', optimiseCoding: false })
       .toFile(join(OUT_DIR, 'negate.jpg')),
 };
-const t = await timeInterleaved(cases, reps);
+const rounds = await sampleInterleaved(cases, reps);
+const t = Object.fromEntries(Object.entries(rounds).map(([name, ms]) => [name, median(ms)]));
+// b/a of each round, (a) and (b) run one after the other: drift in the machine's load between rounds cancels out.
+const roundRatios = rounds['inversion']!.map((b, k) => b / rounds['ioFloor']![k]!).sort((x, y) => x - y);
 await pool.close();
 
 // The roll: the real command line, once with --roll over ROLL copies of the negative (symbolic links, so each
@@ -118,6 +122,11 @@ const rows: [string, string, string][] = [
     `b/a = ${(t['inversion']! / t['ioFloor']!).toFixed(2)} (goal ≤ 1.2)`,
   ],
   [
+    'b/a of each round, (a) and (b) side by side',
+    roundRatios[roundRatios.length >> 1]!.toFixed(2),
+    `median; ${roundRatios.map((r) => r.toFixed(2)).join(' ')}`,
+  ],
+  [
     '(c) sharp negate().normalise() to JPEG',
     ms(t['sharpNegate']!),
     `b/c = ${(t['inversion']! / t['sharpNegate']!).toFixed(2)}`,
@@ -138,5 +147,5 @@ const rows: [string, string, string][] = [
 for (const [name, value, note] of rows)
   process.stdout.write(`${name.padEnd(52)} ${value.padStart(10)}  ${note}\n`);
 process.stdout.write(
-  `${JSON.stringify({ width, height, bitDepth, threads, reps, ms: t, roll, ratios: { bOverA: t['inversion']! / t['ioFloor']!, bOverC: t['inversion']! / t['sharpNegate']!, rollOverSingles: roll['pipelined']! / roll['oneByOne']! }, peakRssMB, benchPeakRssMB })}\n`,
+  `${JSON.stringify({ width, height, bitDepth, threads, reps, ms: t, rounds, roll, ratios: { bOverA: t['inversion']! / t['ioFloor']!, bOverAByRound: roundRatios, bOverC: t['inversion']! / t['sharpNegate']!, rollOverSingles: roll['pipelined']! / roll['oneByOne']! }, peakRssMB, benchPeakRssMB })}\n`,
 );
