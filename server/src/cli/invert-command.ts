@@ -147,13 +147,11 @@ async function measureRoll(
       const reading = measureWhileReading(settings.scanner, {
         detectBase: settings.base === 'auto',
         sampleLevels: true,
-        pool,
       });
       const negative = await readPooledNegative(pool, files[index]!, settings, reading.onRows);
       let keep = false;
       try {
-        const detected = settings.base === 'auto' ? await reading.base() : undefined;
-        bases[index] = measureBase(negative, settings, detected).base;
+        bases[index] = measureBase(negative, settings, reading).base;
         samples[index] = reading.levelSample();
         keep = mayKeepFrame(negative.data.byteLength, keptBytes, freemem());
         if (keep) {

@@ -47,16 +47,6 @@ export interface InversionPool {
    * time and off the calling thread. A frame not on a SharedArrayBuffer is measured on the calling thread.
    */
   detectBase(image: RgbImage, scanner: ScannerProfile): Promise<FilmBase>;
-  /**
-   * `examineBaseBlocks` of rows [firstRow, endRow) of base detection's blocks, on a worker. The frame must be on a
-   * SharedArrayBuffer (a TypeError otherwise).
-   */
-  examineBaseBlocks(
-    image: RgbImage,
-    scanner: ScannerProfile,
-    firstRow: number,
-    endRow: number,
-  ): Promise<BaseBlock[]>;
   /** Stops the workers once running slices finish. */
   close(): Promise<void>;
 }
@@ -110,20 +100,6 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
     execArgv: [],
   });
 
-  function examineBaseBlocks(
-    image: RgbImage,
-    scanner: ScannerProfile,
-    firstRow: number,
-    endRow: number,
-  ): Promise<BaseBlock[]> {
-    if (!(image.data.buffer instanceof SharedArrayBuffer))
-      return Promise.reject(new TypeError('Expected a frame backed by a SharedArrayBuffer'));
-    const frame = { width: image.width, height: image.height, data: image.data };
-    return piscina.run({ image: frame, scanner, firstRow, endRow } satisfies BaseBlocksTask, {
-      name: 'baseBlocks',
-    }) as Promise<BaseBlock[]>;
-  }
-
   return {
     threads,
     buffers: createFrameBuffers(),
@@ -172,14 +148,17 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
     },
     async detectBase(image, scanner) {
       if (!(image.data.buffer instanceof SharedArrayBuffer)) return detectFilmBase(image, scanner);
+      const frame = { width: image.width, height: image.height, data: image.data };
       const parts = await Promise.all(
-        rowParts(baseBlockLayout(image).blockRows, threads).map(([firstRow, endRow]) =>
-          examineBaseBlocks(image, scanner, firstRow, endRow),
+        rowParts(baseBlockLayout(image).blockRows, threads).map(
+          ([firstRow, endRow]) =>
+            piscina.run({ image: frame, scanner, firstRow, endRow } satisfies BaseBlocksTask, {
+              name: 'baseBlocks',
+            }) as Promise<BaseBlock[]>,
         ),
       );
       return baseFromBlocks(parts.flat());
     },
-    examineBaseBlocks,
     async close() {
       await piscina.close();
     },

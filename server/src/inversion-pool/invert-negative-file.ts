@@ -27,7 +27,7 @@ import {
 import { createJpegStripWriter } from '../imaging/jpeg-strips';
 import { writeFileAtomically } from '../imaging/write-positive';
 import type { InversionPool } from './inversion-pool';
-import { measureWhileReading } from './measure-while-reading';
+import { measureWhileReading, type MeasureWhileReading } from './measure-while-reading';
 
 // Below this a detected base is not trusted; the frame is flagged for QC; from memory.
 export const MIN_BASE_CONFIDENCE = 0.3;
@@ -78,18 +78,15 @@ export interface FrameResult {
   ms: number;
 }
 
-/**
- * Measures a negative's film base the way `settings.base` asks (`detected`, a base detected already while the frame
- * was read, stands in for detection). Throws FilmBaseError for an unusable base.
- */
+/** Measures a negative's film base the way `settings.base` asks. Throws FilmBaseError for an unusable base. */
 export function measureBase(
   negative: RgbImage,
   settings: Pick<FrameSettings, 'base' | 'scanner'>,
-  detected?: FilmBase,
+  reading?: MeasureWhileReading,
 ): { base: FilmBase; warnings: string[] } {
   return checkedBase(
     settings.base === 'auto'
-      ? (detected ?? detectFilmBase(negative, settings.scanner))
+      ? (reading?.base() ?? detectFilmBase(negative, settings.scanner))
       : Array.isArray(settings.base)
         ? baseFromRegion(negative, settings.scanner, settings.base)
         : settings.base,
@@ -197,17 +194,15 @@ export async function invertNegativeFile(
     : measureWhileReading(settings.scanner, {
         detectBase: settings.base === 'auto',
         sampleLevels: !settings.levels,
-        pool,
       });
   const negative = decoded ?? (await readPooledNegative(pool, file, settings, reading?.onRows));
   const outKind = settings.format === 'jpeg' ? Uint8Array : Uint16Array;
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
   let measured: ReturnType<typeof measureBase>;
   try {
-    measured =
-      reading && settings.base === 'auto'
-        ? measureBase(negative, settings, await reading.base())
-        : await measureBaseOnPool(pool, negative, settings);
+    measured = reading
+      ? measureBase(negative, settings, reading)
+      : await measureBaseOnPool(pool, negative, settings);
     const levels =
       settings.levels ??
       (reading
