@@ -5,7 +5,6 @@ import {
   compileInversion,
   exposeNegative,
   LINEAR_SCANNER,
-  detectFilmBase,
   measureFrameLevels,
   outdoorScene,
   profileForStock,
@@ -53,13 +52,6 @@ describe('inversion pool', () => {
     const pooled = sharedArray(Uint8Array, neg.data.length);
     await pool.invertFrame(plan, input, pooled, neg.width, neg.height);
     expect(Buffer.from(pooled.buffer).equals(Buffer.from(single.buffer))).toBe(true);
-  });
-  it('detects the same film base as one thread, rows of blocks shared among the workers', async () => {
-    const { neg, input } = frame(420, 280, 'u8');
-    const image = { width: neg.width, height: neg.height, data: input };
-    const base = await pool.detectBase(image, LINEAR_SCANNER);
-    expect(base).toEqual(detectFilmBase(neg, LINEAR_SCANNER));
-    expect(base.confidence).toBeGreaterThan(0);
   });
   for (const output of ['u8', 'u16'] as const) {
     it(`gives exactly the single-thread result (${output} output)`, async () => {

@@ -1,15 +1,6 @@
 import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
-import type { ScannerProfile } from '@clearbase/contracts';
-import {
-  baseBlockLayout,
-  baseFromBlocks,
-  detectFilmBase,
-  type BaseBlock,
-  type FilmBase,
-  type RgbImage,
-} from '@clearbase/inversion';
-import type { BaseBlocksTask, InvertChunkTask } from './invert-chunk';
+import type { InvertChunkTask } from './invert-chunk';
 import { sharePlan } from './share-plan';
 import { createFrameBuffers, type FrameBuffers } from './frame-buffers';
 import { bundleWorker } from './worker-bundle';
@@ -42,11 +33,6 @@ export interface InversionPool {
     height: number,
     bands?: FrameBands,
   ): Promise<void>;
-  /**
-   * `detectFilmBase` with the frame's rows of blocks shared among the workers: the same base, in a fraction of the
-   * time and off the calling thread. A frame not on a SharedArrayBuffer is measured on the calling thread.
-   */
-  detectBase(image: RgbImage, scanner: ScannerProfile): Promise<FilmBase>;
   /** Stops the workers once running slices finish. */
   close(): Promise<void>;
 }
@@ -89,8 +75,7 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
   }
   // Workers run the bundled plain-JavaScript worker: no TypeScript loader per thread (seconds at start-up).
   const worker = bundleWorker(WORKER_URL);
-  // Each kind of task names the worker's export that takes it; the default one inverts a slice.
-  const piscina = new Piscina<InvertChunkTask | BaseBlocksTask, unknown>({
+  const piscina = new Piscina<InvertChunkTask, number>({
     filename: worker.href,
     minThreads: threads,
     maxThreads: threads,
@@ -126,7 +111,7 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
           output,
           firstPixel: row * width,
           pixelCount: rows * width,
-        } satisfies InvertChunkTask) as Promise<number>;
+        } satisfies InvertChunkTask);
       // Slices are queued in row order and the workers take them in that order, so bands finish top to bottom.
       const slicesOf = (firstRow: number, rows: number, count: number) => {
         const tasks: Promise<number>[] = [];
@@ -146,32 +131,10 @@ export function createInversionPool(options: InversionPoolOptions = {}): Inversi
       }
       await Promise.all(tasks);
     },
-    async detectBase(image, scanner) {
-      if (!(image.data.buffer instanceof SharedArrayBuffer)) return detectFilmBase(image, scanner);
-      const frame = { width: image.width, height: image.height, data: image.data };
-      const parts = await Promise.all(
-        rowParts(baseBlockLayout(image).blockRows, threads).map(
-          ([firstRow, endRow]) =>
-            piscina.run({ image: frame, scanner, firstRow, endRow } satisfies BaseBlocksTask, {
-              name: 'baseBlocks',
-            }) as Promise<BaseBlock[]>,
-        ),
-      );
-      return baseFromBlocks(parts.flat());
-    },
     async close() {
       await piscina.close();
     },
   };
-}
-
-/** `rows` rows in up to `parts` runs of nearly equal length, in order: [first, end) each. */
-function rowParts(rows: number, parts: number): [number, number][] {
-  const count = Math.max(1, Math.min(parts, rows));
-  return Array.from({ length: count }, (_, k) => [
-    Math.floor((rows * k) / count),
-    Math.floor((rows * (k + 1)) / count),
-  ]);
 }
 
 /** A zeroed typed array of `length` elements on a SharedArrayBuffer, for `invertFrame`. */

@@ -1,9 +1,7 @@
-import type { ScannerProfile } from '@clearbase/contracts';
-import type { BaseBlock, InversionPlan, RgbImage } from '@clearbase/inversion';
+import type { InversionPlan } from '@clearbase/inversion';
 // The modules the workers need, not the library's index: the worker is bundled (see worker-bundle.ts),
 // and the index would bring in the colour-difference library and the forward model for nothing.
 import { applyInversion } from '../../../libs/inversion/src/compile-inversion';
-import { examineBaseBlocks } from '../../../libs/inversion/src/film-base';
 
 /** One slice of a frame for a worker: pixels [firstPixel, firstPixel + pixelCount) of shared buffers. */
 export interface InvertChunkTask {
@@ -21,18 +19,4 @@ export interface InvertChunkTask {
 export default function invertChunk(task: InvertChunkTask): number {
   applyInversion(task.plan, task.input, task.output, task.firstPixel, task.pixelCount);
   return task.pixelCount;
-}
-
-/** Rows [firstRow, endRow) of base detection's blocks of a shared frame. */
-export interface BaseBlocksTask {
-  /** A frame whose `data` is on a SharedArrayBuffer. */
-  image: RgbImage;
-  firstRow: number;
-  endRow: number;
-  scanner: ScannerProfile;
-}
-
-/** Worker entry (`name: 'baseBlocks'`): the even blocks of film among the task's rows of blocks. */
-export function baseBlocks(task: BaseBlocksTask): BaseBlock[] {
-  return examineBaseBlocks(task.image, task.scanner, {}, task.firstRow, task.endRow);
 }

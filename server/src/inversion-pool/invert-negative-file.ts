@@ -93,16 +93,6 @@ export function measureBase(
   );
 }
 
-/** `measureBase` with a detection's work shared among the pool's workers (same result, off the calling thread). */
-export async function measureBaseOnPool(
-  pool: InversionPool,
-  negative: RgbImage,
-  settings: Pick<FrameSettings, 'base' | 'scanner'>,
-): Promise<{ base: FilmBase; warnings: string[] }> {
-  if (settings.base !== 'auto') return measureBase(negative, settings);
-  return checkedBase(await pool.detectBase(negative, settings.scanner));
-}
-
 /** A measured base with its warnings; throws FilmBaseError for one that cannot be used. */
 function checkedBase(base: FilmBase): { base: FilmBase; warnings: string[] } {
   const warnings: string[] = [];
@@ -200,9 +190,7 @@ export async function invertNegativeFile(
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
   let measured: ReturnType<typeof measureBase>;
   try {
-    measured = reading
-      ? measureBase(negative, settings, reading)
-      : await measureBaseOnPool(pool, negative, settings);
+    measured = measureBase(negative, settings, reading ?? undefined);
     const levels =
       settings.levels ??
       (reading
