@@ -186,6 +186,32 @@ function composeTables(plan: InversionPlan): Float32Array {
   return folded;
 }
 
+/**
+ * The crosstalk (identity for a plan without one) scaled to exposure-table steps, then the fractional index of
+ * density `densityMin`: each channel's index into the exposure table is then one dot product plus that offset.
+ */
+function crosstalkInSteps(
+  plan: InversionPlan,
+): [number, number, number, number, number, number, number, number, number, number] {
+  const dMin = plan.densityMin,
+    dScale = (plan.exposureLutSize - 1) / (plan.densityMax - dMin);
+  const m = plan.crosstalk ?? IDENTITY;
+  return [
+    m[0]! * dScale,
+    m[1]! * dScale,
+    m[2]! * dScale,
+    m[3]! * dScale,
+    m[4]! * dScale,
+    m[5]! * dScale,
+    m[6]! * dScale,
+    m[7]! * dScale,
+    m[8]! * dScale,
+    -dMin * dScale,
+  ];
+}
+
+const IDENTITY = new Float32Array([1, 0, 0, 0, 1, 0, 0, 0, 1]);
+
 /** Each value of a table of unrounded codes clipped to 0…maxCode and rounded, as `code` does per pixel. */
 function roundedCodes(table: Float32Array, maxCode: number): Uint8Array {
   const codes = new Uint8Array(table.length);
@@ -209,20 +235,9 @@ function invertNearestCode(
   const n = plan.exposureLutSize,
     top = n - 1,
     n2 = 2 * n;
-  const dMin = plan.densityMin,
-    dScale = (n - 1) / (plan.densityMax - dMin);
-  const m = plan.crosstalk ?? new Float32Array([1, 0, 0, 0, 1, 0, 0, 0, 1]);
-  const m0 = m[0]! * dScale,
-    m1 = m[1]! * dScale,
-    m2 = m[2]! * dScale,
-    m3 = m[3]! * dScale,
-    m4 = m[4]! * dScale,
-    m5 = m[5]! * dScale,
-    m6 = m[6]! * dScale,
-    m7 = m[7]! * dScale,
-    m8 = m[8]! * dScale;
+  const [m0, m1, m2, m3, m4, m5, m6, m7, m8, start0] = crosstalkInSteps(plan);
   // Half a step added, so truncating the index picks the nearest entry.
-  const off = 0.5 - dMin * dScale;
+  const off = 0.5 + start0;
   for (let i = start; i < end; i += 3) {
     const d0 = dl[input[i]!]!,
       d1 = dl[65536 + input[i + 1]!]!,
@@ -253,21 +268,8 @@ function invertFolded(
   const n = plan.exposureLutSize,
     top = n - 1 - 1e-6,
     n2 = 2 * n;
-  const dMin = plan.densityMin,
-    dScale = (n - 1) / (plan.densityMax - dMin);
   const maxCode = plan.outputBits === 8 ? 255 : 65535;
-  // The crosstalk scaled to table steps, so each channel's fractional index is one dot product.
-  const m = plan.crosstalk ?? new Float32Array([1, 0, 0, 0, 1, 0, 0, 0, 1]);
-  const m0 = m[0]! * dScale,
-    m1 = m[1]! * dScale,
-    m2 = m[2]! * dScale,
-    m3 = m[3]! * dScale,
-    m4 = m[4]! * dScale,
-    m5 = m[5]! * dScale,
-    m6 = m[6]! * dScale,
-    m7 = m[7]! * dScale,
-    m8 = m[8]! * dScale;
-  const off = -dMin * dScale;
+  const [m0, m1, m2, m3, m4, m5, m6, m7, m8, off] = crosstalkInSteps(plan);
   for (let i = start; i < end; i += 3) {
     const d0 = dl[input[i]!]!,
       d1 = dl[65536 + input[i + 1]!]!,
@@ -408,8 +410,6 @@ function invertWithPrimaries(
     ol = plan.outputLut;
   const n = plan.exposureLutSize,
     eTop = n - 1 - 1e-6;
-  const dMin = plan.densityMin,
-    dScale = (n - 1) / (plan.densityMax - dMin);
   const rMin = plan.relativeMin,
     rMax = plan.relativeMax,
     rScale = (plan.outputLutSize - 1) / (rMax - rMin),
@@ -418,7 +418,6 @@ function invertWithPrimaries(
   const s = plan.saturation;
   const [wr, wg, wb] = plan.weights;
   const maxCode = plan.outputBits === 8 ? 255 : 65535;
-  const m = plan.crosstalk ?? new Float32Array([1, 0, 0, 0, 1, 0, 0, 0, 1]);
   const p0 = p[0]!,
     p1 = p[1]!,
     p2 = p[2]!,
@@ -432,17 +431,8 @@ function invertWithPrimaries(
   // interpolates linear exposure directly, as exact as interpolating the log (the steps are 0.00015 D).
   const linear = new Float64Array(el.length);
   for (let j = 0; j < el.length; j++) linear[j] = 10 ** el[j]!;
-  const m0 = m[0]! * dScale,
-    m1 = m[1]! * dScale,
-    m2 = m[2]! * dScale,
-    m3 = m[3]! * dScale,
-    m4 = m[4]! * dScale,
-    m5 = m[5]! * dScale,
-    m6 = m[6]! * dScale,
-    m7 = m[7]! * dScale,
-    m8 = m[8]! * dScale;
-  const off = -dMin * dScale,
-    n2 = 2 * n;
+  const [m0, m1, m2, m3, m4, m5, m6, m7, m8, off] = crosstalkInSteps(plan);
+  const n2 = 2 * n;
   for (let i = start; i < end; i += 3) {
     const d0 = dl[input[i]!]!,
       d1 = dl[65536 + input[i + 1]!]!,
