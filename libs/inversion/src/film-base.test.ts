@@ -12,23 +12,29 @@ import {
   rollBase,
   TINTLINE_400,
   AMBERMASK_100,
+  type FilmStock,
   type Rgb,
 } from './index';
 import { gammaTestScanner } from './test-fixtures';
 
 const scanner = gammaTestScanner;
 
+/** A 320 × 200 frame of `stock` with a 24-pixel rebate, sprocket holes, 60 specks of dust and some grain. */
+function stripWithHolesAndDust(stock: FilmStock, seed: number) {
+  return exposeNegative(outdoorScene(320, 200), {
+    stock,
+    scanner,
+    rebate: 24,
+    sprocketHoles: true,
+    dust: 60,
+    grain: 0.01,
+    seed,
+  });
+}
+
 describe('film base detection', () => {
   it('finds the same base from blocks examined in parts, joined in row order', () => {
-    const neg = exposeNegative(outdoorScene(320, 200), {
-      stock: TINTLINE_400,
-      scanner,
-      rebate: 24,
-      sprocketHoles: true,
-      dust: 60,
-      grain: 0.01,
-      seed: 3,
-    });
+    const neg = stripWithHolesAndDust(TINTLINE_400, 3);
     const { blockRows } = baseBlockLayout(neg);
     const cut = Math.floor(blockRows / 3);
     const parts = [
@@ -41,15 +47,7 @@ describe('film base detection', () => {
   });
   for (const stock of [POLYCLEAR_200, TINTLINE_400, AMBERMASK_100]) {
     it(`finds the base of ${stock.base} film within 1 % per channel despite sprocket holes, dust and grain`, () => {
-      const neg = exposeNegative(outdoorScene(320, 200), {
-        stock,
-        scanner,
-        rebate: 24,
-        sprocketHoles: true,
-        dust: 60,
-        grain: 0.01,
-        seed: 7,
-      });
+      const neg = stripWithHolesAndDust(stock, 7);
       const found = detectFilmBase(neg, scanner);
       found.rgb.forEach((v, c) => expect(Math.abs(v / neg.truth.base[c]! - 1)).toBeLessThan(0.01));
       expect(found.confidence).toBeGreaterThan(0.5);
@@ -58,15 +56,7 @@ describe('film base detection', () => {
     });
   }
   it('finds the base of a 4-megapixel scan from a strided sample, still within 1 % per channel', () => {
-    const small = exposeNegative(outdoorScene(320, 200), {
-      stock: TINTLINE_400,
-      scanner,
-      rebate: 24,
-      sprocketHoles: true,
-      dust: 60,
-      grain: 0.01,
-      seed: 3,
-    });
+    const small = stripWithHolesAndDust(TINTLINE_400, 3);
     // Each pixel of the small negative becomes an 8 × 8 square: 2560 × 1984, holes and dust scaled alike.
     const k = 8;
     const big = {

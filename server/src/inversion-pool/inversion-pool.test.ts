@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createInversionPool, sharedArray, type InversionPool } from './inversion-pool';
+import { createInversionPool, sharedArray, type FrameBands, type InversionPool } from './inversion-pool';
 import {
   applyInversion,
   compileInversion,
@@ -43,61 +43,74 @@ function frame(width: number, height: number, output: 'u8' | 'u16', crosstalk?: 
   return { neg, input, plan: compileInversion({ ...params, midLogExposure: levels.midLogExposure }) };
 }
 
+type Frame = ReturnType<typeof frame>;
+const kindOf = (output: 'u8' | 'u16') => (output === 'u8' ? Uint8Array : Uint16Array);
+
+/** The frame inverted on the calling thread. */
+function singleThread({ neg, plan }: Frame, output: 'u8' | 'u16'): Uint8Array | Uint16Array {
+  const out = new (kindOf(output))(neg.data.length);
+  applyInversion(plan, neg.data, out, 0, neg.width * neg.height);
+  return out;
+}
+
+/** The frame inverted on the pool into `out`, band by band with `bands`. */
+async function onPool(
+  { neg, input, plan }: Frame,
+  output: 'u8' | 'u16',
+  bands?: FrameBands,
+  out = sharedArray(kindOf(output), neg.data.length),
+) {
+  await pool.invertFrame(plan, input, out, neg.width, neg.height, bands);
+  return out;
+}
+
+const bytes = (a: Uint8Array | Uint16Array) => Buffer.from(a.buffer, a.byteOffset, a.byteLength);
+
 describe('inversion pool', () => {
-  it('gives exactly the single-thread result through the nearest-code table (u8, saturation 1)', async () => {
-    const { neg, input, plan } = frame(301, 199, 'u8', undefined, 1);
-    expect(plan.codeLut).toBeTruthy();
-    const single = new Uint8Array(neg.data.length);
-    applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
-    const pooled = sharedArray(Uint8Array, neg.data.length);
-    await pool.invertFrame(plan, input, pooled, neg.width, neg.height);
-    expect(Buffer.from(pooled.buffer).equals(Buffer.from(single.buffer))).toBe(true);
-  });
-  for (const output of ['u8', 'u16'] as const) {
-    it(`gives exactly the single-thread result (${output} output)`, async () => {
-      const { neg, input, plan } = frame(331, 217, output, [
-        [1.05, -0.03, -0.02],
-        [-0.04, 1.06, -0.02],
-        [-0.01, -0.05, 1.06],
-      ]);
-      const kind = output === 'u8' ? Uint8Array : Uint16Array;
-      const single = new kind(neg.data.length);
-      applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
-      const pooled = sharedArray(kind, neg.data.length);
-      await pool.invertFrame(plan, input, pooled, neg.width, neg.height);
-      expect(Buffer.from(pooled.buffer).equals(Buffer.from(single.buffer))).toBe(true);
+  const crosstalk: Matrix3 = [
+    [1.05, -0.03, -0.02],
+    [-0.04, 1.06, -0.02],
+    [-0.01, -0.05, 1.06],
+  ];
+  const cases = [
+    ['through the nearest-code table (u8, saturation 1)', () => frame(301, 199, 'u8', undefined, 1), 'u8'],
+    ['(u8 output)', () => frame(331, 217, 'u8', crosstalk), 'u8'],
+    ['(u16 output)', () => frame(331, 217, 'u16', crosstalk), 'u16'],
+    ['for a frame with fewer rows than slices', () => frame(50, 3, 'u8'), 'u8'],
+  ] as const;
+  for (const [name, make, output] of cases) {
+    it(`gives exactly the single-thread result ${name}`, async () => {
+      const f = make();
+      if (name.includes('nearest-code')) expect(f.plan.codeLut).toBeTruthy();
+      expect(bytes(await onPool(f, output)).equals(bytes(singleThread(f, output)))).toBe(true);
     });
   }
 
   it('reports each band once as it is written, with exactly the single-thread result', async () => {
-    const { neg, input, plan } = frame(97, 61, 'u8');
-    const single = new Uint8Array(neg.data.length);
-    applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
-    const pooled = sharedArray(Uint8Array, neg.data.length);
+    const f = frame(97, 61, 'u8');
+    const single = bytes(singleThread(f, 'u8'));
     const seen: number[] = [];
-    const rowBytes = neg.width * 3;
-    await pool.invertFrame(plan, input, pooled, neg.width, neg.height, {
-      rows: 16,
-      done: (k) => {
-        // The band is whole when reported.
-        const band = (a: Uint8Array) => Buffer.from(a.subarray(k * 16 * rowBytes, (k + 1) * 16 * rowBytes));
-        expect(band(pooled).equals(band(single))).toBe(true);
-        seen.push(k);
+    const rowBytes = f.neg.width * 3;
+    const band = (a: Buffer, k: number) => a.subarray(k * 16 * rowBytes, (k + 1) * 16 * rowBytes);
+    const out = sharedArray(Uint8Array, f.neg.data.length);
+    const pooled = bytes(out);
+    await onPool(
+      f,
+      'u8',
+      {
+        rows: 16,
+        done: (k) => {
+          // The band is whole when reported.
+          expect(band(pooled, k).equals(band(single, k))).toBe(true);
+          seen.push(k);
+        },
       },
-    });
-    expect(seen.sort((a, b) => a - b)).toEqual(
-      Array.from({ length: Math.ceil(neg.height / 16) }, (_, k) => k),
+      out,
     );
-    expect(Buffer.from(pooled.buffer).equals(Buffer.from(single.buffer))).toBe(true);
-  });
-
-  it('handles frames with fewer rows than slices', async () => {
-    const { neg, input, plan } = frame(50, 3, 'u8');
-    const single = new Uint8Array(neg.data.length);
-    applyInversion(plan, neg.data, single, 0, neg.width * neg.height);
-    const pooled = sharedArray(Uint8Array, neg.data.length);
-    await pool.invertFrame(plan, input, pooled, neg.width, neg.height);
-    expect(Array.from(pooled)).toEqual(Array.from(single));
+    expect(seen.sort((a, b) => a - b)).toEqual(
+      Array.from({ length: Math.ceil(f.neg.height / 16) }, (_, k) => k),
+    );
+    expect(pooled.equals(single)).toBe(true);
   });
 
   it('refuses buffers that are not shared', async () => {
