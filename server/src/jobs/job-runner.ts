@@ -309,23 +309,29 @@ export function createJobRunner(options: JobRunnerOptions): JobRunner {
 
   /**
    * Levels of the whole roll: every frame measured against the base it renders with, combined by `rollLevels`.
-   * Measured from all frames, done or not, so a resumed job renders with the same levels as before.
+   * Measured from all frames, done or not, so a resumed job renders with the same levels as before. Frames are
+   * read as many at a time as frames are rendered (a decode keeps about one core busy), and combined in frame order.
    */
   async function rollWideLevels(all: FrameRow[], context: RollContext): Promise<FrameLevels | undefined> {
-    const measured: FrameLevels[] = [];
-    for (const frame of all) {
-      try {
-        const { base } = chooseBase(frame, context.rollBase);
-        const negative = await readNegative(await frameSourcePath(db, store!, frame), {
-          maxPixels: config.uploads.maxPixels,
-        });
-        measured.push(measureLevels(negative, { ...context, render: 'print' }, base));
-      } catch (err) {
-        // a frame with no base or an unreadable scan fails on its own when rendered; it just does not count here
-        logger.debug({ err, frameId: frame.id }, 'frame left out of the roll levels');
-      }
-    }
-    return measured.length ? rollLevels(measured).roll : undefined;
+    const measured = await Promise.all(
+      all.map((frame) =>
+        frames.add(async (): Promise<FrameLevels | null> => {
+          try {
+            const { base } = chooseBase(frame, context.rollBase);
+            const negative = await readNegative(await frameSourcePath(db, store!, frame), {
+              maxPixels: config.uploads.maxPixels,
+            });
+            return measureLevels(negative, { ...context, render: 'print' }, base);
+          } catch (err) {
+            // a frame with no base or an unreadable scan fails on its own when rendered; it just does not count here
+            logger.debug({ err, frameId: frame.id }, 'frame left out of the roll levels');
+            return null;
+          }
+        }),
+      ),
+    );
+    const usable = measured.filter((levels): levels is FrameLevels => levels !== null);
+    return usable.length ? rollLevels(usable).roll : undefined;
   }
 
   async function runJob(job: JobRow): Promise<void> {
