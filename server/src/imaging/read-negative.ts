@@ -3,6 +3,7 @@ import sharp from 'sharp';
 import type { Metadata, OutputInfo } from 'sharp';
 import { ImageInputError } from './image-input-error';
 import { sniffFormat, type SniffedFormat } from './sniff-format';
+import { spoolDir, spoolHasRoom, startSpooledDecode, type SpooledDecode } from './spooled-decode';
 
 // A 6x7 cm frame scanned at 4000 ppi is about 9500 x 11000 = 105 MP; common practice of the trade, from memory.
 export const DEFAULT_MAX_PIXELS = 120_000_000;
@@ -84,26 +85,38 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
       { cause },
     );
 
-  const decode = (bits: 8 | 16) =>
+  const pipeline = (bits: 8 | 16) =>
     sharp(path, { limitInputPixels: maxPixels, failOn: 'error', ignoreIcc: true, sequentialRead: true })
       .removeAlpha()
-      .toColourspace(bits === 16 ? 'rgb16' : 'srgb')
+      .toColourspace(bits === 16 ? 'rgb16' : 'srgb');
+  const decode = (bits: 8 | 16) =>
+    pipeline(bits)
       .raw({ depth: bits === 16 ? 'ushort' : 'uchar' })
       .toBuffer({ resolveWithObject: true });
+  const allocate =
+    options.allocate ??
+    (options.shared ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2)) : undefined);
   // The decode is nearly all of a read, so it starts beside the header's, on another of libuv's threads, at the depth
   // the first bytes suggest (a JPEG or an 8-bit PNG: 8, else 16); a wrong guess decodes again once the header says.
   // libvips checks `limitInputPixels` from the header before it decodes any pixel. Settled here, so a refusal below
   // never leaves it rejected unheard; every refusal waits for it, so no decode outlives its read.
   const guess: 8 | 16 = sniffed === 'jpeg' || (sniffed === 'png' && head[PNG_BIT_DEPTH_AT] === 8) ? 8 : 16;
-  const early = decode(guess).then(
-    (value) => ({ value, error: null }),
-    (error: unknown) => ({ value: null, error }),
-  );
+  // A 16-bit decode into the caller's buffer goes through a spool file read as it is written (spooled-decode.ts).
+  const dir = guess === 16 && allocate ? spoolDir() : null;
+  const spool = dir && spoolHasRoom(dir, SPOOL_MIN_FREE_BYTES) ? startSpooledDecode(pipeline(16), dir) : null;
+  const early = spool
+    ? null
+    : decode(guess).then(
+        (value) => ({ value, error: null }),
+        (error: unknown) => ({ value: null, error }),
+      );
   try {
     return await readWithHeader();
   } catch (error) {
     await early;
     throw error;
+  } finally {
+    await spool?.discard();
   }
 
   async function readWithHeader(): Promise<NegativeImage> {
@@ -153,9 +166,32 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
         'The embedded ICC profile was ignored; the scanner profile describes how counts are encoded.',
       );
 
+    const samples = width * height * 3;
+    const rows = { width, onRows: options.onRows };
+    // Allocated once: a spooled read that fails is decoded again into the same array.
+    let into = allocate;
+    if (spool && bitDepth === 16 && allocate) {
+      const out = allocate(samples);
+      into = () => out;
+      if (dir && spoolHasRoom(dir, samples * 2)) {
+        try {
+          return {
+            width,
+            height,
+            data: await readSpool(spool, out, rows, height),
+            bitDepth,
+            format,
+            warnings,
+          };
+        } catch {
+          // A damaged file fails again below, with sharp's own message; a spool that ran out of room reads there.
+        }
+      }
+      await spool.discard();
+    }
     let raw: { data: Buffer; info: OutputInfo };
-    let first: Awaited<typeof early> | null = await early;
-    if (bitDepth === guess) {
+    let first: Awaited<NonNullable<typeof early>> | null = early && bitDepth === guess ? await early : null;
+    if (first) {
       if (!first.value) throw damaged(first.error);
       raw = first.value;
     } else {
@@ -170,16 +206,39 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     if (raw.info.channels !== 3 || raw.info.width !== width || raw.info.height !== height) {
       throw damaged(new Error(`decoded ${raw.info.width}x${raw.info.height}x${raw.info.channels}`));
     }
-    const samples = width * height * 3;
-    const allocate =
-      options.allocate ??
-      (options.shared ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2)) : undefined);
-    const rows = { width, onRows: options.onRows };
-    const data = bitDepth === 16 ? toUint16(raw.data, allocate, rows) : expand8(raw.data, allocate, rows);
+    const data = bitDepth === 16 ? toUint16(raw.data, into, rows) : expand8(raw.data, into, rows);
     if (data.length < samples)
       throw new RangeError(`Expected at least ${samples} samples from allocate but received ${data.length}`);
     return { width, height, data, bitDepth, format, warnings };
   }
+}
+
+/** Free room below which a spool is not used at all (a frame's size is known only from its header). Our choice. */
+const SPOOL_MIN_FREE_BYTES = 1 << 30;
+
+/** A spooled decode read into `out`, `onRows` told band by band (about a megabyte each) as whole rows land. */
+async function readSpool(
+  from: SpooledDecode,
+  out: Uint16Array,
+  { width, onRows }: RowBands,
+  height: number,
+): Promise<Uint16Array> {
+  const samples = width * height * 3;
+  if (out.length < samples)
+    throw new RangeError(`Expected at least ${samples} samples from allocate but received ${out.length}`);
+  const rowBytes = width * 6;
+  const frame = { width, height, data: out };
+  const band = Math.max(1, Math.floor(BAND_BYTES / rowBytes));
+  let told = 0;
+  await from.readInto(new Uint8Array(out.buffer, out.byteOffset, samples * 2), width, height, (bytes) => {
+    const rows = Math.floor(bytes / rowBytes);
+    if (!onRows) return;
+    while (rows - told >= band || (rows === height && told < height)) {
+      told = Math.min(rows, told + band);
+      onRows(frame, told);
+    }
+  });
+  return out;
 }
 
 async function readHead(path: string): Promise<Uint8Array> {

@@ -1,0 +1,138 @@
+import { existsSync, watch } from 'node:fs';
+import { mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ImageInputError, readNegative } from './index';
+import { spoolDir, startSpooledDecode } from './spooled-decode';
+
+let dir: string;
+beforeAll(async () => {
+  dir = await mkdtemp(join(tmpdir(), 'clearbase-spool-'));
+});
+afterAll(async () => {
+  await rm(dir, { recursive: true, force: true });
+});
+
+/** This process's spool files. */
+async function ownSpools(): Promise<string[]> {
+  return (await readdir('/dev/shm')).filter((n) => n.startsWith(`clearbase-decode-${process.pid}-`));
+}
+
+/** A 16-bit deflate TIFF of values no 8-bit detour keeps, several strips tall. */
+async function tiff16(
+  name: string,
+  width: number,
+  height: number,
+): Promise<{ path: string; data: Uint16Array }> {
+  const data = new Uint16Array(width * height * 3);
+  for (let i = 0; i < data.length; i++) data[i] = (i * 7919 + 12345) % 65521;
+  const path = join(dir, name);
+  await sharp(data, { raw: { width, height, channels: 3 } })
+    .toColourspace('rgb16')
+    .tiff({ compression: 'deflate', predictor: 'horizontal' })
+    .toFile(path);
+  return { path, data };
+}
+
+const shm = existsSync('/dev/shm');
+
+describe.runIf(shm)('decoding through a spool file', () => {
+  it('removes the spool files of processes that are gone, and keeps those of live ones', async () => {
+    // A pid no process has now (the first free one counting down from the largest usual pid).
+    let gone = 4_194_000;
+    for (; gone > 1; gone--) {
+      try {
+        process.kill(gone, 0);
+      } catch (error) {
+        if ((error as NodeJS.ErrnoException).code === 'ESRCH') break;
+      }
+    }
+    const stale = `/dev/shm/clearbase-decode-${gone}-1.v`;
+    const live = `/dev/shm/clearbase-decode-${process.ppid}-1.v`;
+    await writeFile(stale, 'left over');
+    const hadLive = existsSync(live);
+    if (!hadLive) await writeFile(live, 'in use');
+    try {
+      expect(spoolDir()).toBe('/dev/shm');
+      expect(existsSync(stale)).toBe(false);
+      expect(existsSync(live)).toBe(true);
+    } finally {
+      await rm(stale, { force: true });
+      if (!hadLive) await rm(live, { force: true });
+    }
+  });
+
+  it('reads the same bytes as the decode into memory, told as they land, and leaves no file', async () => {
+    const { path, data } = await tiff16('spool.tif', 1200, 900);
+    const target = new Uint8Array(data.byteLength);
+    const told: number[] = [];
+    const spool = startSpooledDecode(sharp(path).toColourspace('rgb16'), '/dev/shm');
+    try {
+      await spool.readInto(target, 1200, 900, (bytes) => told.push(bytes));
+    } finally {
+      await spool.discard();
+    }
+    expect(Buffer.from(target.buffer).equals(Buffer.from(data.buffer))).toBe(true);
+    expect(told.at(-1)).toBe(data.byteLength);
+    expect(told.every((b, k) => k === 0 || b > told[k - 1]!)).toBe(true);
+    expect(await ownSpools()).toEqual([]);
+  });
+
+  it('refuses a spool that does not hold the frame the header promised', async () => {
+    const { path } = await tiff16('other-size.tif', 64, 40);
+    const spool = startSpooledDecode(sharp(path).toColourspace('rgb16'), '/dev/shm');
+    try {
+      await expect(spool.readInto(new Uint8Array(64 * 41 * 6), 64, 41, () => undefined)).rejects.toThrow(
+        /Expected a little-endian 64 × 41 16-bit RGB spool/,
+      );
+    } finally {
+      await spool.discard();
+    }
+    expect(await ownSpools()).toEqual([]);
+  });
+
+  it('reads a 16-bit TIFF into a shared buffer through the spool with the same pixels', async () => {
+    const { path, data } = await tiff16('shared.tif', 700, 500);
+    const spooled: string[] = [];
+    const watcher = watch('/dev/shm', (_, name) => {
+      if (name?.startsWith(`clearbase-decode-${process.pid}-`)) spooled.push(name);
+    });
+    const img = await readNegative(path, { shared: true }).finally(() => watcher.close());
+    expect(spooled.length).toBeGreaterThan(0);
+    expect(img.data.buffer).toBeInstanceOf(SharedArrayBuffer);
+    expect(Buffer.from(img.data.buffer).equals(Buffer.from(data.buffer))).toBe(true);
+    expect(await ownSpools()).toEqual([]);
+  });
+
+  it('rejects a truncated 16-bit TIFF as damaged and leaves no spool file', async () => {
+    const { path } = await tiff16('whole.tif', 700, 500);
+    const whole = await readFile(path);
+    const cut = join(dir, 'cut.tif');
+    await writeFile(cut, whole.subarray(0, whole.length >> 1));
+    const allocated: number[] = [];
+    const error = await readNegative(cut, {
+      allocate: (n) => {
+        allocated.push(n);
+        return new Uint16Array(new SharedArrayBuffer(n * 2));
+      },
+    }).catch((e: unknown) => e);
+    expect(error).toBeInstanceOf(ImageInputError);
+    expect((error as ImageInputError).code).toBe('truncated');
+    // The failed spooled read and the decode after it share one buffer.
+    expect(allocated.length).toBeLessThanOrEqual(1);
+    expect(await ownSpools()).toEqual([]);
+  });
+
+  it('reads an 8-bit TIFF into a shared buffer (first spooled as 16-bit, then decoded at 8)', async () => {
+    const path = join(dir, 'eight.tif');
+    await sharp(new Uint8Array(40 * 30 * 3).fill(200), { raw: { width: 40, height: 30, channels: 3 } })
+      .tiff()
+      .toFile(path);
+    const img = await readNegative(path, { shared: true });
+    expect(img.bitDepth).toBe(8);
+    expect(img.data.every((v) => v === 200 * 257)).toBe(true);
+    expect(await ownSpools()).toEqual([]);
+  });
+});
