@@ -3,7 +3,13 @@ import sharp from 'sharp';
 import type { Metadata, OutputInfo } from 'sharp';
 import { ImageInputError } from './image-input-error';
 import { sniffFormat, type SniffedFormat } from './sniff-format';
-import { spoolDir, spoolHasRoom, startSpooledDecode, type SpooledDecode } from './spooled-decode';
+import {
+  SPOOL_MIN_FREE_BYTES,
+  spoolDir,
+  spoolHasRoom,
+  startSpooledDecode,
+  type SpooledDecode,
+} from './spooled-decode';
 
 // A 6x7 cm frame scanned at 4000 ppi is about 9500 x 11000 = 105 MP; common practice of the trade, from memory.
 export const DEFAULT_MAX_PIXELS = 120_000_000;
@@ -21,6 +27,8 @@ export interface ReadNegativeOptions {
    * or `shared`, when a 16-bit image's own buffer is handed over without a copy.
    */
   onRows?: (frame: { width: number; height: number; data: Uint16Array }, endRow: number) => void;
+  /** Takes back an array `allocate` supplied when the read then fails (for example to a pool of reused buffers). */
+  release?: (array: Uint16Array) => void;
 }
 
 export interface NegativeImage {
@@ -93,9 +101,13 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     pipeline(bits)
       .raw({ depth: bits === 16 ? 'ushort' : 'uchar' })
       .toBuffer({ resolveWithObject: true });
-  const allocate =
-    options.allocate ??
-    (options.shared ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2)) : undefined);
+  let allocated: Uint16Array | null = null;
+  const given = options.allocate;
+  const allocate = given
+    ? (n: number) => (allocated = given(n))
+    : options.shared
+      ? (n: number) => new Uint16Array(new SharedArrayBuffer(n * 2))
+      : undefined;
   // The decode is nearly all of a read, so it starts beside the header's, on another of libuv's threads, at the depth
   // the first bytes suggest (a JPEG or an 8-bit PNG: 8, else 16); a wrong guess decodes again once the header says.
   // libvips checks `limitInputPixels` from the header before it decodes any pixel. Settled here, so a refusal below
@@ -114,6 +126,7 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     return await readWithHeader();
   } catch (error) {
     await early;
+    if (allocated) options.release?.(allocated);
     throw error;
   } finally {
     await spool?.discard();
@@ -172,6 +185,8 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     let into = allocate;
     if (spool && bitDepth === 16 && allocate) {
       const out = allocate(samples);
+      if (out.length < samples)
+        throw new RangeError(`Expected at least ${samples} samples from allocate but received ${out.length}`);
       into = () => out;
       if (dir && spoolHasRoom(dir, samples * 2)) {
         try {
@@ -213,9 +228,6 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
   }
 }
 
-/** Free room below which a spool is not used at all (a frame's size is known only from its header). Our choice. */
-const SPOOL_MIN_FREE_BYTES = 1 << 30;
-
 /** A spooled decode read into `out`, `onRows` told band by band (about a megabyte each) as whole rows land. */
 async function readSpool(
   from: SpooledDecode,
@@ -224,8 +236,6 @@ async function readSpool(
   height: number,
 ): Promise<Uint16Array> {
   const samples = width * height * 3;
-  if (out.length < samples)
-    throw new RangeError(`Expected at least ${samples} samples from allocate but received ${out.length}`);
   const rowBytes = width * 6;
   const frame = { width, height, data: out };
   const band = Math.max(1, Math.floor(BAND_BYTES / rowBytes));

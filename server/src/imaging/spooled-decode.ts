@@ -42,6 +42,12 @@ export interface SpooledDecode {
   discard(): Promise<void>;
 }
 
+/**
+ * A spool is started only when `spoolHasRoom(dir, SPOOL_MIN_FREE_BYTES)`: the decode starts before the header says
+ * the frame's size, which is checked again then. Our choice.
+ */
+export const SPOOL_MIN_FREE_BYTES = 1 << 30;
+
 let spoolDirectory: string | null | undefined;
 
 /**

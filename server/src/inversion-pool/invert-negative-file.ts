@@ -159,6 +159,7 @@ export function readPooledNegative(
 ): Promise<NegativeImage> {
   return readNegative(file, {
     allocate: (samples) => pool.buffers.acquire(Uint16Array, samples),
+    release: (array) => pool.buffers.release(array),
     ...(settings.maxPixels ? { maxPixels: settings.maxPixels } : {}),
     ...(onRows ? { onRows } : {}),
   });
