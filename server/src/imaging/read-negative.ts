@@ -22,9 +22,10 @@ export interface ReadNegativeOptions {
   /** Supplies the array the pixels are copied into (for example a reused shared buffer); overrides `shared`. */
   allocate?: (samples: number) => Uint16Array;
   /**
-   * Called as the pixels are copied into `allocate`'s array, band by band of about a megabyte, with the frame (its
-   * `data` that array) and how many of its rows are in place: work on a band's rows now finds them in cache. Not called without `allocate`
-   * or `shared`, when a 16-bit image's own buffer is handed over without a copy.
+   * Called as the pixels land in the frame's array, band by band of about a megabyte, with the frame (its `data` that
+   * array) and how many of its rows are in place: work on a band's rows now finds them in cache. Not called when a
+   * 16-bit image decoded into memory has its own buffer handed over without a copy (no `allocate`, not `shared`, and
+   * no spool: see spooled-decode.ts).
    */
   onRows?: (frame: { width: number; height: number; data: Uint16Array }, endRow: number) => void;
   /** Takes back an array `allocate` supplied when the read then fails (for example to a pool of reused buffers). */
@@ -113,8 +114,8 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
   // libvips checks `limitInputPixels` from the header before it decodes any pixel. Settled here, so a refusal below
   // never leaves it rejected unheard; every refusal waits for it, so no decode outlives its read.
   const guess: 8 | 16 = sniffed === 'jpeg' || (sniffed === 'png' && head[PNG_BIT_DEPTH_AT] === 8) ? 8 : 16;
-  // A 16-bit decode into the caller's buffer goes through a spool file read as it is written (spooled-decode.ts).
-  const dir = guess === 16 && allocate ? spoolDir() : null;
+  // A 16-bit decode goes through a spool file read as it is written where there is one (spooled-decode.ts).
+  const dir = guess === 16 ? spoolDir() : null;
   const spool = dir && spoolHasRoom(dir, SPOOL_MIN_FREE_BYTES) ? startSpooledDecode(pipeline(16), dir) : null;
   const early = spool
     ? null
@@ -183,8 +184,8 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     const rows = { width, onRows: options.onRows };
     // Allocated once: a spooled read that fails is decoded again into the same array.
     let into = allocate;
-    if (spool && bitDepth === 16 && allocate) {
-      const out = allocate(samples);
+    if (spool && bitDepth === 16) {
+      const out = allocate ? allocate(samples) : new Uint16Array(samples);
       if (out.length < samples)
         throw new RangeError(`Expected at least ${samples} samples from allocate but received ${out.length}`);
       into = () => out;

@@ -7,11 +7,11 @@ import type { Sharp } from 'sharp';
 /**
  * Decoding through a spool file in memory-backed storage (/dev/shm): libvips writes the decoded pixels as its own
  * uncompressed format (a 64-byte header, then the pixels row after row, then an XML trailer) strip by strip as it
- * decodes, and the reader copies each part into the caller's buffer as soon as it is written. Against `toBuffer`:
- * the copy and whatever the caller does with the rows happen while later rows are still being decoded, and libvips
- * writes into pages the system already holds instead of a fresh allocation of the whole frame (measured at 24 MP on
- * our two-core machine: decode and copy 0.58–0.79 s against 1.03–1.20 s; bench/README.md). The pixels are the same
- * bytes (tested).
+ * decodes, and the reader copies each part into the frame's array as soon as it is written, so the copy and whatever
+ * the caller does with the rows (`readNegative`'s `onRows`) happen while later rows are still being decoded. It is
+ * also faster than libvips' decode into memory (`toBuffer`) by itself, for reasons we have not pinned down: at 24 MP
+ * on our two-core machine, 0.64–0.81 s into a new array and 0.57–0.71 s into a reused one, against 0.97–1.14 s (see
+ * bench/README.md). The pixels are the same bytes (tested).
  */
 
 /** The libvips file header's size (libvips' VIPS_SIZEOF_HEADER). */
