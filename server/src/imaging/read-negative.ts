@@ -199,8 +199,10 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
             format,
             warnings,
           };
-        } catch {
-          // A damaged file fails again below, with sharp's own message; a spool that ran out of room reads there.
+        } catch (error) {
+          // The caller's own failure ends the read; a damaged file fails again below, with sharp's own message, and
+          // a spool that ran out of room is read there.
+          if (error instanceof RowsCallbackError) throw error.cause;
         }
       }
       await spool.discard();
@@ -246,10 +248,21 @@ async function readSpool(
     if (!onRows) return;
     while (rows - told >= band || (rows === height && told < height)) {
       told = Math.min(rows, told + band);
-      onRows(frame, told);
+      try {
+        onRows(frame, told);
+      } catch (cause) {
+        throw new RowsCallbackError(cause);
+      }
     }
   });
   return out;
+}
+
+/** What `onRows` threw during a spooled read, kept apart from the spool's own failures. */
+class RowsCallbackError extends Error {
+  constructor(cause: unknown) {
+    super('onRows failed', { cause });
+  }
 }
 
 async function readHead(path: string): Promise<Uint8Array> {

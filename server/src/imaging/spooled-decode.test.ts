@@ -132,6 +132,26 @@ describe.runIf(shm)('decoding through a spool file', () => {
     expect(await ownSpools()).toEqual([]);
   });
 
+  it('ends a spooled read with what onRows threw, not with a second decode', async () => {
+    const { path } = await tiff16('callback.tif', 700, 500);
+    const thrown = new Error('measurement failed');
+    let calls = 0;
+    let released = 0;
+    const error = await readNegative(path, {
+      shared: true,
+      onRows: () => {
+        calls++;
+        throw thrown;
+      },
+      allocate: (n) => new Uint16Array(new SharedArrayBuffer(n * 2)),
+      release: () => released++,
+    }).catch((e: unknown) => e);
+    expect(error).toBe(thrown);
+    expect(calls).toBe(1);
+    expect(released).toBe(1);
+    expect(await ownSpools()).toEqual([]);
+  });
+
   it('reads an 8-bit TIFF into a shared buffer (first spooled as 16-bit, then decoded at 8)', async () => {
     const path = join(dir, 'eight.tif');
     await sharp(new Uint8Array(40 * 30 * 3).fill(200), { raw: { width: 40, height: 30, channels: 3 } })
