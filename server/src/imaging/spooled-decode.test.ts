@@ -1,5 +1,5 @@
 import { existsSync, watch } from 'node:fs';
-import { mkdtemp, readdir, readFile, rm, writeFile } from 'node:fs/promises';
+import { mkdir, mkdtemp, readdir, readFile, rm, stat, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import sharp from 'sharp';
@@ -17,7 +17,7 @@ afterAll(async () => {
 
 /** This process's spool files. */
 async function ownSpools(): Promise<string[]> {
-  return (await readdir('/dev/shm')).filter((n) => n.startsWith(`clearbase-decode-${process.pid}-`));
+  return readdir(spoolDir()!);
 }
 
 /** A 16-bit deflate TIFF of values no 8-bit detour keeps, several strips tall. */
@@ -40,7 +40,7 @@ async function tiff16(
 const shm = existsSync('/dev/shm') && spoolHasRoom('/dev/shm', SPOOL_MIN_FREE_BYTES);
 
 describe.runIf(shm)('decoding through a spool file', () => {
-  it('removes the spool files of processes that are gone, and keeps those of live ones', async () => {
+  it('spools into a private directory of its own, and removes those of processes that are gone', async () => {
     // A pid no process has now (the first free one counting down from the largest usual pid).
     let gone = 4_194_000;
     for (; gone > 1; gone--) {
@@ -50,18 +50,21 @@ describe.runIf(shm)('decoding through a spool file', () => {
         if ((error as NodeJS.ErrnoException).code === 'ESRCH') break;
       }
     }
-    const stale = `/dev/shm/clearbase-decode-${gone}-1.v`;
-    const live = `/dev/shm/clearbase-decode-${process.ppid}-1.v`;
-    await writeFile(stale, 'left over');
+    const stale = `/dev/shm/clearbase-decode-${gone}-test`;
+    const live = `/dev/shm/clearbase-decode-${process.ppid}-test`;
+    await mkdir(stale);
+    await writeFile(join(stale, '1.v'), 'left over');
     const hadLive = existsSync(live);
-    if (!hadLive) await writeFile(live, 'in use');
+    if (!hadLive) await mkdir(live);
     try {
-      expect(spoolDir()).toBe('/dev/shm');
+      const own = spoolDir()!;
+      expect(own).toMatch(new RegExp(`^/dev/shm/clearbase-decode-${process.pid}-`));
+      expect((await stat(own)).mode & 0o777).toBe(0o700);
       expect(existsSync(stale)).toBe(false);
       expect(existsSync(live)).toBe(true);
     } finally {
-      await rm(stale, { force: true });
-      if (!hadLive) await rm(live, { force: true });
+      await rm(stale, { recursive: true, force: true });
+      if (!hadLive) await rm(live, { recursive: true, force: true });
     }
   });
 
@@ -69,7 +72,7 @@ describe.runIf(shm)('decoding through a spool file', () => {
     const { path, data } = await tiff16('spool.tif', 1200, 900);
     const target = new Uint8Array(data.byteLength);
     const told: number[] = [];
-    const spool = startSpooledDecode(sharp(path).toColourspace('rgb16'), '/dev/shm');
+    const spool = startSpooledDecode(sharp(path).toColourspace('rgb16'), spoolDir()!);
     try {
       await spool.readInto(target, 1200, 900, (bytes) => told.push(bytes));
     } finally {
@@ -83,7 +86,7 @@ describe.runIf(shm)('decoding through a spool file', () => {
 
   it('refuses a spool that does not hold the frame the header promised', async () => {
     const { path } = await tiff16('other-size.tif', 64, 40);
-    const spool = startSpooledDecode(sharp(path).toColourspace('rgb16'), '/dev/shm');
+    const spool = startSpooledDecode(sharp(path).toColourspace('rgb16'), spoolDir()!);
     try {
       await expect(spool.readInto(new Uint8Array(64 * 41 * 6), 64, 41, () => undefined)).rejects.toThrow(
         /Expected a little-endian 64 × 41 16-bit RGB spool/,
@@ -97,8 +100,8 @@ describe.runIf(shm)('decoding through a spool file', () => {
   it('reads a 16-bit TIFF into a shared buffer through the spool with the same pixels', async () => {
     const { path, data } = await tiff16('shared.tif', 700, 500);
     const spooled: string[] = [];
-    const watcher = watch('/dev/shm', (_, name) => {
-      if (name?.startsWith(`clearbase-decode-${process.pid}-`)) spooled.push(name);
+    const watcher = watch(spoolDir()!, (_, name) => {
+      if (name) spooled.push(name);
     });
     const img = await readNegative(path, { shared: true }).finally(() => watcher.close());
     expect(spooled.length).toBeGreaterThan(0);

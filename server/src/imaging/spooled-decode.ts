@@ -1,4 +1,4 @@
-import { existsSync, readdirSync, rmSync, statfsSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, rmSync, statfsSync } from 'node:fs';
 import { open, rm, type FileHandle } from 'node:fs/promises';
 import { endianness } from 'node:os';
 import { join } from 'node:path';
@@ -51,17 +51,21 @@ export const SPOOL_MIN_FREE_BYTES = 1 << 30;
 let spoolDirectory: string | null | undefined;
 
 /**
- * Where spool files go: /dev/shm when it is there and writable, or null (then decode with `toBuffer`). Spool files
- * a process that is gone left behind are removed the first time.
+ * Where this process's spool files go: a directory of its own in /dev/shm, made the first time (unguessable and
+ * private, so no one else can put a file or a link where libvips will write) and removed when the process exits; or
+ * null where there is no /dev/shm (then decode with `toBuffer`). Such directories that processes now gone left
+ * behind are removed the first time.
  */
 export function spoolDir(): string | null {
   if (spoolDirectory !== undefined) return spoolDirectory;
   spoolDirectory = null;
-  const dir = '/dev/shm';
+  const shm = '/dev/shm';
   try {
     // The spool holds pixels in little-endian order, read as this machine's own.
-    if (endianness() !== 'LE' || !existsSync(dir)) return null;
-    sweepStale(dir);
+    if (endianness() !== 'LE' || !existsSync(shm)) return null;
+    sweepStale(shm);
+    const dir = mkdtempSync(join(shm, `${PREFIX}${process.pid}-`));
+    process.once('exit', () => rmSync(dir, { recursive: true, force: true }));
     spoolDirectory = dir;
   } catch {
     spoolDirectory = null;
@@ -79,11 +83,15 @@ export function spoolHasRoom(dir: string, bytes: number): boolean {
   }
 }
 
-function sweepStale(dir: string): void {
-  for (const name of readdirSync(dir)) {
-    const pid = Number(/^clearbase-decode-(\d+)-/.exec(name)?.[1]);
+function sweepStale(shm: string): void {
+  for (const name of readdirSync(shm)) {
+    const pid = Number(new RegExp(`^${PREFIX}(\\d+)-`).exec(name)?.[1]);
     if (!pid || pid === process.pid || isAlive(pid)) continue;
-    rmSync(join(dir, name), { force: true });
+    try {
+      rmSync(join(shm, name), { recursive: true, force: true });
+    } catch {
+      // another user's: not ours to remove
+    }
   }
 }
 
@@ -100,7 +108,7 @@ let spoolCount = 0;
 
 /** Starts `pipeline` (which must end in 16-bit RGB) writing to a new spool file in `dir`. */
 export function startSpooledDecode(pipeline: Sharp, dir: string): SpooledDecode {
-  const path = join(dir, `${PREFIX}${process.pid}-${++spoolCount}.v`);
+  const path = join(dir, `${++spoolCount}.v`);
   let settled = false;
   let failure: unknown = null;
   // The `.v` suffix selects libvips' own format.
