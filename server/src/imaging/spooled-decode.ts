@@ -63,7 +63,11 @@ export function spoolDir(): string | null {
   try {
     // The spool holds pixels in little-endian order, read as this machine's own.
     if (endianness() !== 'LE' || !existsSync(shm)) return null;
-    sweepStale(shm);
+    try {
+      sweepStale(shm);
+    } catch {
+      // a sweep that fails leaves leftovers, not this process without a spool
+    }
     const dir = mkdtempSync(join(shm, `${PREFIX}${process.pid}-`));
     process.once('exit', () => rmSync(dir, { recursive: true, force: true }));
     spoolDirectory = dir;
