@@ -38,7 +38,7 @@ export interface SpooledDecode {
     height: number,
     onBytes: (bytes: number) => void,
   ): Promise<void>;
-  /** Waits for the decode to end, whatever its outcome, and removes the spool file. Call it exactly once. */
+  /** Waits for the decode to end, whatever its outcome, and removes the spool file; later calls do nothing. */
   discard(): Promise<void>;
 }
 
