@@ -128,6 +128,37 @@ export function startSpooledDecode(pipeline: Sharp, dir: string): SpooledDecode 
   const wait = () => new Promise((resolve) => setTimeout(resolve, POLL_MS));
   let discarded = false;
 
+  /** Fills `into` from byte `position` of the spool, waiting for libvips to write what is not there yet. */
+  async function readWritten(
+    handle: FileHandle,
+    into: Uint8Array,
+    position: number,
+    onBytes?: (bytes: number) => void,
+  ): Promise<void> {
+    let got = 0;
+    while (got < into.byteLength) {
+      // Seen before the read: a read that then finds nothing means the file ends there.
+      const ended = settled;
+      const { bytesRead } = await handle.read(
+        into,
+        got,
+        Math.min(READ_BYTES, into.byteLength - got),
+        position + got,
+      );
+      if (bytesRead) {
+        got += bytesRead;
+        onBytes?.(got);
+        continue;
+      }
+      if (failure) throw failure;
+      if (ended)
+        throw new RangeError(
+          `The spool file ended at byte ${position + got} of ${position + into.byteLength}`,
+        );
+      await wait();
+    }
+  }
+
   return {
     async readInto(target, width, height, onBytes) {
       const total = width * height * 6;
@@ -147,42 +178,9 @@ export function startSpooledDecode(pipeline: Sharp, dir: string): SpooledDecode 
           }
         }
         const header = Buffer.alloc(SPOOL_HEADER_BYTES);
-        let got = 0;
-        while (got < SPOOL_HEADER_BYTES) {
-          const { bytesRead } = await handle.read(header, got, SPOOL_HEADER_BYTES - got, got);
-          got += bytesRead;
-          if (bytesRead) continue;
-          if (settled) {
-            if (failure) throw failure;
-            if (!(await handle.read(header, got, SPOOL_HEADER_BYTES - got, got)).bytesRead)
-              throw new RangeError('The spool file ended inside its header');
-          } else await wait();
-        }
+        await readWritten(handle, header, 0);
         checkHeader(header, width, height);
-        got = 0;
-        while (got < total) {
-          const { bytesRead } = await handle.read(
-            target,
-            got,
-            Math.min(READ_BYTES, total - got),
-            SPOOL_HEADER_BYTES + got,
-          );
-          if (bytesRead) {
-            got += bytesRead;
-            onBytes(got);
-            continue;
-          }
-          if (!settled) {
-            await wait();
-            continue;
-          }
-          if (failure) throw failure;
-          // Ended: what is left was written before the end was seen, or the file is short.
-          const last = await handle.read(target, got, total - got, SPOOL_HEADER_BYTES + got);
-          if (!last.bytesRead) throw new RangeError(`The spool file ended after ${got} of ${total} bytes`);
-          got += last.bytesRead;
-          onBytes(got);
-        }
+        await readWritten(handle, target, SPOOL_HEADER_BYTES, onBytes);
         await job;
         if (failure) throw failure;
       } finally {
