@@ -49,6 +49,33 @@ describe('the API edge', () => {
     expect(res.status).toBe(403);
   });
 
+  it('refuses every unsafe method without a token whatever the letter case of the path', async () => {
+    const c = await client(t.app);
+    const failures: string[] = [];
+    for (const method of ['post', 'put', 'patch', 'delete'] as const) {
+      for (const path of ['/API/orders', '/Api/orders', '/api/Orders', '/API/rolls/5/frames', '/other']) {
+        const res = await c.agent[method](path).send({});
+        if (res.status !== 403 || res.body.type !== 'about:blank' || !/X-XSRF-TOKEN/.test(res.body.detail)) {
+          failures.push(`${method.toUpperCase()} ${path}: ${res.status}`);
+        }
+      }
+    }
+    expect(failures).toEqual([]);
+  });
+
+  it('routes paths case-sensitively: an upper-case API path reaches no route', async () => {
+    const c = await client(t.app);
+    const login = await c.post('/API/auth/login', { email: 'a@lab.test', password: 'x' });
+    expect(login.status).toBe(404);
+    expect(login.headers['content-type']).toMatch(problemType);
+    expect((await request(t.app).get('/API/health')).status).not.toBe(200);
+  });
+
+  it('does not exempt the payment webhook when its path is spelt in another case', async () => {
+    const res = await request(t.app).post('/API/payments/webhook').send({});
+    expect(res.status).toBe(403);
+  });
+
   it('answers malformed JSON with a 400 problem', async () => {
     const c = await client(t.app);
     const res = await c.agent

@@ -57,6 +57,8 @@ export function createApp(deps: AppDeps): Express {
   const { db, config, clock, logger } = deps;
   const app = express();
   app.disable('x-powered-by');
+  // paths mean what they spell: /API/orders is not /api/orders, so no check keyed on a path can be side-stepped by case
+  app.enable('case sensitive routing');
   // behind an https proxy, trust the one hop in front so Secure cookies and client addresses work
   if (config.secureCookies) app.set('trust proxy', 1);
 

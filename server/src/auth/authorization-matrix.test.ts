@@ -99,6 +99,26 @@ describe('authorization matrix', () => {
     expect(failures).toEqual([]);
   });
 
+  it('reaches no route when a path is spelt in upper case, for every role', async () => {
+    const failures: string[] = [];
+    for (const caller of who) {
+      const c = caller === 'anonymous' ? await client(t.app) : await signedIn(t.app, `${caller}@lab.test`);
+      for (const route of routeRegistryOf(t.app)) {
+        const path = samplePath(route.path).toUpperCase();
+        const res = await c.send(route.method, path, route.method === 'get' ? undefined : {});
+        if (res.status !== 404)
+          failures.push(`${route.method.toUpperCase()} ${path} as ${caller}: ${res.status}`);
+        // without the token an unsafe request is refused before routing, whatever its path
+        if (route.method !== 'get') {
+          const bare = await c.agent[route.method](path).send({});
+          if (bare.status !== 403)
+            failures.push(`${route.method.toUpperCase()} ${path} as ${caller} without token: ${bare.status}`);
+        }
+      }
+    }
+    expect(failures).toEqual([]);
+  });
+
   it('covers the sign-in, users and audit routes', () => {
     const keys = routeRegistryOf(t.app).map(key);
     expect(keys).toEqual(

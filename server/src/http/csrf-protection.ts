@@ -6,7 +6,8 @@ import { AppError } from '../errors/app-error';
 export const csrfCookieName = 'XSRF-TOKEN';
 export const csrfHeaderName = 'x-xsrf-token';
 
-const unsafeMethods = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+// RFC 9110 §9.2.1: only these methods are safe; every other one changes state and must carry the token
+const safeMethods = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 function sign(nonce: string, secret: string): string {
   return createHmac('sha256', secret).update(`csrf:${nonce}`).digest('base64url');
@@ -45,8 +46,8 @@ function equalStrings(a: string, b: string): boolean {
 
 /**
  * Signed double-submit cookie. Every response whose request lacks a valid token sets a fresh `XSRF-TOKEN` cookie
- * (readable by scripts, SameSite=Lax); every POST/PUT/PATCH/DELETE under /api must send the same value in
- * `X-XSRF-TOKEN`. Another site can neither read the cookie nor forge the signature, so it cannot send a matching pair.
+ * (readable by scripts, SameSite=Lax); every request of an unsafe method (anything but GET, HEAD and OPTIONS), on any
+ * path and in any letter case, must send the same value in `X-XSRF-TOKEN`. Another site can neither read the cookie nor forge the signature, so it cannot send a matching pair.
  * The token is not tied to the session, which keeps sign-in working from the first anonymous GET; SameSite=Lax on the
  * session cookie is the second line.
  */
@@ -67,7 +68,8 @@ export function csrfProtection(options: {
         path: '/',
       });
     }
-    if (!unsafeMethods.has(req.method) || !req.path.startsWith('/api/')) return next();
+    if (safeMethods.has(req.method)) return next();
+    // exact and case-sensitive, as routing is: /API/payments/webhook reaches no route and is not exempt
     if (options.exemptPaths?.includes(req.path)) return next();
     const header = req.get(csrfHeaderName);
     if (!cookieValid || !header || !equalStrings(header, cookie!)) {

@@ -118,7 +118,7 @@ function accessCheck(access: RouteAccess): RequestHandler {
  * api.define({ method: 'get', path: '/api/users', roles: ['admin'] }, async (_req, res) => res.json({ users }));
  */
 export function createApiRoutes(): { api: ApiRoutes; router: Router } {
-  const router = express.Router();
+  const router = express.Router({ caseSensitive: true });
   const registry: RegisteredRoute[] = [];
   const api: ApiRoutes = {
     registry,
