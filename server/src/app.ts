@@ -59,8 +59,9 @@ export function createApp(deps: AppDeps): Express {
   app.disable('x-powered-by');
   // paths mean what they spell: /API/orders is not /api/orders, so no check keyed on a path can be side-stepped by case
   app.enable('case sensitive routing');
-  // behind an https proxy, trust the one hop in front so Secure cookies and client addresses work
-  if (config.secureCookies) app.set('trust proxy', 1);
+  // only proxies named in TRUST_PROXY may say who the client is; otherwise X-Forwarded-For is ignored, so a client
+  // reaching the port directly cannot pick its own address and slip past the per-address limits
+  if (config.trustProxy !== false) app.set('trust proxy', config.trustProxy);
 
   app.use(
     helmet({
@@ -99,6 +100,9 @@ export function createApp(deps: AppDeps): Express {
       resave: false,
       saveUninitialized: false,
       rolling: true,
+      // with no trusted proxy, an https PUBLIC_URL still needs to know the request reached the proxy over https to
+      // send its Secure cookie; X-Forwarded-Proto says so, and a client that forges it only withholds its own cookie
+      ...(config.trustProxy === false && config.secureCookies ? { proxy: true } : {}),
       cookie: {
         httpOnly: true,
         sameSite: 'lax',

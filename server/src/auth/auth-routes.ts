@@ -33,22 +33,30 @@ function logOut(req: Request): Promise<void> {
 /** Sign-in, sign-out, the current user and password change. */
 export function authRoutes(passport: AppPassport): RouteModule {
   return (api, { db, clock, config }) => {
-    const { max, windowMs } = config.loginRateLimit;
-    const loginLimiter = rateLimit({
-      windowMs,
-      limit: max,
-      // only failed sign-ins count, per client address and e-mail
-      skipSuccessfulRequests: true,
-      standardHeaders: 'draft-8',
-      legacyHeaders: false,
-      keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '')}`,
-      handler: (_req, res) => {
-        const minutes = Math.ceil(windowMs / 60_000);
-        sendProblem(res, 429, `Too many failed sign-in attempts. Wait ${minutes} minutes and try again.`, {
-          code: 'too-many-sign-ins',
-        });
-      },
-    });
+    const { max, addressMax, windowMs } = config.loginRateLimit;
+    const tooMany = (_req: Request, res: Response) => {
+      const minutes = Math.ceil(windowMs / 60_000);
+      sendProblem(res, 429, `Too many failed sign-in attempts. Wait ${minutes} minutes and try again.`, {
+        code: 'too-many-sign-ins',
+      });
+    };
+    // only failed sign-ins count: per client address and e-mail (guessing one account's password), and per address
+    // over all e-mails (one password tried on many accounts)
+    const limiter = (limit: number, keyOf: (req: Request) => string) =>
+      rateLimit({
+        windowMs,
+        limit,
+        skipSuccessfulRequests: true,
+        standardHeaders: 'draft-8',
+        legacyHeaders: false,
+        keyGenerator: keyOf,
+        handler: tooMany,
+      });
+    const address = (req: Request) => ipKeyGenerator(req.ip ?? '');
+    const loginLimiters = [
+      limiter(addressMax, address),
+      limiter(max, (req) => `${address(req)}|${String(req.body?.email ?? '').toLowerCase()}`),
+    ];
 
     api.define(
       {
@@ -56,7 +64,7 @@ export function authRoutes(passport: AppPassport): RouteModule {
         path: '/api/auth/login',
         roles: 'public',
         body: loginRequestSchema,
-        before: [loginLimiter],
+        before: loginLimiters,
         summary: 'Sign in with e-mail and password',
       },
       async (req, res, { body }) => {

@@ -17,7 +17,8 @@ describe('configuration from the environment', () => {
       publicUrl: 'http://127.0.0.1:4300',
       secureCookies: false,
       jsonBodyLimitBytes: 1024 * 1024,
-      loginRateLimit: { max: 10, windowMs: 15 * 60_000 },
+      loginRateLimit: { max: 10, addressMax: 30, windowMs: 15 * 60_000 },
+      trustProxy: false,
       seedDemo: true,
     });
   });

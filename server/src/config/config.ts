@@ -3,6 +3,7 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join, resolve } from 'node:path';
 import { z } from 'zod';
+import { parseTrustProxy, type TrustProxy } from './trust-proxy';
 
 const intFromEnv = (min: number, max: number) => z.coerce.number().int().min(min).max(max);
 
@@ -14,6 +15,8 @@ const envSchema = z.object({
   DATA_DIR: z.string().min(1).default('./data'),
   SESSION_SECRET: z.string().min(32, 'Use at least 32 characters').optional(),
   PUBLIC_URL: z.url().optional(),
+  // off unless set: only a proxy we were told of may name the client (parsed by parseTrustProxy)
+  TRUST_PROXY: z.string().optional(),
   // one working day: common practice for staff web applications, from memory
   SESSION_MAX_AGE_HOURS: intFromEnv(1, 24 * 90).default(12),
   // 1 MB is ample for JSON requests; files travel as multipart, not JSON (our choice)
@@ -21,6 +24,9 @@ const envSchema = z.object({
   // 10 failed sign-ins per 15 minutes per address and e-mail: common practice against password guessing, from memory
   LOGIN_RATE_LIMIT_MAX: intFromEnv(1, 10_000).default(10),
   LOGIN_RATE_LIMIT_WINDOW_MINUTES: intFromEnv(1, 24 * 60).default(15),
+  // 30 failed sign-ins per window from one address across all e-mails: one password tried on many accounts stops
+  // early, while a shop counter where many customers mistype still gets through (our choice)
+  LOGIN_RATE_LIMIT_ADDRESS_MAX: intFromEnv(1, 100_000).default(30),
   // the Angular build's output folder (angular.json outputPath + /browser)
   WEB_ROOT: z.string().min(1).default('dist/web/browser'),
   SEED_DEMO: z.enum(['true', 'false']).default('true'),
@@ -64,11 +70,14 @@ export interface Config {
   dataDir: string;
   sessionSecret: string;
   publicUrl: string;
-  /** True when PUBLIC_URL is https: cookies are Secure and the app trusts one proxy in front. */
+  /** True when PUBLIC_URL is https: cookies are Secure and HSTS is sent. */
   secureCookies: boolean;
+  /** The proxies allowed to name the client's address (TRUST_PROXY); false trusts none. */
+  trustProxy: TrustProxy;
   sessionMaxAgeMs: number;
   jsonBodyLimitBytes: number;
-  loginRateLimit: { max: number; windowMs: number };
+  /** Failed sign-ins allowed per window: `max` per address and e-mail, `addressMax` per address over all e-mails. */
+  loginRateLimit: { max: number; addressMax: number; windowMs: number };
   /** Folder of the built web app, served with a fallback to its index.html. */
   webRoot: string;
   seedDemo: boolean;
@@ -156,6 +165,12 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
       );
     }
   }
+  let trustProxy: TrustProxy;
+  try {
+    trustProxy = parseTrustProxy(e.TRUST_PROXY);
+  } catch (err) {
+    throw new ConfigError(`Invalid environment:\n  ${(err as Error).message}`);
+  }
   const publicUrl = (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, '');
   return {
     nodeEnv: e.NODE_ENV,
@@ -165,9 +180,14 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
     sessionSecret,
     publicUrl,
     secureCookies: publicUrl.startsWith('https://'),
+    trustProxy,
     sessionMaxAgeMs: e.SESSION_MAX_AGE_HOURS * 3600_000,
     jsonBodyLimitBytes: e.JSON_BODY_LIMIT_BYTES,
-    loginRateLimit: { max: e.LOGIN_RATE_LIMIT_MAX, windowMs: e.LOGIN_RATE_LIMIT_WINDOW_MINUTES * 60_000 },
+    loginRateLimit: {
+      max: e.LOGIN_RATE_LIMIT_MAX,
+      addressMax: e.LOGIN_RATE_LIMIT_ADDRESS_MAX,
+      windowMs: e.LOGIN_RATE_LIMIT_WINDOW_MINUTES * 60_000,
+    },
     webRoot: resolve(e.WEB_ROOT),
     seedDemo: e.SEED_DEMO === 'true',
     logLevel: e.LOG_LEVEL,
