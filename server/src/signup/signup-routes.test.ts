@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { settleAfterResponse } from '../http/after-response';
 import {
   addUser,
   client,
@@ -17,7 +18,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
+/** The mail queued for an address, newest first, once the work done after answering has ended. */
 async function mailTo(address: string) {
+  await settleAfterResponse();
   return t.db
     .selectFrom('outbox')
     .selectAll()
@@ -206,6 +209,46 @@ describe('password reset by e-mail', () => {
     expect(res.body.status).toBe('check-your-mail');
     expect(await mailTo('ghost@example.test')).toEqual([]);
   });
+});
+
+describe('answers that tell nothing of who has an account', () => {
+  /** Keeps the one database connection busy until the returned function is called. */
+  async function holdDatabase(): Promise<() => Promise<void>> {
+    let release!: () => void;
+    let started!: () => void;
+    const running = new Promise<void>((resolve) => (started = resolve));
+    const held = t.db.transaction().execute(async () => {
+      started();
+      await new Promise<void>((resolve) => (release = resolve));
+    });
+    await running;
+    return async () => {
+      release();
+      await held;
+    };
+  }
+
+  for (const [what, path] of [
+    ['a password reset', '/api/auth/password-reset'],
+    ['a resend of the sign-up link', '/api/auth/signup/resend'],
+  ] as const) {
+    it(`answers ${what} without touching the database, for known and unknown addresses alike`, async () => {
+      await addUser(t.db, 'customer', `held-${path.length}@example.test`);
+      const c = await client(t.app);
+      const release = await holdDatabase();
+      try {
+        // with the database held, an answer can only come if the lookup happens after it
+        const answers = await Promise.all(
+          [`held-${path.length}@example.test`, 'nobody-held@example.test'].map((email) =>
+            c.post(path, { email }).then((res) => res.status),
+          ),
+        );
+        expect(answers).toEqual([202, 202]);
+      } finally {
+        await release();
+      }
+    });
+  }
 });
 
 describe('accounts opened at the counter', () => {

@@ -17,6 +17,7 @@ import type { Config } from '../config/config';
 import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
 import { sendProblem } from '../errors/send-problem';
+import { afterResponse } from '../http/after-response';
 import type { RouteModule } from '../http/route-module';
 import { enqueueTemplatedMail } from '../mail/outbox-repository';
 import {
@@ -211,14 +212,16 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
       before: [mailLimiter(config, 'resend')],
       summary: 'Send the verification link of a pending sign-up again',
     },
-    async (_req, res, { body }) => {
-      const pending = await findPendingSignupByEmail(db, body.email);
-      if (pending) {
+    async (req, res, { body }) => {
+      // looked up and mailed after answering, so the answer takes as long whether a sign-up waits or not
+      afterResponse(req, res, async () => {
+        const pending = await findPendingSignupByEmail(db, body.email);
+        if (!pending) return;
         await db.transaction().execute(async (trx) => {
           const { hash, expiresAt } = await mailVerifyLink(trx, pending, clock.now());
           await renewPendingSignupToken(trx, pending.id, hash, expiresAt);
         });
-      }
+      });
       res
         .status(202)
         .json(
@@ -288,11 +291,13 @@ export const signupRoutes: RouteModule = (api, { db, clock, config }) => {
       before: [mailLimiter(config, 'password reset')],
       summary: 'Mail a single-use link to choose a new password',
     },
-    async (_req, res, { body }) => {
-      const user = await findUserByEmail(db, body.email);
-      if (user && !user.disabled) {
+    async (req, res, { body }) => {
+      // looked up and mailed after answering, so the answer takes as long whether the account exists or not
+      afterResponse(req, res, async () => {
+        const user = await findUserByEmail(db, body.email);
+        if (!user || user.disabled) return;
         await db.transaction().execute((trx) => mailPasswordLink(trx, user, 'reset', clock.now()));
-      }
+      });
       res
         .status(202)
         .json(
