@@ -15,6 +15,7 @@ import { createLogger } from './logging/create-logger';
 import { mailServices } from './mail/mail-services';
 import { paymentFakeServices } from './payment-fake/payment-fake-service';
 import { signupCleanupService } from './signup/signup-cleanup';
+import { settleAfterResponse } from './http/after-response';
 
 // hourly: expired sessions are refused on read anyway; pruning only keeps the table small (our choice)
 const sessionPruneIntervalMs = 3600_000;
@@ -120,6 +121,8 @@ async function shutdown(signal: string): Promise<void> {
     server.close(() => resolve());
     server.closeIdleConnections();
   });
+  // mail a reset link asked for just before the signal, before the database closes
+  await settleAfterResponse();
   for (const service of started.reverse()) {
     try {
       await service.stop();
