@@ -5,6 +5,12 @@ import type { Clock } from '../clock';
 
 type Callback = (err?: unknown) => void;
 
+// a session's expiry is moved forward at most once a minute: a signed-in page makes many requests, and a minute's
+// slack on a session of hours changes nothing for the user (our choice)
+const touchIntervalMs = 60_000;
+// sessions whose last write is remembered; past this the oldest are forgotten and simply written once more (our choice)
+const rememberedSessions = 50_000;
+
 /** The user id passport keeps in a session, if any. */
 function userIdOf(data: session.SessionData): number | null {
   const user = (data as { passport?: { user?: unknown } }).passport?.user;
@@ -16,6 +22,9 @@ function userIdOf(data: session.SessionData): number | null {
  * sessions can be dropped together (password change, account disabled).
  */
 export class KyselySessionStore extends session.Store {
+  /** When each session's row was last written, by this process's clock, in ms. */
+  private readonly writtenAt = new Map<string, number>();
+
   constructor(
     private readonly db: Kysely<Database>,
     private readonly clock: Clock,
@@ -28,6 +37,12 @@ export class KyselySessionStore extends session.Store {
     const expires = data.cookie?.expires;
     const at = expires ? new Date(expires) : new Date(this.clock.now().getTime() + this.defaultMaxAgeMs);
     return at.toISOString();
+  }
+
+  private remember(sid: string): void {
+    this.writtenAt.delete(sid);
+    this.writtenAt.set(sid, this.clock.now().getTime());
+    if (this.writtenAt.size > rememberedSessions) this.writtenAt.delete(this.writtenAt.keys().next().value!);
   }
 
   override get(sid: string, callback: (err: unknown, session?: session.SessionData | null) => void): void {
@@ -52,24 +67,37 @@ export class KyselySessionStore extends session.Store {
       )
       .execute()
       .then(
-        () => callback?.(),
+        () => {
+          this.remember(sid);
+          callback?.();
+        },
         (err) => callback?.(err),
       );
   }
 
+  /** Moves the expiry forward, at most once a minute per session, so most requests write nothing. */
   override touch(sid: string, data: session.SessionData, callback?: Callback): void {
+    const last = this.writtenAt.get(sid);
+    if (last !== undefined && this.clock.now().getTime() - last < touchIntervalMs) {
+      callback?.();
+      return;
+    }
     this.db
       .updateTable('sessions')
       .set({ expires_at: this.expiryOf(data) })
       .where('sid', '=', sid)
       .execute()
       .then(
-        () => callback?.(),
+        () => {
+          this.remember(sid);
+          callback?.();
+        },
         (err) => callback?.(err),
       );
   }
 
   override destroy(sid: string, callback?: Callback): void {
+    this.writtenAt.delete(sid);
     this.db
       .deleteFrom('sessions')
       .where('sid', '=', sid)

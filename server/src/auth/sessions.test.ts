@@ -30,6 +30,26 @@ const sidOf = (res: request.Response) =>
     ?.split(';')[0];
 
 describe('sessions', () => {
+  it('writes a signed-in session’s row at most once a minute, however many requests it makes', async () => {
+    const c = await signedIn(t.app, 'op@lab.test');
+    // every session row's expiry: only this client's session is used below
+    const expiryOf = async () =>
+      (await t.db.selectFrom('sessions').select(['sid', 'expires_at']).orderBy('sid').execute()).map(
+        (r) => `${r.sid} ${r.expires_at}`,
+      );
+    const before = await expiryOf();
+    for (let i = 0; i < 5; i++) expect((await c.get('/api/auth/me')).status).toBe(200);
+    expect(await expiryOf()).toEqual(before);
+    const start = t.clock.now();
+    t.clock.set(new Date(start.getTime() + 61_000));
+    try {
+      expect((await c.get('/api/auth/me')).status).toBe(200);
+      expect(await expiryOf()).not.toEqual(before);
+    } finally {
+      t.clock.set(start);
+    }
+  });
+
   it('stores the session with the user id, so the user’s sessions can be found', async () => {
     const c = await signedIn(t.app, 'op@lab.test');
     expect((await c.get('/api/auth/me')).status).toBe(200);
