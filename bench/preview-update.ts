@@ -133,34 +133,51 @@ try {
     { rollId, bytes },
   );
   await page.goto(`${server.url}/rolls/${rollId}/tune`);
-  await page.getByTestId('preview-ms').waitFor({ timeout: 60_000 });
+  // the first rendering of the edited side is drawn: the canvas counts what it has drawn
+  await page.waitForFunction(
+    () =>
+      Number(document.querySelector('[data-testid="after-canvas"]')?.getAttribute('data-render-count')) > 0,
+    undefined,
+    { timeout: 60_000 },
+  );
 
   const browserTimes: number[] = [];
   const workerTimes: number[] = [];
   for (let i = 0; i < moves; i++) {
     const measured = await page.evaluate(
-      async (value) => {
+      async ({ value, move }) => {
         const input = document.querySelector<HTMLInputElement>('[data-testid="cast-magentaGreen"]')!;
+        const canvas = document.querySelector<HTMLCanvasElement>('[data-testid="after-canvas"]')!;
         const label = document.querySelector('[data-testid="preview-ms"]')!;
-        const drawn = new Promise<void>((resolve) => {
-          // the label and the canvas are written in the same pass; the label's change marks the new rendering
+        // read inline, not through a local function: tsx would wrap a named one in a helper the page lacks
+        const seen = Number(canvas.dataset['renderCount'] ?? 0);
+        // the next rendering is the next count, even when it took the same whole milliseconds as the last
+        const drawn = new Promise<void>((resolve, reject) => {
           const watch = new MutationObserver(() => {
+            if (Number(canvas.dataset['renderCount'] ?? 0) <= seen) return;
             watch.disconnect();
+            clearTimeout(stuck);
             resolve();
           });
-          watch.observe(label, { characterData: true, childList: true, subtree: true });
+          // a bound on a wait for state: a preview that never comes says so instead of hanging the run
+          const stuck = setTimeout(() => {
+            watch.disconnect();
+            reject(new Error(`move ${move}: no new preview drawn within 60 s (still ${seen} drawn)`));
+          }, 60_000);
+          watch.observe(canvas, { attributes: true, attributeFilter: ['data-render-count'] });
         });
         const start = performance.now();
         input.value = String(value);
         input.dispatchEvent(new Event('input', { bubbles: true }));
         await drawn;
+        // the timing label is written in the same pass; after the next frame it is on screen too
         await new Promise((r) => requestAnimationFrame(() => r(null)));
         return {
           total: performance.now() - start,
           worker: Number(/(\d+)/.exec(label.textContent ?? '')?.[1]),
         };
       },
-      ((i % 2) * 2 - 1) * (1 + (i % 7)),
+      { value: ((i % 2) * 2 - 1) * (1 + (i % 7)), move: i + 1 },
     );
     browserTimes.push(measured.total);
     workerTimes.push(measured.worker);
