@@ -1,8 +1,9 @@
-import { open, stat } from 'node:fs/promises';
 import sharp from 'sharp';
-import type { Metadata, OutputInfo } from 'sharp';
-import { ImageInputError } from './image-input-error';
-import { sniffFormat, type SniffedFormat } from './sniff-format';
+import type { OutputInfo } from 'sharp';
+import { damagedImageError } from './damaged-image-error';
+import { readImageHead } from './read-image-head';
+import { readNegativeHeader } from './read-negative-header';
+import type { SniffedFormat } from './sniff-format';
 import {
   SPOOL_MIN_FREE_BYTES,
   spoolDir,
@@ -47,12 +48,6 @@ export interface NegativeImage {
 /** Where a PNG's bit depth is: 8 signature bytes, the IHDR chunk's length and type, width and height (PNG §11.2.2). */
 const PNG_BIT_DEPTH_AT = 24;
 
-const FORMAT_NAMES: Record<Exclude<SniffedFormat, 'unknown'>, string> = {
-  tiff: 'TIFF',
-  png: 'PNG',
-  jpeg: 'JPEG',
-};
-
 /**
  * Reads a raw negative scan as 16-bit interleaved RGB.
  *
@@ -77,22 +72,9 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
     );
   }
 
-  const head = await readHead(path);
-  const sniffed = sniffFormat(head);
-  if (sniffed === 'unknown') {
-    throw new ImageInputError(
-      'not-an-image',
-      'The file is not an image: it does not start like a TIFF, PNG or JPEG file.',
-    );
-  }
-  const format = sniffed;
-  const formatName = FORMAT_NAMES[format];
-  const damaged = (cause: unknown) =>
-    new ImageInputError(
-      'truncated',
-      `The file starts like a ${formatName} image but its data is incomplete or damaged; it may have been cut off during copying or upload.`,
-      { cause },
-    );
+  const { head, format } = await readImageHead(path);
+  const sniffed = format;
+  const damaged = (cause: unknown) => damagedImageError(format, cause);
 
   const pipeline = (bits: 8 | 16) =>
     sharp(path, { limitInputPixels: maxPixels, failOn: 'error', ignoreIcc: true, sequentialRead: true })
@@ -134,52 +116,7 @@ export async function readNegative(path: string, options: ReadNegativeOptions = 
   }
 
   async function readWithHeader(): Promise<NegativeImage> {
-    let meta: Metadata;
-    try {
-      meta = await sharp(path, { limitInputPixels: false }).metadata();
-    } catch (cause) {
-      throw damaged(cause);
-    }
-    const { width, height } = meta;
-    if (!width || !height) throw damaged(new Error('header has no size'));
-    if (width * height > maxPixels) {
-      throw new ImageInputError(
-        'too-many-pixels',
-        `The image is ${width} × ${height} pixels (${formatMegapixels(width * height)}), more than the ${formatMegapixels(maxPixels)} allowed.`,
-      );
-    }
-
-    const warnings: string[] = [];
-    let bitDepth: 8 | 16;
-    if (meta.depth === 'ushort') {
-      bitDepth = 16;
-    } else if (meta.depth === 'uchar') {
-      bitDepth = 8;
-      warnings.push(
-        'The scan has 8 bits per channel; 16-bit scans keep more detail in the dense parts of the negative.',
-      );
-    } else {
-      throw new ImageInputError(
-        'unsupported-depth',
-        `The image stores samples as ${meta.depth ?? 'an unknown type'}; only 8- and 16-bit integer samples are supported.`,
-      );
-    }
-    if (meta.space === 'cmyk') {
-      throw new ImageInputError('not-colour', 'The image is CMYK; a negative scan must be RGB.');
-    }
-    const colourChannels = meta.hasAlpha ? meta.channels - 1 : meta.channels;
-    if (colourChannels < 3) {
-      throw new ImageInputError(
-        'not-colour',
-        'The scan is greyscale; a colour negative must be scanned in RGB so the film base and each dye layer can be measured.',
-      );
-    }
-    if (meta.hasAlpha) warnings.push('The alpha channel was dropped.');
-    if (meta.icc)
-      warnings.push(
-        'The embedded ICC profile was ignored; the scanner profile describes how counts are encoded.',
-      );
-
+    const { width, height, bitDepth, warnings } = await readNegativeHeader(path, { maxPixels });
     const samples = width * height * 3;
     const rows = { width, onRows: options.onRows };
     // Allocated once: a spooled read that fails is decoded again into the same array.
@@ -265,25 +202,6 @@ class RowsCallbackError extends Error {
   }
 }
 
-async function readHead(path: string): Promise<Uint8Array> {
-  let size: number;
-  try {
-    size = (await stat(path)).size;
-  } catch (cause) {
-    throw new ImageInputError('missing', `No file was found at ${path}.`, { cause });
-  }
-  if (size === 0) throw new ImageInputError('empty', 'The file is empty (0 bytes).');
-  const handle = await open(path, 'r');
-  try {
-    // Enough for the format's signature and a PNG's bit depth.
-    const head = new Uint8Array(32);
-    const { bytesRead } = await handle.read(head, 0, head.length, 0);
-    return head.subarray(0, bytesRead);
-  } finally {
-    await handle.close();
-  }
-}
-
 /** Rows copied at a time: about a megabyte of 16-bit RGB, which stays in cache for `onRows` (our choice). */
 const BAND_BYTES = 1 << 20;
 
@@ -338,8 +256,4 @@ function expand8(
     for (let i = from; i < to; i++) out[i] = bytes[i]! * 257;
   });
   return out;
-}
-
-function formatMegapixels(pixels: number): string {
-  return `${(pixels / 1e6).toFixed(1)} MP`;
 }
