@@ -7,6 +7,7 @@ import { enqueueTemplatedMail } from '../mail/outbox-repository';
 import { loadOrderFor } from '../orders/order-access';
 import { findOrderById, setOrderStatus, toOrder } from '../orders/order-repository';
 import { recordOrderAudit } from '../orders/record-order-audit';
+import { whyRollNotApproved } from '../review/roll-approval';
 import { findUserById } from '../users/user-repository';
 import { downloadLinkValidMs, downloadUrl } from './download-link-validity';
 import { insertDownloadToken } from './download-token-repository';
@@ -27,15 +28,8 @@ export async function rollsNotApproved(db: Kysely<Database>, orderId: number): P
       .select(['frames.id', 'frame_reviews.decision'])
       .where('frames.roll_id', '=', roll.id)
       .execute();
-    const open = frames.filter((f) => f.decision !== 'approved' && f.decision !== 'excluded').length;
-    if (frames.length === 0) waiting.push({ rollId: roll.id, rollNumber: i + 1, reason: 'has no scans yet' });
-    else if (open > 0) {
-      waiting.push({
-        rollId: roll.id,
-        rollNumber: i + 1,
-        reason: `has ${open} frame${open === 1 ? '' : 's'} not approved`,
-      });
-    }
+    const reason = whyRollNotApproved(frames.map((f) => f.decision));
+    if (reason) waiting.push({ rollId: roll.id, rollNumber: i + 1, reason });
   }
   return waiting;
 }
