@@ -4,7 +4,7 @@ import type { CalibrationsTable } from '../calibrations/calibrations-table';
 import type { DownloadTokensTable } from '../downloads/download-tokens-table';
 import type { OrderTables } from '../orders/order-tables';
 import type { OutboxTable } from '../mail/outbox-table';
-import type { PaymentEventsTable, PaymentsTable } from '../payments/payment-tables';
+import type { PaymentEventsTable, PaymentRefundsTable, PaymentsTable } from '../payments/payment-tables';
 import type { PasswordTokensTable, PendingSignupsTable } from '../signup/signup-tables';
 import type { FrameReviewsTable } from '../tuning/frame-reviews-table';
 
@@ -127,6 +127,7 @@ export interface Database {
   password_tokens: PasswordTokensTable;
   payments: PaymentsTable;
   payment_events: PaymentEventsTable;
+  payment_refunds: PaymentRefundsTable;
   files: OrderTables['files'];
   orders: OrderTables['orders'];
   rolls: OrderTables['rolls'];

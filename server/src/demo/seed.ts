@@ -16,6 +16,7 @@ export const demoLab = {
   name: 'Clearbase demo lab',
   town: 'Wrenmouth',
   address: '14 Kiln Row, Wrenmouth',
+  payOnCollection: false,
 } as const;
 
 export const demoUsers: readonly { email: string; name: string; role: Role }[] = [

@@ -107,18 +107,41 @@ async function placeOrder(who: Client, rolls: number): Promise<{ orderId: number
   return { orderId: order.body.id as number, rollIds };
 }
 
+/** The order as a customer gets its files: ready, and paid in full (a payment the provider confirmed). */
+async function release(orderId: number, rolls: number): Promise<void> {
+  const iso = t.clock.now().toISOString();
+  await t.db.updateTable('orders').set({ status: 'ready' }).where('id', '=', orderId).execute();
+  await t.db
+    .insertInto('payments')
+    .values({
+      order_id: orderId,
+      checkout_session_id: `cs_test_release_${orderId}`,
+      // starter price list: 12.00 develop + 8.00 scan per 135-36 C-41 roll
+      amount_minor: 2000 * rolls,
+      currency: 'EUR',
+      status: 'paid',
+      payment_intent_id: `pi_release_${orderId}`,
+      created_at: iso,
+      updated_at: iso,
+      paid_at: iso,
+    })
+    .execute();
+}
+
 async function linkFor(who: Client, orderId: number): Promise<string> {
   const res = await who.post(`/api/orders/${orderId}/download-links`).expect(201);
   return new URL(res.body.url as string).pathname;
 }
 
 describe('download links', () => {
-  it('stream the whole order as a zip of stored entries, one per finished frame, leaving out excluded frames', async () => {
+  it('stream the whole order as a zip of stored entries, one per approved frame, leaving out the rest', async () => {
     const { orderId, rollIds } = await placeOrder(alice, 2);
     await addFinishedFrame(rollIds[0]!, 1);
     await addFinishedFrame(rollIds[0]!, 2);
     await addFinishedFrame(rollIds[0]!, 3, 'excluded');
     await addFinishedFrame(rollIds[1]!, 1, null);
+    await addFinishedFrame(rollIds[1]!, 2);
+    await release(orderId, 2);
 
     const path = await linkFor(alice, orderId);
     const res = await alice.get(path).buffer(true).parse(binary).expect(200);
@@ -129,7 +152,7 @@ describe('download links', () => {
     expect(entries.map((e) => e.name)).toEqual([
       'roll-1/scan-01.jpg',
       'roll-1/scan-02.jpg',
-      'roll-2/scan-01.jpg',
+      'roll-2/scan-02.jpg',
     ]);
     expect(entries.every((e) => e.method === 0 && e.size > 0)).toBe(true);
   });
@@ -139,6 +162,8 @@ describe('download links', () => {
     const frameId = await addFinishedFrame(rollIds[0]!, 4);
     const other = await placeOrder(alice, 1);
     const otherFrame = await addFinishedFrame(other.rollIds[0]!, 1);
+    await release(orderId, 1);
+    await release(other.orderId, 1);
     const path = await linkFor(alice, orderId);
 
     const one = await alice.get(`${path}?frame=${frameId}`).buffer(true).parse(binary).expect(200);
@@ -161,6 +186,7 @@ describe('download links', () => {
   it('answer 410 once expired, by the app’s clock, and 404 for a token nobody issued', async () => {
     const { orderId, rollIds } = await placeOrder(alice, 1);
     await addFinishedFrame(rollIds[0]!, 1);
+    await release(orderId, 1);
     const issued = t.clock.now();
     const path = await linkFor(alice, orderId);
     try {
@@ -178,6 +204,7 @@ describe('download links', () => {
 
   it('need a signed-in account: the link alone opens nothing', async () => {
     const { orderId } = await placeOrder(alice, 1);
+    await release(orderId, 1);
     const path = await linkFor(alice, orderId);
     await request(t.app).get(path).expect(401);
   });
@@ -187,6 +214,7 @@ describe('one customer cannot reach another’s scans', () => {
   it('by order id, frame preview or output, the zip link, guessed ids, or a link after expiry', async () => {
     const { orderId, rollIds } = await placeOrder(alice, 1);
     const frameId = await addFinishedFrame(rollIds[0]!, 1);
+    await release(orderId, 1);
     const alicesLink = await linkFor(alice, orderId);
 
     const notFound = (res: { status: number }) => expect(res.status).toBe(404);

@@ -10,9 +10,12 @@ import { createFileStore } from '../files/file-store';
 import type { RouteModule } from '../http/route-module';
 import { isStaff, loadOrderFor } from '../orders/order-access';
 import { findOrderById } from '../orders/order-repository';
+import { assertCustomerMayGet } from './assert-customer-may-get';
+import { customerFileAccess } from './customer-file-access';
 import { downloadLinkValidMs, downloadUrl } from './download-link-validity';
 import { findDownloadToken, insertDownloadToken } from './download-token-repository';
 import { finishedFramesOfOrder } from './finished-frames';
+import { loadFileRelease } from './load-file-release';
 import { finishedFileName, streamOrderZip } from './order-zip';
 
 const everyone = ['customer', ...staffRoles] as const;
@@ -33,10 +36,11 @@ export const downloadsRoutes: RouteModule = (api, { db, config, clock }) => {
       roles: everyone,
       params: idParamsSchema,
       summary:
-        'A signed link to the order’s finished scans, for its owner or staff; expires after DOWNLOAD_LINK_HOURS',
+        'A signed link to the order’s finished scans, for its owner once released (ready and paid) or staff; expires after DOWNLOAD_LINK_HOURS',
     },
     async (_req, res, { params, user }) => {
       const order = await loadOrderFor(db, params.id, user!);
+      await assertCustomerMayGet(db, user!, { orderId: order.id, kind: 'full-size' });
       const { token, expiresAt } = await insertDownloadToken(db, {
         orderId: order.id,
         by: user!.id,
@@ -55,7 +59,7 @@ export const downloadsRoutes: RouteModule = (api, { db, config, clock }) => {
       params: downloadTokenParamsSchema,
       query: downloadFileQuerySchema,
       summary:
-        'The order’s finished scans as a zip streamed as it is read, or ?frame=ID one file (owner or staff)',
+        'The order’s finished scans as a zip streamed as it is read, or ?frame=ID one file (owner once released, or staff)',
     },
     async (_req, res, { params, query, user }) => {
       const link = await findDownloadToken(db, params.token);
@@ -69,7 +73,12 @@ export const downloadsRoutes: RouteModule = (api, { db, config, clock }) => {
           `This download link expired at ${link.expires_at}; open the order’s gallery for a fresh one.`,
         );
       }
-      const frames = await finishedFramesOfOrder(db, order.id);
+      await assertCustomerMayGet(db, user!, { orderId: order.id, kind: 'full-size' });
+      let frames = await finishedFramesOfOrder(db, order.id);
+      if (!isStaff(user!)) {
+        const { state } = await loadFileRelease(db, order);
+        frames = frames.filter((f) => customerFileAccess(state, f.decision, 'full-size').allowed);
+      }
       if (query.frame !== undefined) {
         const frame = frames.find((f) => f.id === query.frame);
         if (!frame) {

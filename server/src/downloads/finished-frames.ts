@@ -1,4 +1,4 @@
-import type { OutputFormat } from '@clearbase/contracts';
+import type { OutputFormat, ReviewDecision } from '@clearbase/contracts';
 import { outputFormats } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
@@ -13,6 +13,8 @@ export interface FinishedFrame {
   fileName: string;
   width: number;
   height: number;
+  /** The operator's decision; null while not reviewed. */
+  decision: ReviewDecision | null;
   outputs: { format: OutputFormat; sha256: string; mediaType: string }[];
 }
 
@@ -47,6 +49,7 @@ export async function finishedFramesOfOrder(db: Kysely<Database>, orderId: numbe
       'frame_outputs.kind',
       'files.sha256',
       'files.media_type',
+      'frame_reviews.decision',
     ])
     .where(
       'frames.roll_id',
@@ -73,6 +76,7 @@ export async function finishedFramesOfOrder(db: Kysely<Database>, orderId: numbe
         fileName: r.file_name,
         width: r.width,
         height: r.height,
+        decision: r.decision,
         outputs: [],
       };
       frames.set(r.id, frame);

@@ -72,6 +72,25 @@ async function caughtWithSubject(subject: string) {
   throw new Error(`no caught mail with subject ${subject}`);
 }
 
+/** A payment of the order's whole price the provider confirmed (starter price list: 20.00 a 135-36 C-41 roll). */
+async function paidInFull(orderId: number, amountMinor = 2000): Promise<void> {
+  const iso = t.clock.now().toISOString();
+  await t.db
+    .insertInto('payments')
+    .values({
+      order_id: orderId,
+      checkout_session_id: `cs_test_ready_${orderId}_${amountMinor}`,
+      amount_minor: amountMinor,
+      currency: 'EUR',
+      status: 'paid',
+      payment_intent_id: `pi_ready_${orderId}`,
+      created_at: iso,
+      updated_at: iso,
+      paid_at: iso,
+    })
+    .execute();
+}
+
 async function addFrame(
   rollId: number,
   index: number,
@@ -196,6 +215,7 @@ describe('marking an order ready', () => {
       .post(`/api/orders/${order.body.id}/rolls`, { stockId, ei: 200, format: '135-36' })
       .expect(201);
     await addFrame(roll.body.id as number, 1, 'approved');
+    await paidInFull(order.body.id as number);
     expect((await operator.get(`/api/orders/${order.body.id}/readiness`)).body.ready).toBe(true);
 
     const res = await operator.post(`/api/orders/${order.body.id}/ready`).expect(200);

@@ -14,6 +14,7 @@ import type { Kysely } from 'kysely';
 import { basename, extname } from 'node:path';
 import sharp from 'sharp';
 import type { Database } from '../db/database';
+import { assertCustomerMayGet } from '../downloads/assert-customer-may-get';
 import { AppError, type FieldError } from '../errors/app-error';
 import { recordFile } from '../files/file-repository';
 import { createFileStore, type FileStore } from '../files/file-store';
@@ -150,10 +151,12 @@ export const framesRoutes: RouteModule = (api, { db, config, clock }) => {
       path: '/api/frames/:id/preview',
       roles: everyone,
       params: idParamsSchema,
-      summary: 'The positive as a JPEG, long edge 2048 (404 until rendered)',
+      summary:
+        'The positive as a JPEG, long edge 2048 (404 until rendered; for its customer once the order is released)',
     },
     async (_req, res, { params, user }) => {
       const frame = await loadFrameFor(db, params.id, user!);
+      await assertCustomerMayGet(db, user!, { frameId: frame.id, kind: 'preview' });
       const preview = await findFrameOutput(db, frame.id, 'preview');
       if (!preview) {
         throw new AppError('preview-not-ready', 404, `Frame ${frame.id} has not been inverted yet.`);
@@ -184,10 +187,12 @@ export const framesRoutes: RouteModule = (api, { db, config, clock }) => {
       roles: everyone,
       params: idParamsSchema,
       query: frameOutputQuerySchema,
-      summary: 'A finished positive: jpeg, tiff16 or png16 (404 until rendered)',
+      summary:
+        'A finished positive: jpeg, tiff16 or png16 (404 until rendered; for its customer once the order is released)',
     },
     async (_req, res, { params, query, user }) => {
       const frame = await loadFrameFor(db, params.id, user!);
+      await assertCustomerMayGet(db, user!, { frameId: frame.id, kind: 'full-size' });
       const output = frame.status === 'done' ? await findFrameOutput(db, frame.id, query.format) : undefined;
       if (!output) {
         throw new AppError(

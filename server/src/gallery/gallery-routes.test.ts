@@ -83,6 +83,23 @@ beforeAll(async () => {
     .expect(201);
   frameIds.push(await addRenderedFrame(roll.body.id as number, 1, 'approved', operatorId));
   frameIds.push(await addRenderedFrame(roll.body.id as number, 2, 'excluded', operatorId));
+  // ready and paid in full (starter price list: 20.00 a 135-36 C-41 roll), so its files are released
+  const iso = t.clock.now().toISOString();
+  await t.db.updateTable('orders').set({ status: 'ready' }).where('id', '=', orderId).execute();
+  await t.db
+    .insertInto('payments')
+    .values({
+      order_id: orderId,
+      checkout_session_id: 'cs_test_gallery',
+      amount_minor: 2000,
+      currency: 'EUR',
+      status: 'paid',
+      payment_intent_id: 'pi_gallery',
+      created_at: iso,
+      updated_at: iso,
+      paid_at: iso,
+    })
+    .execute();
 });
 afterAll(() => t.close());
 
@@ -91,6 +108,8 @@ describe('an order’s gallery', () => {
     const res = await owner.get(`/api/orders/${orderId}/gallery`).expect(200);
     expect(res.body).toEqual({
       orderId,
+      release: { fullSize: true, reason: null },
+      balance: { currency: 'EUR', priceMinor: 2000, paidMinor: 2000, dueMinor: 0 },
       frames: [
         {
           id: frameIds[0],

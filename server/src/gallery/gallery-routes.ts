@@ -1,12 +1,15 @@
 import { idParamsSchema, staffRoles, type GalleryResponse } from '@clearbase/contracts';
 import sharp from 'sharp';
+import { assertCustomerMayGet } from '../downloads/assert-customer-may-get';
+import { customerFileAccess } from '../downloads/customer-file-access';
 import { finishedFramesOfOrder } from '../downloads/finished-frames';
+import { loadFileRelease } from '../downloads/load-file-release';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
 import { findFrameOutput } from '../frames/frame-repository';
 import { loadFrameFor } from '../frames/frames-routes';
 import type { RouteModule } from '../http/route-module';
-import { loadOrderFor } from '../orders/order-access';
+import { isStaff, loadOrderFor } from '../orders/order-access';
 
 const everyone = ['customer', ...staffRoles] as const;
 /** Long edge of gallery thumbnails, pixels: two rows fit a laptop screen at four across (our choice). */
@@ -24,13 +27,22 @@ export const galleryRoutes: RouteModule = (api, { db, config }) => {
       path: '/api/orders/:id/gallery',
       roles: everyone,
       params: idParamsSchema,
-      summary: 'The order’s finished frames with thumbnail, preview and download URLs',
+      summary:
+        'The order’s finished frames with thumbnail, preview and download URLs (for its customer: approved frames, files once released)',
     },
     async (_req, res, { params, user }) => {
       const order = await loadOrderFor(db, params.id, user!);
-      const frames = await finishedFramesOfOrder(db, order.id);
+      const { state, balance } = await loadFileRelease(db, order);
+      const staff = isStaff(user!);
+      const frames = (await finishedFramesOfOrder(db, order.id)).filter(
+        (f) => staff || customerFileAccess(state, f.decision, 'thumbnail').allowed,
+      );
+      const asOrder = customerFileAccess(state, 'approved', 'full-size');
+      const released = staff || asOrder.allowed;
       const body: GalleryResponse = {
         orderId: order.id,
+        release: { fullSize: released, reason: released || asOrder.allowed ? null : asOrder.reason },
+        balance,
         frames: frames.map((f) => ({
           id: f.id,
           rollId: f.rollId,
@@ -40,8 +52,8 @@ export const galleryRoutes: RouteModule = (api, { db, config }) => {
           width: f.width,
           height: f.height,
           thumbnailUrl: `/api/frames/${f.id}/thumbnail`,
-          previewUrl: `/api/frames/${f.id}/preview`,
-          downloads: f.outputs.map((o) => ({
+          previewUrl: released ? `/api/frames/${f.id}/preview` : null,
+          downloads: (released ? f.outputs : []).map((o) => ({
             format: o.format,
             url: `/api/frames/${f.id}/output?format=${o.format}`,
           })),
@@ -61,6 +73,7 @@ export const galleryRoutes: RouteModule = (api, { db, config }) => {
     },
     async (_req, res, { params, user }) => {
       const frame = await loadFrameFor(db, params.id, user!);
+      await assertCustomerMayGet(db, user!, { frameId: frame.id, kind: 'thumbnail' });
       const preview = await findFrameOutput(db, frame.id, 'preview');
       if (!preview) {
         throw new AppError('preview-not-ready', 404, `Frame ${frame.id} has not been inverted yet.`);

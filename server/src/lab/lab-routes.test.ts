@@ -14,7 +14,7 @@ describe('GET /api/lab', () => {
   it('answers a neutral name before the lab is named', async () => {
     const res = await request(t.app).get('/api/lab');
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ name: 'Clearbase', town: '', address: '' });
+    expect(res.body).toEqual({ name: 'Clearbase', town: '', address: '', payOnCollection: false });
   });
 
   it('answers the seeded demo lab to anyone', async () => {
@@ -33,13 +33,24 @@ describe('GET /api/lab', () => {
     };
     const res = await admin.send('put', '/api/lab', next);
     expect(res.status).toBe(200);
-    expect((await request(t.app).get('/api/lab')).body).toEqual(next);
+    // the lab pays first unless told otherwise
+    expect((await request(t.app).get('/api/lab')).body).toEqual({ ...next, payOnCollection: false });
     const audit = await admin.get('/api/audit?action=settings-changed');
     expect(audit.body.entries[0]).toMatchObject({
       actorEmail: 'boss@lab.test',
       target: 'lab',
-      details: { after: next },
+      details: { after: { ...next, payOnCollection: false } },
     });
+  });
+
+  it('lets an admin take payment on collection', async () => {
+    const admin = await signedIn(t.app, 'boss@lab.test');
+    const lab = { name: 'Harbour Street Film Lab', town: 'Wrenmouth', address: '', payOnCollection: true };
+    await admin.send('put', '/api/lab', lab).expect(200);
+    expect((await request(t.app).get('/api/lab')).body.payOnCollection).toBe(true);
+    const refused = await admin.send('put', '/api/lab', { ...lab, payOnCollection: 'yes' });
+    expect(refused.status).toBe(400);
+    expect(refused.body.errors[0].path).toBe('body.payOnCollection');
   });
 
   it('refuses an empty lab name, naming the field', async () => {

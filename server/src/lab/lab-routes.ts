@@ -5,7 +5,7 @@ import type { Database } from '../db/database';
 import type { RouteModule } from '../http/route-module';
 
 /** Shown until an admin names the lab. */
-const unnamedLab: Lab = { name: 'Clearbase', town: '', address: '' };
+const unnamedLab: Lab = { name: 'Clearbase', town: '', address: '', payOnCollection: false };
 
 /** The lab's name and address from settings; a missing or damaged entry falls back to a neutral name. */
 export async function readLab(db: Kysely<Database>): Promise<Lab> {
@@ -33,7 +33,7 @@ export const labRoutes: RouteModule = (api, { db, clock }) => {
       path: '/api/lab',
       roles: ['admin'],
       body: labSchema,
-      summary: 'Rename the lab or change its address',
+      summary: 'Rename the lab, change its address, or take payment on collection',
     },
     async (_req, res, { body, user }) => {
       const before = await readLab(db);

@@ -2,7 +2,12 @@ import type { Lab } from '@clearbase/contracts';
 import { describe, expect, it } from 'vitest';
 import { renderMail, type MailKind, type MailTemplateData } from './mail-templates';
 
-const lab: Lab = { name: 'Saltmarsh Film Works', town: 'Wrenmouth', address: '3 Tide Lane, Wrenmouth' };
+const lab: Lab = {
+  name: 'Saltmarsh Film Works',
+  town: 'Wrenmouth',
+  address: '3 Tide Lane, Wrenmouth',
+  payOnCollection: false,
+};
 
 const samples: { [K in MailKind]: MailTemplateData[K] } = {
   'verify-email': { name: 'Cass', url: 'https://lab.test/verify-email?token=t', expiresHours: 24 },

@@ -25,3 +25,25 @@ export interface PaymentEventsTable {
 }
 
 export type PaymentRow = Selectable<PaymentsTable>;
+
+/** Why a payment was refunded: staff asked, or it came in for an order already paid (refunded without asking). */
+export type RefundReason = 'requested' | 'surplus';
+
+/**
+ * One refund of a payment. It is reserved (`pending`) before the provider is asked, so refunds asked for at the same
+ * time never add up to more than is left, then settled by the provider's answer: `succeeded` or `failed` with why.
+ */
+export interface PaymentRefundsTable {
+  id: Generated<number>;
+  payment_id: number;
+  amount_minor: number;
+  reason: RefundReason;
+  status: 'pending' | 'succeeded' | 'failed';
+  provider_refund_id: string | null;
+  failure: string | null;
+  requested_by: number | null;
+  created_at: ColumnType<string, string, never>;
+  updated_at: string;
+}
+
+export type PaymentRefundRow = Selectable<PaymentRefundsTable>;

@@ -18,7 +18,23 @@ export const paymentSchema = z.object({
 });
 export type Payment = z.infer<typeof paymentSchema>;
 
-export const paymentListResponseSchema = z.object({ payments: z.array(paymentSchema) });
+/**
+ * What an order costs from the price list, what has been paid towards it and what is left, in minor units. Refunds the
+ * lab grants do not reopen a balance; a payment refunded because the order was already paid counts for nothing.
+ * `priceMinor` and `dueMinor` are null when the price list cannot price the order (the lab prices it by hand).
+ */
+export const orderBalanceSchema = z.object({
+  currency: currencySchema,
+  priceMinor: z.number().int().nullable(),
+  paidMinor: z.number().int(),
+  dueMinor: z.number().int().nullable(),
+});
+export type OrderBalance = z.infer<typeof orderBalanceSchema>;
+
+export const paymentListResponseSchema = z.object({
+  payments: z.array(paymentSchema),
+  balance: orderBalanceSchema,
+});
 export type PaymentListResponse = z.infer<typeof paymentListResponseSchema>;
 
 /** POST /api/orders/:id/checkout answers where to send the customer's browser. */

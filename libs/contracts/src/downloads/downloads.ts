@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { orderBalanceSchema } from '../customers/payment';
 import { outputFormatSchema } from '../orders/order';
 
 /** A signed link to an order's finished scans, as the API hands it out. */
@@ -30,15 +31,26 @@ export const galleryFrameSchema = z.object({
   width: z.number().int().positive(),
   height: z.number().int().positive(),
   thumbnailUrl: z.string(),
-  previewUrl: z.string(),
-  /** Full-size files, one per format made: `/api/frames/ID/output?format=…`. */
+  /** The 2048 px preview; null while the order's scans are not released to its customer. */
+  previewUrl: z.string().nullable(),
+  /** Full-size files, one per format made: `/api/frames/ID/output?format=…`; empty while not released. */
   downloads: z.array(z.object({ format: outputFormatSchema, url: z.string() })),
 });
 export type GalleryFrame = z.infer<typeof galleryFrameSchema>;
 
+/** Whether the order's previews, full-size files and zip are released to its customer, and why not when not. */
+export const fileReleaseSchema = z.object({
+  fullSize: z.boolean(),
+  reason: z.string().nullable(),
+});
+export type FileRelease = z.infer<typeof fileReleaseSchema>;
+
 export const galleryResponseSchema = z.object({
   orderId: z.number().int().positive(),
   frames: z.array(galleryFrameSchema),
+  /** For staff always released. */
+  release: fileReleaseSchema,
+  balance: orderBalanceSchema,
 });
 export type GalleryResponse = z.infer<typeof galleryResponseSchema>;
 
