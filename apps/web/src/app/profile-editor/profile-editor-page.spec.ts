@@ -151,6 +151,16 @@ describe('the profile editor page', () => {
     expect(byTestId(el, 'preview-time')?.textContent).toMatch(/rendered in \d+ ms/);
   });
 
+  it('counts each rendering drawn on the edited preview, so the next one shows even at the same timing', async () => {
+    const { fixture, el } = await render('operator');
+    const drawn = () => Number(byTestId(el, 'preview-after')?.dataset['renderCount']);
+    expect(drawn()).toBe(1);
+    type(byTestId(el, 'balance-magentaGreen'), '-5');
+    await fixture.whenStable();
+    await expect.poll(drawn).toBe(2);
+    expect(byTestId(el, 'preview-before')?.dataset['renderCount']).toBe('1');
+  });
+
   it('shows an operator no publish button', async () => {
     const { el } = await render('operator');
     expect(byTestId(el, 'editor-save')).not.toBeNull();
