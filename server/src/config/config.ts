@@ -36,6 +36,8 @@ const envSchema = z.object({
   UPLOAD_MAX_FILES: intFromEnv(1, 1000).default(100),
   // 120 MP: a 6x7 frame at 4000 ppi is about 105 MP, common practice of the trade, from memory
   UPLOAD_MAX_PIXELS: intFromEnv(1, 1_000_000_000).default(120_000_000),
+  // 1 GiB: the bytes of one 105 MP 16-bit scan (630 MB) or of seven 24 MP ones (144 MB each) at once (our arithmetic)
+  UPLOAD_VALIDATION_MEMORY_MB: intFromEnv(64, 1024 * 1024).default(1024),
   // frames inverted at once; default one per core so the worker pool stays busy (our choice)
   JOB_CONCURRENCY: intFromEnv(1, 256).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -83,7 +85,13 @@ export interface Config {
   seedDemo: boolean;
   logLevel: string;
   /** Limits of one upload request of negative scans. */
-  uploads: { maxFileBytes: number; maxFiles: number; maxPixels: number };
+  uploads: {
+    maxFileBytes: number;
+    maxFiles: number;
+    maxPixels: number;
+    /** Decoded bytes the scans being validated at once may hold together; the rest wait their turn. */
+    validationMemoryBytes: number;
+  };
   /** Frames the inversion queue works on at once. */
   jobConcurrency: number;
   /** True when the mail catcher and the payment fake run inside this server instead of the hosted services. */
@@ -195,6 +203,7 @@ export function loadConfig(env: Record<string, string | undefined>): Config {
       maxFileBytes: e.UPLOAD_MAX_FILE_BYTES,
       maxFiles: e.UPLOAD_MAX_FILES,
       maxPixels: e.UPLOAD_MAX_PIXELS,
+      validationMemoryBytes: e.UPLOAD_VALIDATION_MEMORY_MB * 1024 ** 2,
     },
     jobConcurrency: e.JOB_CONCURRENCY ?? availableParallelism(),
     localFakes,

@@ -8,9 +8,14 @@ const dir = mkdtempSync(join(tmpdir(), 'clearbase-config-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe('upload limits and queue concurrency', () => {
-  it('default to 1 GiB and 100 files per upload, 120 MP per scan and one frame per core', () => {
+  it('default to 1 GiB and 100 files per upload, 120 MP per scan, 1 GiB validated at once and one frame per core', () => {
     const config = loadConfig({ DATA_DIR: dir });
-    expect(config.uploads).toEqual({ maxFileBytes: 1024 ** 3, maxFiles: 100, maxPixels: 120_000_000 });
+    expect(config.uploads).toEqual({
+      maxFileBytes: 1024 ** 3,
+      maxFiles: 100,
+      maxPixels: 120_000_000,
+      validationMemoryBytes: 1024 ** 3,
+    });
     expect(config.jobConcurrency).toBe(availableParallelism());
   });
 
@@ -20,15 +25,24 @@ describe('upload limits and queue concurrency', () => {
       UPLOAD_MAX_FILE_BYTES: '2048',
       UPLOAD_MAX_FILES: '3',
       UPLOAD_MAX_PIXELS: '5000',
+      UPLOAD_VALIDATION_MEMORY_MB: '256',
       JOB_CONCURRENCY: '1',
     });
-    expect(config.uploads).toEqual({ maxFileBytes: 2048, maxFiles: 3, maxPixels: 5000 });
+    expect(config.uploads).toEqual({
+      maxFileBytes: 2048,
+      maxFiles: 3,
+      maxPixels: 5000,
+      validationMemoryBytes: 256 * 1024 ** 2,
+    });
     expect(config.jobConcurrency).toBe(1);
   });
 
   it('name the variable with a bad value', () => {
     expect(() => loadConfig({ DATA_DIR: dir, JOB_CONCURRENCY: '0' })).toThrow(ConfigError);
     expect(() => loadConfig({ DATA_DIR: dir, UPLOAD_MAX_FILES: 'many' })).toThrow(/UPLOAD_MAX_FILES/);
+    expect(() => loadConfig({ DATA_DIR: dir, UPLOAD_VALIDATION_MEMORY_MB: '32' })).toThrow(
+      /UPLOAD_VALIDATION_MEMORY_MB/,
+    );
   });
 });
 
