@@ -16,6 +16,7 @@ import { outboxAdminRoutes } from './outbox-admin/outbox-admin-routes';
 import { pricesRoutes } from './prices/prices-routes';
 import { profilesRoutes } from './profiles/profiles-routes';
 import { referenceFrameRoutes } from './profiles/reference-frame-routes';
+import { reviewRoutes } from './review/review-routes';
 import { adjustmentsRoutes } from './rolls/adjustments-routes';
 import { rollsRoutes } from './rolls/rolls-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
@@ -52,6 +53,7 @@ export const apiRouteModules: readonly RouteModule[] = [
   adjustmentsRoutes,
   calibrationsRoutes,
   tuningRoutes,
+  reviewRoutes,
   downloadsRoutes,
   markReadyRoutes,
   galleryRoutes,

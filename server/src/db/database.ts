@@ -5,8 +5,8 @@ import type { DownloadTokensTable } from '../downloads/download-tokens-table';
 import type { OrderTables } from '../orders/order-tables';
 import type { OutboxTable } from '../mail/outbox-table';
 import type { PaymentEventsTable, PaymentRefundsTable, PaymentsTable } from '../payments/payment-tables';
+import type { FrameReviewsTable } from '../review/frame-reviews-table';
 import type { PasswordTokensTable, PendingSignupsTable } from '../signup/signup-tables';
-import type { FrameReviewsTable } from '../tuning/frame-reviews-table';
 
 /** Times are ISO-8601 UTC text; booleans are 0/1 integers (SQLite has no boolean type). */
 export interface UsersTable {

@@ -1,80 +1,33 @@
 import {
-  frameReviewRequestSchema,
   idParamsSchema,
   staffRoles,
   workingNegativeHeaders,
   workingNegativeLongEdge,
-  type FrameReview,
   type MeasuredBase,
   type PixelRegion,
   type ProfileDocument,
-  type TuningFrame,
 } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
-import { recordAudit, type AuditAction } from '../audit/audit-log';
 import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
 import { frameSourceFile } from '../frames/frame-negative';
-import { findFrameById, listFramesOfRoll, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
+import { listFramesOfRoll } from '../frames/frame-repository';
 import { loadFrameFor } from '../frames/frames-routes';
 import type { RouteModule } from '../http/route-module';
 import { sendRawPixels } from '../http/send-raw-pixels';
 import { readNegative } from '../imaging/index';
 import { chooseBase } from '../jobs/job-runner';
-import { findOrderById, setOrderStatus } from '../orders/order-repository';
 import type { FrameRow } from '../orders/order-tables';
+import { framesWithReviews } from '../review/frames-with-reviews';
+import { isRollApproved } from '../review/roll-approval';
 import { medianBaseOf } from '../rolls/median-base';
 import { loadRollFor, scannerProfileOf } from '../rolls/roll-access';
-import { findRollById, listRollsOfOrder, toRoll, type RollListRow } from '../rolls/roll-repository';
-import type { FrameReviewRow } from './frame-reviews-table';
+import { findRollById, toRoll, type RollListRow } from '../rolls/roll-repository';
 import { workingNegativeCacheOf } from './working-negative-cache';
 import { measureBaseOffThread, measureLevelsOffThread } from './working-negative-worker';
 
 const parse = <T>(text: string | null): T | null => (text === null ? null : (JSON.parse(text) as T));
-
-/** Reviews of these frames with the reviewer's name, by frame id. */
-async function reviewsOf(db: Kysely<Database>, frameIds: number[]): Promise<Map<number, FrameReview>> {
-  if (frameIds.length === 0) return new Map();
-  const rows = await db
-    .selectFrom('frame_reviews')
-    .innerJoin('users', 'users.id', 'frame_reviews.reviewed_by')
-    .select([
-      'frame_reviews.frame_id',
-      'frame_reviews.decision',
-      'frame_reviews.note',
-      'frame_reviews.reviewed_at',
-      'users.name as reviewer',
-    ])
-    .where('frame_reviews.frame_id', 'in', frameIds)
-    .execute();
-  return new Map(
-    rows.map((r) => [
-      r.frame_id,
-      { decision: r.decision, note: r.note, reviewedBy: r.reviewer, reviewedAt: r.reviewed_at },
-    ]),
-  );
-}
-
-async function tuningFrames(db: Kysely<Database>, rows: FrameRow[]): Promise<TuningFrame[]> {
-  const ids = rows.map((f) => f.id);
-  const [outputs, reviews] = await Promise.all([outputFormatsOfFrames(db, ids), reviewsOf(db, ids)]);
-  return rows.map((f) => ({ ...toFrame(f, outputs.get(f.id)), review: reviews.get(f.id) ?? null }));
-}
-
-/** A roll is approved when it has frames and every one is approved or excluded. */
-async function rollApproved(db: Kysely<Database>, rollId: number): Promise<boolean> {
-  const frames = await listFramesOfRoll(db, rollId);
-  if (frames.length === 0) return false;
-  const reviews = await reviewsOf(
-    db,
-    frames.map((f) => f.id),
-  );
-  return frames.every((f) => {
-    const d = reviews.get(f.id)?.decision;
-    return d === 'approved' || d === 'excluded';
-  });
-}
 
 /** The roll base a frame falls back on: drawn on the roll, else the median of its frames' own bases. */
 function rollBaseOf(roll: RollListRow, frames: FrameRow[]): MeasuredBase | null {
@@ -92,11 +45,9 @@ async function profileOf(db: Kysely<Database>, roll: RollListRow): Promise<Profi
 
 /**
  * The tuning screen's server side: a roll's tuning sheet, each frame's working negative for the live preview (made
- * once per scan and kept in the file store; no pixel loop runs on the event loop), and
- * frame reviews, which approve the roll when every frame is approved or excluded (the order becomes ready when all
- * its rolls are, and goes back to tuning when one is not).
+ * once per scan and kept in the file store; no pixel loop runs on the event loop). Frame reviews are in `review/`.
  */
-export const tuningRoutes: RouteModule = (api, { db, config, clock }) => {
+export const tuningRoutes: RouteModule = (api, { db, config }) => {
   const store = createFileStore(config.dataDir);
   const workingNegatives = workingNegativeCacheOf(store);
 
@@ -111,15 +62,13 @@ export const tuningRoutes: RouteModule = (api, { db, config, clock }) => {
     async (_req, res, { params, user }) => {
       const roll = await loadRollFor(db, params.id, user!);
       const frames = await listFramesOfRoll(db, roll.id);
-      const list = await tuningFrames(db, frames);
+      const list = await framesWithReviews(db, frames);
       res.json({
         roll: toRoll(roll),
         profile: await profileOf(db, roll),
         scanner: await scannerProfileOf(db, roll.scanner_id),
         frames: list,
-        approved:
-          list.length > 0 &&
-          list.every((f) => f.review?.decision === 'approved' || f.review?.decision === 'excluded'),
+        approved: isRollApproved(list.map((f) => f.review?.decision ?? null)),
       });
     },
   );
@@ -178,83 +127,6 @@ export const tuningRoutes: RouteModule = (api, { db, config, clock }) => {
           [workingNegativeHeaders.levels]: JSON.stringify(levels),
         },
       });
-    },
-  );
-
-  api.define(
-    {
-      method: 'post',
-      path: '/api/frames/:id/qc',
-      roles: staffRoles,
-      params: idParamsSchema,
-      body: frameReviewRequestSchema,
-      summary: 'Approve, reject (with a note) or exclude a frame',
-    },
-    async (_req, res, { params, body, user }) => {
-      const frame = await loadFrameFor(db, params.id, user!);
-      if (body.decision === 'approved' && frame.status !== 'done') {
-        throw new AppError(
-          'frame-not-rendered',
-          409,
-          `Frame ${frame.id} is ${frame.status}; approve it once it is rendered.`,
-        );
-      }
-      const roll = (await findRollById(db, frame.roll_id))!;
-      const approved = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        const before = await trx
-          .selectFrom('frame_reviews')
-          .selectAll()
-          .where('frame_id', '=', frame.id)
-          .executeTakeFirst();
-        const row: FrameReviewRow = {
-          frame_id: frame.id,
-          decision: body.decision,
-          note: body.note,
-          reviewed_by: user!.id,
-          reviewed_at: at.toISOString(),
-        };
-        await trx
-          .insertInto('frame_reviews')
-          .values(row)
-          .onConflict((oc) => oc.column('frame_id').doUpdateSet({ ...row }))
-          .execute();
-        await recordAudit(trx, {
-          at,
-          actor: { id: user!.id, email: user!.email },
-          action: 'frame-reviewed' as string as AuditAction,
-          target: `frame:${frame.id}`,
-          details: {
-            before: before ? { decision: before.decision, note: before.note } : null,
-            after: { decision: body.decision, note: body.note },
-          },
-        });
-        const rollDone = await rollApproved(trx, roll.id);
-        const order = (await findOrderById(trx, roll.order_id))!;
-        const rolls = await listRollsOfOrder(trx, order.id);
-        let allDone = rollDone;
-        for (const r of rolls) if (allDone && r.id !== roll.id) allDone = await rollApproved(trx, r.id);
-        const next = allDone
-          ? order.status === 'scanning' || order.status === 'tuning' || order.status === 'developing'
-            ? 'ready'
-            : null
-          : order.status === 'ready'
-            ? 'tuning'
-            : null;
-        if (next) {
-          await setOrderStatus(trx, order.id, next, at);
-          await recordAudit(trx, {
-            at,
-            actor: { id: user!.id, email: user!.email },
-            action: 'order-status-changed' as string as AuditAction,
-            target: `order:${order.id}`,
-            details: { before: order.status, after: next, because: `frame:${frame.id} reviewed` },
-          });
-        }
-        return rollDone;
-      });
-      const [reviewed] = await tuningFrames(db, [(await findFrameById(db, frame.id))!]);
-      res.json({ frame: reviewed, rollApproved: approved });
     },
   );
 };
