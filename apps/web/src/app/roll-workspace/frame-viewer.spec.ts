@@ -32,6 +32,17 @@ describe('FrameViewer', { timeout: 20_000 }, () => {
     expect(t.host.querySelector('.split-handle')).not.toBeNull();
   });
 
+  it('counts the renderings drawn on each canvas', async () => {
+    await render(frame(1));
+    const after = t.q('after-canvas') as HTMLCanvasElement;
+    const drawn = Number(after.dataset['renderCount']);
+    expect(drawn).toBeGreaterThan(0);
+    expect(t.host.querySelector<HTMLCanvasElement>('canvas.before')?.dataset['renderCount']).toBe('1');
+    t.session.changeCast('cyanRed', 2);
+    await t.settle();
+    expect(Number(after.dataset['renderCount'])).toBe(drawn + 1);
+  });
+
   it('shows before or after alone in the toggle view, and both in the split view', async () => {
     await render(frame(1));
     const before = t.host.querySelector('canvas.before') as HTMLCanvasElement;

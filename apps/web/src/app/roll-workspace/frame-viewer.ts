@@ -252,5 +252,7 @@ export class FrameViewer {
         0,
         0,
       );
+    // renderings drawn so far: the next one is a change of this count, even when it took the same milliseconds
+    canvas.dataset['renderCount'] = String(Number(canvas.dataset['renderCount'] ?? 0) + 1);
   }
 }
