@@ -12,7 +12,7 @@ import type { InversionPool } from '../inversion-pool/inversion-pool';
 import { measureLevels } from '../inversion-pool/invert-negative-file';
 import { measureWhileReading } from '../inversion-pool/measure-while-reading';
 import type { FrameOutputKind } from '../orders/order-tables';
-import { frameQcFlags } from './frame-qc';
+import { frameQcFlags } from './frame-qc-flags';
 
 /** Long edge of the preview JPEG, pixels (the same as the negative preview). */
 export const positivePreviewLongEdge = 2048;

@@ -2,7 +2,7 @@ import { qcThresholds } from '@clearbase/contracts';
 import { LINEAR_SCANNER, POLYCLEAR_200 } from '@clearbase/inversion';
 import { describe, expect, it } from 'vitest';
 import { demoNegative } from '../cli/synth-command';
-import { frameQcFlags } from './frame-qc';
+import { frameQcFlags } from './frame-qc-flags';
 
 const negativeAt = (exposureStops: number) =>
   demoNegative({ width: 120, height: 80, stock: POLYCLEAR_200, exposureStops, seed: 3 });
