@@ -38,6 +38,20 @@ export default tseslint.config(
         'error',
         { type: 'attribute', prefix: 'cb', style: 'camelCase' },
       ],
+      // the schemas' entry brings zod into the browser: the web app takes types from it, values from /values
+      '@typescript-eslint/no-restricted-imports': [
+        'error',
+        {
+          paths: [
+            {
+              name: '@clearbase/contracts',
+              allowTypeImports: true,
+              message:
+                'Import plain values (roles, limits, header names, enums) from @clearbase/contracts/values.',
+            },
+          ],
+        },
+      ],
     },
   },
   {

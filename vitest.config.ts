@@ -7,6 +7,8 @@ export default defineConfig({
   resolve: {
     alias: {
       '@clearbase/inversion': here('./libs/inversion/src/index.ts'),
+      // the longer name first: an alias also matches names that start with it
+      '@clearbase/contracts/values': here('./libs/contracts/src/values/index.ts'),
       '@clearbase/contracts': here('./libs/contracts/src/index.ts'),
     },
   },

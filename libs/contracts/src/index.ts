@@ -1,3 +1,4 @@
+export * from './values/index';
 export * from './auth/role';
 export * from './auth/user';
 export * from './auth/audit-entry';

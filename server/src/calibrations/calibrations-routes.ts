@@ -1,5 +1,6 @@
 import {
   calibrationFrameParamsSchema,
+  calibrationPreviewHeaders,
   calibrationListQuerySchema,
   createCalibrationRequestSchema,
   idParamsSchema,
@@ -106,9 +107,9 @@ async function sendPreview(res: Response, path: string, maxPixels: number): Prom
     .toColourspace('srgb')
     .jpeg({ quality: previewQuality })
     .toBuffer();
-  res.set('X-Frame-Width', String(negative.width));
-  res.set('X-Frame-Height', String(negative.height));
-  res.set('Access-Control-Expose-Headers', 'X-Frame-Width, X-Frame-Height');
+  res.set(calibrationPreviewHeaders.width, String(negative.width));
+  res.set(calibrationPreviewHeaders.height, String(negative.height));
+  res.set('Access-Control-Expose-Headers', Object.values(calibrationPreviewHeaders).join(', '));
   res.type('image/jpeg').send(bytes);
 }
 

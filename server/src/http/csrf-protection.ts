@@ -1,10 +1,10 @@
+import { xsrfCookieName, xsrfHeaderName } from '@clearbase/contracts';
 import type { RequestHandler } from 'express';
 import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
 import { AppError } from '../errors/app-error';
 
-/** Angular's HttpClient reads this cookie and echoes it in the header below (Angular's XSRF convention). */
-export const csrfCookieName = 'XSRF-TOKEN';
-export const csrfHeaderName = 'x-xsrf-token';
+export const csrfCookieName = xsrfCookieName;
+export const csrfHeaderName = xsrfHeaderName;
 
 // RFC 9110 §9.2.1: only these methods are safe; every other one changes state and must carry the token
 const safeMethods = new Set(['GET', 'HEAD', 'OPTIONS']);

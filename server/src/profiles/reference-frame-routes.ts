@@ -1,4 +1,4 @@
-import { staffRoles } from '@clearbase/contracts';
+import { referenceNegativeHeaders, staffRoles } from '@clearbase/contracts';
 import { z } from 'zod';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
@@ -9,16 +9,6 @@ import { generateReferenceNegative } from './generate-reference-negative';
 import { findProfileById, findVersionById } from './profile-repository';
 
 const idParams = z.object({ id: z.coerce.number().int().positive('Expected a positive version id') });
-
-/** Header names of the reference negative's description; the body is the pixels alone. */
-export const referenceNegativeHeaders = {
-  width: 'X-Negative-Width',
-  height: 'X-Negative-Height',
-  /** Film base as linear light 0..1, three comma-separated numbers, red green blue. */
-  base: 'X-Film-Base',
-  /** The scanner encoding of the counts (always linear: black level 0, gains 1). */
-  encoding: 'X-Scanner-Encoding',
-} as const;
 
 /**
  * The reference negative a profile version previews on: raw little-endian 16-bit RGB, interleaved, row by row, with

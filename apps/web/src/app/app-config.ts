@@ -11,6 +11,7 @@ import { firstValueFrom } from 'rxjs';
 import { appRoutes } from './app-routes';
 import { apiInterceptor } from './auth/api-interceptor';
 import { Session } from './auth/session';
+import { xsrfCookieName, xsrfHeaderName } from '@clearbase/contracts/values';
 
 export const appConfig: ApplicationConfig = {
   providers: [
@@ -19,7 +20,7 @@ export const appConfig: ApplicationConfig = {
     provideRouter(appRoutes, withComponentInputBinding()),
     provideHttpClient(
       // The server's cookie and header names; these are also Angular's defaults.
-      withXsrfConfiguration({ cookieName: 'XSRF-TOKEN', headerName: 'X-XSRF-TOKEN' }),
+      withXsrfConfiguration({ cookieName: xsrfCookieName, headerName: xsrfHeaderName }),
       withInterceptors([apiInterceptor]),
     ),
     // Ask who is signed in before the first route: it also makes the server set the XSRF cookie.

@@ -3,6 +3,7 @@ import { authGuard } from './auth/auth-guard';
 import { roleGuard } from './auth/role-guard';
 import { signedOutGuard } from './auth/signed-out-guard';
 import { unsavedChangesGuard } from './forms/unsaved-changes-guard';
+import { staffRoles } from '@clearbase/contracts/values';
 
 export const appRoutes: Routes = [
   {
@@ -64,7 +65,7 @@ export const appRoutes: Routes = [
       {
         path: 'catalogue/versions/:versionId',
         canActivateChild: [roleGuard],
-        data: { roles: ['operator', 'manager', 'admin'] },
+        data: { roles: staffRoles },
         loadChildren: () =>
           import('./profile-editor/profile-editor-routes').then((m) => m.profileEditorRoutes),
       },
@@ -85,34 +86,34 @@ export const appRoutes: Routes = [
         path: 'rolls/:id/tune',
         title: 'Tuning · Clearbase',
         canActivate: [roleGuard],
-        data: { roles: ['operator', 'manager', 'admin'] },
+        data: { roles: staffRoles },
         canDeactivate: [unsavedChangesGuard],
         loadComponent: () => import('./roll-workspace/roll-workspace-page').then((m) => m.RollWorkspacePage),
       },
       {
         path: 'rolls',
         canActivateChild: [roleGuard],
-        data: { roles: ['operator', 'manager', 'admin'] },
+        data: { roles: staffRoles },
         loadChildren: () => import('./rolls/rolls-routes').then((m) => m.rollsRoutes),
       },
       {
         path: 'calibration',
         canActivateChild: [roleGuard],
-        data: { roles: ['operator', 'manager', 'admin'] },
+        data: { roles: staffRoles },
         loadChildren: () => import('./calibration/calibration-routes').then((m) => m.calibrationRoutes),
       },
       {
         path: 'customers',
         title: 'Customers · Clearbase',
         canActivate: [roleGuard],
-        data: { roles: ['operator', 'manager', 'admin'] },
+        data: { roles: staffRoles },
         loadComponent: () => import('./admin/customers-page').then((m) => m.CustomersPage),
       },
       {
         path: 'scanners',
         title: 'Scanners · Clearbase',
         canActivate: [roleGuard],
-        data: { roles: ['operator', 'manager', 'admin'] },
+        data: { roles: staffRoles },
         loadComponent: () => import('./scanners/scanners-page').then((m) => m.ScannersPage),
       },
       {

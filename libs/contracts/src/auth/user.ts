@@ -1,11 +1,12 @@
 import { z } from 'zod';
+import { emailMaxLength, passwordLength } from '../values/text-limits';
 import { roleSchema } from './role';
 
-const email = z.string().trim().toLowerCase().email('Enter a valid e-mail address').max(254);
+const email = z.string().trim().toLowerCase().email('Enter a valid e-mail address').max(emailMaxLength);
 const password = z
   .string()
-  .min(10, 'Use at least 10 characters for the password')
-  .max(200, 'Use at most 200 characters for the password');
+  .min(passwordLength.min, `Use at least ${passwordLength.min} characters for the password`)
+  .max(passwordLength.max, `Use at most ${passwordLength.max} characters for the password`);
 
 /** A signed-in user as the API returns it. */
 export const userSchema = z.object({
@@ -26,7 +27,7 @@ export type UserRecord = z.infer<typeof userRecordSchema>;
 
 export const loginRequestSchema = z.object({
   email,
-  password: z.string().min(1, 'Enter your password').max(200),
+  password: z.string().min(1, 'Enter your password').max(passwordLength.max),
 });
 export type LoginRequest = z.infer<typeof loginRequestSchema>;
 
@@ -34,7 +35,7 @@ export const loginResponseSchema = z.object({ user: userSchema });
 export type LoginResponse = z.infer<typeof loginResponseSchema>;
 
 export const changePasswordRequestSchema = z.object({
-  currentPassword: z.string().min(1, 'Enter your current password').max(200),
+  currentPassword: z.string().min(1, 'Enter your current password').max(passwordLength.max),
   newPassword: password,
 });
 export type ChangePasswordRequest = z.infer<typeof changePasswordRequestSchema>;

@@ -1,32 +1,15 @@
 import { z } from 'zod';
+import { orderStatuses, outputFormats, scanSizes, type ScanSize } from '../values/order-enums';
+import { notesMaxLength } from '../values/text-limits';
 import { createRollRequestSchema } from './roll';
 
 const positiveId = z.int('Expected a whole id').positive('Expected a positive id');
 /** Ids in paths and query strings arrive as text. */
 export const idText = (what: string) => z.coerce.number().int().positive(`Expected a positive ${what} id`);
 
-/** Where an order stands, in the order it moves; cancelled can end it from any open status. */
-export const orderStatuses = [
-  'received',
-  'developing',
-  'scanning',
-  'tuning',
-  'ready',
-  'delivered',
-  'cancelled',
-] as const;
 export const orderStatusSchema = z.enum(orderStatuses);
-export type OrderStatus = z.infer<typeof orderStatusSchema>;
-
-/** Finished file formats a customer can ask for: 8-bit JPEG, 16-bit TIFF, 16-bit PNG. */
-export const outputFormats = ['jpeg', 'tiff16', 'png16'] as const;
 export const outputFormatSchema = z.enum(outputFormats);
-export type OutputFormat = z.infer<typeof outputFormatSchema>;
-
-/** Scan sizes on offer, by the long edge of the delivered file. */
-export const scanSizes = ['standard', 'large', 'full'] as const;
 export const scanSizeSchema = z.enum(scanSizes);
-export type ScanSize = z.infer<typeof scanSizeSchema>;
 
 /**
  * Long edge in pixels of each scan size; `full` keeps the scan as made.
@@ -85,7 +68,7 @@ export type Order = z.infer<typeof orderSchema>;
  */
 export const createOrderRequestSchema = z.strictObject({
   customerId: positiveId.optional(),
-  notes: z.string().trim().max(4000).default(''),
+  notes: z.string().trim().max(notesMaxLength).default(''),
   outputFormats: z
     .array(outputFormatSchema)
     .min(1, 'Choose at least one file format')

@@ -1,4 +1,7 @@
 import { z } from 'zod';
+import { eiRange, pushPullStops } from '../values/film-speed';
+import { rollStatuses } from '../values/order-enums';
+import { frameFormatMaxLength } from '../values/text-limits';
 
 const positiveId = z.int('Expected a whole id').positive('Expected a positive id');
 
@@ -80,15 +83,7 @@ export function readStoredAdjustments(json: string): Adjustments {
 }
 
 /** Where a roll stands on the way from scans to finished positives. */
-export const rollStatuses = [
-  'awaiting-scans',
-  'scanned',
-  'inverting',
-  'inverted',
-  'needs-attention',
-] as const;
 export const rollStatusSchema = z.enum(rollStatuses);
-export type RollStatus = z.infer<typeof rollStatusSchema>;
 
 /** A measured film base: linear light per channel (0..1 of full scale), the region it came from and how sure. */
 export const measuredBaseSchema = z.object({
@@ -131,16 +126,14 @@ export type Roll = z.infer<typeof rollSchema>;
 /** Adds a roll to an order; the stock's current published profile version is pinned. */
 export const createRollRequestSchema = z.strictObject({
   stockId: positiveId,
-  // EI 3 to 25600: any speed a colour negative is rated at, common practice of the trade, from memory
-  ei: z.int('Expected a whole EI').min(3).max(25600),
-  // −3 to +3 stops in half stops: the range labs develop C-41 push and pull, common practice, from memory
+  ei: z.int('Expected a whole EI').min(eiRange.min).max(eiRange.max),
   pushPull: z
     .number()
-    .min(-3)
-    .max(3)
-    .refine((v) => Number.isInteger(v * 2), 'Expected push or pull in half stops')
+    .min(pushPullStops.min)
+    .max(pushPullStops.max)
+    .refine((v) => Number.isInteger(v / pushPullStops.step), 'Expected push or pull in half stops')
     .default(0),
-  format: z.string().trim().min(1, 'Name the frame format, e.g. 135-36').max(40),
+  format: z.string().trim().min(1, 'Name the frame format, e.g. 135-36').max(frameFormatMaxLength),
   scannerId: positiveId.nullable().default(null),
 });
 export type CreateRollRequest = z.infer<typeof createRollRequestSchema>;

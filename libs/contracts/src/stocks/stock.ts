@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isoRange } from '../values/film-speed';
 import { scannerProfileSchema } from '../profile/profile-document';
 
 /** Development processes a stock can be made for. */
@@ -32,12 +33,11 @@ export const stockSchema = z.object({
 });
 export type Stock = z.infer<typeof stockSchema>;
 
-// ISO 6 to 25600 spans the speeds film is sold and rated at: common practice of the trade, from memory
 const filmSpeed = (what: string) =>
   z
     .int(`Expected a whole ${what}`)
-    .min(6, `Expected ${what} 6 or more`)
-    .max(25600, `Expected ${what} at most 25600`);
+    .min(isoRange.min, `Expected ${what} ${isoRange.min} or more`)
+    .max(isoRange.max, `Expected ${what} at most ${isoRange.max}`);
 // 10 stops either way is beyond any negative film's latitude: common practice of the trade, from memory
 const latitudeStops = z
   .number('Expected a number of stops')

@@ -55,19 +55,5 @@ export const frameReviewResultSchema = z.object({
 });
 export type FrameReviewResult = z.infer<typeof frameReviewResultSchema>;
 
-/** Header names of a working negative's description; the body is raw little-endian 16-bit RGB. */
-export const workingNegativeHeaders = {
-  width: 'X-Negative-Width',
-  height: 'X-Negative-Height',
-  /** Film base the frame renders against, linear light 0..1, red,green,blue. */
-  base: 'X-Film-Base',
-  /** Where that base came from: frame, region or roll. */
-  baseSource: 'X-Film-Base-Source',
-  /** Full size of the scan, width×height, to map picked rectangles back. */
-  scanSize: 'X-Scan-Size',
-  /** The frame's levels measured on the full scan against that base, JSON: what the server's render uses. */
-  levels: 'X-Frame-Levels',
-} as const;
-
 /** Long edge of a working negative, pixels: about 1.5 megapixels at 3:2, light to send and render live (our choice). */
 export const workingNegativeLongEdge = 1500;

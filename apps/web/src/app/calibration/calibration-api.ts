@@ -8,6 +8,7 @@ import type {
   Stock,
 } from '@clearbase/contracts';
 import { map, type Observable } from 'rxjs';
+import { calibrationPreviewHeaders } from '@clearbase/contracts/values';
 
 /** A scan's preview before submitting: an object URL of the JPEG and the scan's full size in pixels. */
 export interface FramePreview {
@@ -103,8 +104,8 @@ export class CalibrationApi {
       .pipe(
         map((res) => ({
           url: URL.createObjectURL(res.body!),
-          width: Number(res.headers.get('X-Frame-Width')),
-          height: Number(res.headers.get('X-Frame-Height')),
+          width: Number(res.headers.get(calibrationPreviewHeaders.width)),
+          height: Number(res.headers.get(calibrationPreviewHeaders.height)),
         })),
       );
   }

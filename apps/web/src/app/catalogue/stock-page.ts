@@ -26,14 +26,13 @@ import { StockSheet } from './stock-sheet';
 import { StockSheetDialog } from './stock-sheet-dialog';
 import { VersionCompare } from './version-compare';
 import { VersionTimeline, type ProfileWithVersions } from './version-timeline';
+import { staffRoles } from '@clearbase/contracts/values';
 
 interface StockView {
   loading: boolean;
   detail: StockDetail | null;
   problem: string | null;
 }
-
-const staffRoles = ['operator', 'manager', 'admin'];
 
 /**
  * A stock: its sheet for everyone; for lab staff also its profiles, each with its versions as a timeline, a
@@ -67,7 +66,7 @@ export class StockPage {
   readonly id = input.required<string>();
 
   protected readonly role = this.session.role;
-  protected readonly isStaff = computed(() => staffRoles.includes(this.role() ?? ''));
+  protected readonly isStaff = computed(() => (staffRoles as readonly string[]).includes(this.role() ?? ''));
   protected readonly isManager = computed(() => this.role() === 'manager' || this.role() === 'admin');
   protected readonly pending = signal<ReadonlySet<number>>(new Set());
   protected readonly exportUrl = (versionId: number) => this.api.exportUrl(versionId);

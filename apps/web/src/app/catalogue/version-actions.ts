@@ -1,4 +1,5 @@
 import type { ProfileVersionSummary, Role } from '@clearbase/contracts';
+import { managerRoles, staffRoles } from '@clearbase/contracts/values';
 
 /** What a role may do with one version on the stock page; the server checks the same roles on every call. */
 export interface VersionActions {
@@ -12,8 +13,8 @@ export interface VersionActions {
   retire: boolean;
 }
 
-const staff: readonly Role[] = ['operator', 'manager', 'admin'];
-const managers: readonly Role[] = ['manager', 'admin'];
+const staff: readonly Role[] = staffRoles;
+const managers: readonly Role[] = managerRoles;
 
 /**
  * The actions a role has on a version.

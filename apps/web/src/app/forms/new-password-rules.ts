@@ -1,8 +1,9 @@
 import type { AbstractControl, ValidationErrors } from '@angular/forms';
+import { passwordLength } from '@clearbase/contracts/values';
 
-// The server's password rule (libs/contracts auth/user.ts): 10 to 200 characters.
-export const minPasswordLength = 10;
-export const maxPasswordLength = 200;
+// the server's password rule, from the contracts
+export const minPasswordLength = passwordLength.min;
+export const maxPasswordLength = passwordLength.max;
 
 /** A repeat field's check: the same text as its form's `newPassword`. */
 export function sameAsNew(control: AbstractControl): ValidationErrors | null {

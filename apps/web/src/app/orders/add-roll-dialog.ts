@@ -22,10 +22,7 @@ import { FormSubmission } from '../forms/form-submission';
 import { pushPullLabel } from '../rolls/roll-labels';
 import { ScannersApi } from '../scanners/scanners-api';
 import { OrdersApi } from './orders-api';
-
-// The server's bounds (createRollRequestSchema): EI 3 to 25600, push/pull −3 to +3 stops in half stops.
-const eiRange = { min: 3, max: 25600 } as const;
-const pushPullChoices = [-3, -2.5, -2, -1.5, -1, -0.5, 0, 0.5, 1, 1.5, 2, 2.5, 3] as const;
+import { eiRange, pushPullChoices } from '@clearbase/contracts/values';
 
 /** What the dialog needs: the order the roll goes on. */
 export interface AddRollData {

@@ -67,15 +67,16 @@ import {
 } from './order-labels';
 import { OrdersApi } from './orders-api';
 import { StockSheetViewDialog } from './stock-sheet-view-dialog';
+import {
+  eiRange,
+  pushPullChoices,
+  notesMaxLength,
+  outputFormats,
+  scanSizes,
+} from '@clearbase/contracts/values';
 
-// The server's bounds (createRollRequestSchema): EI 3 to 25600, push/pull −3 to +3 stops in half stops.
-const eiRange = { min: 3, max: 25600 } as const;
-const pushPullChoices = [-3, -2.5, -2, -1.5, -1, -0.5, 0, 0.5, 1, 1.5, 2, 2.5, 3] as const;
-// Written out rather than read from the contracts' enums, to keep zod out of the browser bundle.
-const scanSizeChoices: readonly ScanSize[] = ['standard', 'large', 'full'];
-const outputFormatChoices: readonly OutputFormat[] = ['jpeg', 'tiff16', 'png16'];
-// The server's limits (createOrderRequestSchema, postalAddressSchema).
-const notesMaxLength = 4000;
+const scanSizeChoices: readonly ScanSize[] = scanSizes;
+const outputFormatChoices: readonly OutputFormat[] = outputFormats;
 
 /** Which step's form holds each top-level field of the request body, so a server complaint finds its control. */
 const stepOfField: Readonly<Record<string, string>> = {

@@ -4,6 +4,7 @@ import type { ProfileDiff, ProfileDocument, ProfileVersion, ScannerProfile } fro
 import type { Rgb } from '@clearbase/inversion';
 import { map, type Observable } from 'rxjs';
 import type { PreviewNegative } from '../preview/preview-messages';
+import { referenceNegativeHeaders } from '@clearbase/contracts/values';
 
 /** The reference negative a version previews on, as the server sends it. */
 export type ReferenceNegative = PreviewNegative;
@@ -62,9 +63,9 @@ export class ProfileVersionsApi {
       })
       .pipe(
         map((res) => {
-          const width = Number(res.headers.get('X-Negative-Width'));
-          const height = Number(res.headers.get('X-Negative-Height'));
-          const base = (res.headers.get('X-Film-Base') ?? '').split(',').map(Number);
+          const width = Number(res.headers.get(referenceNegativeHeaders.width));
+          const height = Number(res.headers.get(referenceNegativeHeaders.height));
+          const base = (res.headers.get(referenceNegativeHeaders.base) ?? '').split(',').map(Number);
           const body = res.body ?? new ArrayBuffer(0);
           if (
             !(width > 0 && height > 0) ||

@@ -14,6 +14,7 @@ import { MatInput } from '@angular/material/input';
 import type { ProfileVersion } from '@clearbase/contracts';
 import { readProblem } from '../problem/read-problem';
 import { ProfileVersionsApi } from './profile-versions-api';
+import { lineNoteMaxLength } from '@clearbase/contracts/values';
 
 /** What the publish dialog publishes. */
 export interface PublishDialogData {
@@ -22,8 +23,7 @@ export interface PublishDialogData {
   stockName: string;
 }
 
-// The server's limit on a changelog line (libs/contracts publishVersionRequestSchema).
-const changelogMax = 500;
+const changelogMax = lineNoteMaxLength;
 
 /** Publishes a draft after asking for one changelog line; closes with the published version. */
 @Component({

@@ -1,4 +1,5 @@
 import type { Role } from '@clearbase/contracts';
+import { roles, staffRoles } from '@clearbase/contracts/values';
 
 /** One line of the side navigation: shown only to the roles listed. */
 export interface NavEntry {
@@ -20,7 +21,7 @@ export interface NavConditions {
   localFakes: boolean;
 }
 
-const everyone: readonly Role[] = ['customer', 'operator', 'manager', 'admin'];
+const everyone: readonly Role[] = roles;
 
 /**
  * Every page of the app that exists, with who may use it. A feature adds its line here when its page lands;
@@ -34,7 +35,7 @@ export const navEntries: readonly NavEntry[] = [
     label: 'Customers',
     icon: 'contacts',
     path: '/customers',
-    roles: ['operator', 'manager', 'admin'],
+    roles: staffRoles,
     group: 'work',
   },
   {
@@ -50,7 +51,7 @@ export const navEntries: readonly NavEntry[] = [
     label: 'Scanners',
     icon: 'scanner',
     path: '/scanners',
-    roles: ['operator', 'manager', 'admin'],
+    roles: staffRoles,
     group: 'work',
   },
   {
@@ -58,7 +59,7 @@ export const navEntries: readonly NavEntry[] = [
     label: 'Calibration',
     icon: 'tune',
     path: '/calibration',
-    roles: ['operator', 'manager', 'admin'],
+    roles: staffRoles,
     group: 'work',
   },
   { name: 'prices', label: 'Prices', icon: 'sell', path: '/prices', roles: everyone, group: 'work' },

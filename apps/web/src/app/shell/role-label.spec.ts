@@ -1,4 +1,4 @@
-import { roles } from '@clearbase/contracts';
+import { roles } from '@clearbase/contracts/values';
 import { roleChoices, roleLabel } from './role-label';
 
 describe('roleChoices', () => {
