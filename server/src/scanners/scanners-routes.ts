@@ -1,9 +1,9 @@
 import { createScannerRequestSchema, staffRoles, updateScannerRequestSchema } from '@clearbase/contracts';
 import { z } from 'zod';
+import { isUniqueViolation } from '../db/unique-violation';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import { recordCatalogueAudit } from '../profiles/record-catalogue-audit';
-import { isUniqueViolation } from '../stocks/is-unique-violation';
 import { findScannerById, insertScanner, listScanners, toScanner, updateScanner } from './scanner-repository';
 
 const scannerIdParams = z.object({ id: z.coerce.number().int().positive('Expected a positive scanner id') });

@@ -15,6 +15,7 @@ import { dropUserSessions } from '../auth/kysely-session-store';
 import { generateTemporaryPassword, hashPassword } from '../auth/password-hash';
 import type { Config } from '../config/config';
 import type { Database } from '../db/database';
+import { isUniqueViolation } from '../db/unique-violation';
 import { AppError } from '../errors/app-error';
 import { sendProblem } from '../errors/send-problem';
 import { afterResponse } from '../http/after-response';
@@ -60,12 +61,6 @@ function openLink<T extends { expires_at: string }>(
   if (!row) throw new AppError('link-invalid', 400, words.invalid);
   if (row.expires_at <= now.toISOString()) throw new AppError('link-expired', 410, words.expired);
   return row;
-}
-
-function isUniqueViolation(err: unknown): boolean {
-  return (
-    typeof err === 'object' && err !== null && (err as { code?: string }).code === 'SQLITE_CONSTRAINT_UNIQUE'
-  );
 }
 
 function mailLimiter(config: Config, what: string): RequestHandler {

@@ -5,6 +5,7 @@ import {
   type StockDetail,
 } from '@clearbase/contracts';
 import { z } from 'zod';
+import { isUniqueViolation } from '../db/unique-violation';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import {
@@ -15,7 +16,6 @@ import {
   userNamesById,
 } from '../profiles/profile-repository';
 import { recordCatalogueAudit } from '../profiles/record-catalogue-audit';
-import { isUniqueViolation } from './is-unique-violation';
 import { findStockById, insertStock, listStocks, toStock, updateStockSheet } from './stock-repository';
 
 const stockIdParams = z.object({ id: z.coerce.number().int().positive('Expected a positive stock id') });

@@ -6,6 +6,7 @@ import { generateTemporaryPassword, hashPassword } from '../auth/password-hash';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import type { UserRowUpdate } from '../db/database';
+import { isUniqueViolation } from '../db/unique-violation';
 import {
   findUserByEmail,
   findUserById,
@@ -16,12 +17,6 @@ import {
 } from './user-repository';
 
 const userIdParams = z.object({ id: z.coerce.number().int().positive('Expected a positive user id') });
-
-function isUniqueViolation(err: unknown): boolean {
-  return (
-    typeof err === 'object' && err !== null && (err as { code?: string }).code === 'SQLITE_CONSTRAINT_UNIQUE'
-  );
-}
 
 export const usersRoutes: RouteModule = (api, { db, clock }) => {
   api.define(
