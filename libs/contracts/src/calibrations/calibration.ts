@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { pixelRegionSchema } from '../orders/roll';
-import { balanceSchema, curvePointSchema } from '../profile/profile-document';
+import { balanceSchema, curvePointSchema } from '../profiles/profile-document';
 
 const positiveId = z.int('Expected a whole id').positive('Expected a positive id');
 const pixel = z

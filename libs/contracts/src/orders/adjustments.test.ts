@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { balanceSchema } from '../profile/profile-document';
+import { balanceSchema } from '../profiles/profile-document';
 import { adjustmentsSchema, isSixthOfStop, readStoredAdjustments } from './roll';
 
 describe('adjustments of a roll or a frame', () => {

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { profileDocumentSchema } from '../profile/profile-document';
+import { profileDocumentSchema } from './profile-document';
 import { stockSchema } from '../stocks/stock';
 
 /** Where a version stands: drafts change, published versions are frozen, retired ones stay readable. */

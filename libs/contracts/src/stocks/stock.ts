@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { isoRange } from '../values/film-speed';
-import { scannerProfileSchema } from '../profile/profile-document';
+import { scannerProfileSchema } from '../profiles/profile-document';
 
 /** Development processes a stock can be made for. */
 export const filmProcesses = ['C-41', 'E-6', 'black-and-white'] as const;

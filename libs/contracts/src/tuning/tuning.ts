@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { frameSchema } from '../orders/frame';
 import { rollSchema } from '../orders/roll';
-import { profileDocumentSchema, scannerProfileSchema } from '../profile/profile-document';
+import { profileDocumentSchema, scannerProfileSchema } from '../profiles/profile-document';
 
 /** What an operator decided about a rendered frame. `excluded`: not delivered (blank, fogged leader, double). */
 export const reviewDecisions = ['approved', 'rejected', 'excluded'] as const;
