@@ -107,13 +107,13 @@ describe('a roll from order to positives', () => {
 
     const line = (name: string) => page.locator('li[data-testid^="upload-"]', { hasText: name });
     await expect.poll(() => line(good[1]!).getAttribute('data-state'), { timeout: 30_000 }).toBe('accepted');
-    expect(await line(good[0]!).getAttribute('data-state')).toBe('accepted');
-    expect(await line('contact-notes.tif').getAttribute('data-state')).toBe('rejected');
+    await expect.poll(() => line(good[0]!).getAttribute('data-state')).toBe('accepted');
+    await expect.poll(() => line('contact-notes.tif').getAttribute('data-state')).toBe('rejected');
     expect(await line('contact-notes.tif').getByTestId('upload-reason').innerText()).toBe(
       'The file is not an image: it does not start like a TIFF, PNG or JPEG file.',
     );
     expect(await line(good[0]!).getByTestId('upload-reason').count()).toBe(0);
-    expect(await page.getByTestId('upload-batch-counts').innerText()).toBe('2 kept · 1 refused');
+    await expect.poll(() => page.getByTestId('upload-batch-counts').innerText()).toBe('2 kept · 1 refused');
     await page.getByTestId('frame-2').waitFor();
     await browser.screenshot('roll-page-uploaded');
 
@@ -122,11 +122,11 @@ describe('a roll from order to positives', () => {
     await expect.poll(() => status(1).innerText(), { timeout: 60_000 }).toBe('Done');
     await expect.poll(() => status(2).innerText(), { timeout: 60_000 }).toBe('Done');
     await expect.poll(() => page.getByTestId('job-state').innerText(), { timeout: 20_000 }).toBe('Finished');
-    expect(await page.getByTestId('job-progress').innerText()).toContain('2 of 2 done');
+    await expect.poll(() => page.getByTestId('job-progress').innerText()).toContain('2 of 2 done');
     expect(await page.evaluate(() => (window as unknown as { stayed?: boolean }).stayed)).toBe(true);
     // the thumbnails are the positives now, and they load
     const thumb = page.getByTestId('frame-1').locator('img');
-    expect(await thumb.getAttribute('src')).toMatch(/\/preview\?/);
+    await expect.poll(() => thumb.getAttribute('src')).toMatch(/\/preview\?/);
     await expect
       .poll(() => thumb.evaluate((img) => (img as HTMLImageElement).naturalWidth), { timeout: 20_000 })
       .toBeGreaterThan(0);

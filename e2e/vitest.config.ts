@@ -9,5 +9,7 @@ export default defineConfig({
     hookTimeout: 120_000,
     fileParallelism: false,
     pool: 'forks',
+    // expect.poll waits for state; its default of 1 s is too short for a busy machine (a preview, a render job)
+    expect: { poll: { timeout: 20_000 } },
   },
 });
