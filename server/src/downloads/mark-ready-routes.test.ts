@@ -209,6 +209,36 @@ describe('marking an order ready', () => {
     await customer.post(`/api/orders/${order.body.id}/ready`).expect(403);
   });
 
+  it('waits for an unpaid order to be paid, unless the lab takes payment on collection', async () => {
+    const order = await customer.post('/api/orders', {}).expect(201);
+    const roll = await customer
+      .post(`/api/orders/${order.body.id}/rolls`, { stockId, ei: 200, format: '135-36' })
+      .expect(201);
+    await addFrame(roll.body.id as number, 1, 'approved');
+    const unpaid = await operator.post(`/api/orders/${order.body.id}/ready`).expect(409);
+    expect(unpaid.body).toMatchObject({
+      code: 'order-not-paid',
+      detail: `Order ${order.body.id} has €20.00 left to pay; it can be marked ready once that is paid.`,
+    });
+    const lab = { name: 'Heronsgate Film Lab', town: 'Marlow Fen', address: '9 Sluice Row, Marlow Fen' };
+    const setLab = (payOnCollection: boolean) =>
+      t.db
+        .updateTable('settings')
+        .set({ value: JSON.stringify({ ...lab, payOnCollection }) })
+        .where('key', '=', 'lab')
+        .execute();
+    await setLab(true);
+    try {
+      expect((await operator.get(`/api/orders/${order.body.id}/readiness`)).body.ready).toBe(true);
+      await operator.post(`/api/orders/${order.body.id}/ready`).expect(200);
+      const mail = await caughtWithSubject(`Your scans are ready: order ${order.body.id}`);
+      const link = /http:\/\/scans\.lab\.test(\/api\/downloads\/[\w-]+)/.exec(mail.text)?.[1];
+      expect((await customer.get(link!)).headers['content-type']).toBe('application/zip');
+    } finally {
+      await setLab(false);
+    }
+  });
+
   it('sets the order ready and mails the customer a working download link and the gallery', async () => {
     const order = await customer.post('/api/orders', {}).expect(201);
     const roll = await customer

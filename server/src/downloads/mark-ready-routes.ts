@@ -5,11 +5,13 @@ import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import { enqueueTemplatedMail } from '../mail/outbox-repository';
 import { loadOrderFor } from '../orders/order-access';
-import { findOrderById, setOrderStatus, toOrder } from '../orders/order-repository';
+import { findOrderById, setOrderStatus, toOrder, type OrderListRow } from '../orders/order-repository';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { whyRollNotApproved } from '../review/roll-approval';
 import { findUserById } from '../users/user-repository';
 import { downloadLinkValidMs, downloadUrl } from './download-link-validity';
+import { loadFileRelease } from './load-file-release';
+import { readyPaymentBlocker } from './ready-payment-blocker';
 import { insertDownloadToken } from './download-token-repository';
 
 /** Each roll of the order that is not yet approved, with the reason, in roll order. */
@@ -43,6 +45,11 @@ function orderBlocker(order: { id: number; status: string; roll_count: number })
   return null;
 }
 
+/** Why payment keeps the order from being marked ready, or null. */
+async function paymentBlocker(db: Kysely<Database>, order: OrderListRow): Promise<string | null> {
+  return readyPaymentBlocker((await loadFileRelease(db, order)).state);
+}
+
 /** Staff tell the customer an order is ready: status `ready` and the scans-ready mail with a download link. */
 export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
   api.define(
@@ -51,12 +58,14 @@ export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
       path: '/api/orders/:id/readiness',
       roles: staffRoles,
       params: idParamsSchema,
-      summary: 'Whether the order may be marked ready now, each roll still waiting with its reason',
+      summary:
+        'Whether the order may be marked ready now: what blocks it (closed, no rolls, unpaid), each roll still waiting',
     },
     async (_req, res, { params, user }) => {
       const order = await loadOrderFor(db, params.id, user!);
-      const blocker = orderBlocker(order);
+      let blocker = orderBlocker(order);
       const waiting = blocker ? [] : await rollsNotApproved(db, order.id);
+      if (!blocker && waiting.length === 0) blocker = await paymentBlocker(db, order);
       const readiness: OrderReadiness = {
         ready: blocker === null && waiting.length === 0,
         blocker,
@@ -73,7 +82,8 @@ export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
       path: '/api/orders/:id/ready',
       roles: staffRoles,
       params: idParamsSchema,
-      summary: 'Mark an order ready once every roll is approved; mails the customer a download link',
+      summary:
+        'Mark an order ready once every roll is approved and it is paid (or the lab takes payment on collection); mails the customer a download link',
     },
     async (_req, res, { params, user }) => {
       const order = await loadOrderFor(db, params.id, user!);
@@ -91,6 +101,8 @@ export const markReadyRoutes: RouteModule = (api, { db, config, clock }) => {
           waiting.map((w) => ({ path: `rolls.${w.rollId}`, message: `Roll ${w.rollNumber} ${w.reason}` })),
         );
       }
+      const unpaid = await paymentBlocker(db, order);
+      if (unpaid) throw new AppError('order-not-paid', 409, unpaid);
       const customer = (await findUserById(db, order.customer_id))!;
       const updated = await db.transaction().execute(async (trx) => {
         const at = clock.now();

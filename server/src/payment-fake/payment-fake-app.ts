@@ -73,8 +73,8 @@ function asList(value: unknown): unknown[] {
 }
 
 /**
- * A local stand-in for the payment provider's HTTP API: the part the official SDK uses here (create and retrieve
- * checkout sessions, refunds), a checkout page that approves or declines, and signed webhooks to the app. It keeps its
+ * A local stand-in for the payment provider's HTTP API: the part the official SDK uses here (create, retrieve and
+ * expire checkout sessions; refunds, replayed by Idempotency-Key), a checkout page that approves or declines, and signed webhooks to the app. It keeps its
  * sessions in memory; it is for development and tests, never for money.
  *
  * @example
@@ -214,7 +214,44 @@ export function createPaymentFakeApp(options: PaymentFakeOptions): PaymentFake {
     res.json(session);
   });
 
+  app.post('/v1/checkout/sessions/:id/expire', authorised, (req, res) => {
+    const session = sessions.get(String(req.params['id']));
+    if (!session)
+      return providerError(
+        res,
+        404,
+        'invalid_request_error',
+        `No such checkout.session: '${req.params['id']}'`,
+        'id',
+      );
+    if (session.status !== 'open') {
+      return providerError(
+        res,
+        400,
+        'invalid_request_error',
+        `Only Checkout Sessions with a status in ["open"] can be expired; this one is ${session.status}.`,
+      );
+    }
+    session.status = 'expired';
+    session.url = null;
+    void deliver('checkout.session.expired', session);
+    res.json(session);
+  });
+
+  // answers already given to an Idempotency-Key, replayed as the provider does for a request sent again
+  const refundAnswers = new Map<string, { status: number; body: unknown }>();
+
   app.post('/v1/refunds', authorised, (req, res) => {
+    const key = req.get('idempotency-key');
+    const known = key ? refundAnswers.get(key) : undefined;
+    if (known) return void res.status(known.status).json(known.body);
+    if (key) {
+      const json = res.json.bind(res);
+      res.json = (body: unknown) => {
+        refundAnswers.set(key, { status: res.statusCode, body });
+        return json(body);
+      };
+    }
     const body = asRecord(req.body);
     const intent = String(body['payment_intent'] ?? '');
     const session = [...sessions.values()].find(

@@ -130,6 +130,34 @@ describe('the payment fake, driven by the provider’s own SDK', () => {
     );
     expect(event.type).toBe('checkout.session.expired');
   });
+
+  it('expires an open session when asked, and refuses to expire one already paid', async () => {
+    const open = await newSession();
+    const expired = await sdk.checkout.sessions.expire(open.id);
+    expect(expired).toMatchObject({ id: open.id, status: 'expired', url: null });
+    const paid = await newSession();
+    await fetch(`${fake.url}/checkout/${paid.id}/approve`, { method: 'POST', redirect: 'manual' });
+    await expect(sdk.checkout.sessions.expire(paid.id)).rejects.toMatchObject({
+      type: 'StripeInvalidRequestError',
+      statusCode: 400,
+    });
+  });
+
+  it('answers a refund sent again with the same idempotency key as the first time, refunding once', async () => {
+    const session = await newSession();
+    await fetch(`${fake.url}/checkout/${session.id}/approve`, { method: 'POST', redirect: 'manual' });
+    const intent = fake.sessions.get(session.id)!.payment_intent!;
+    const first = await sdk.refunds.create(
+      { payment_intent: intent, amount: 700 },
+      { idempotencyKey: 'r-1' },
+    );
+    const again = await sdk.refunds.create(
+      { payment_intent: intent, amount: 700 },
+      { idempotencyKey: 'r-1' },
+    );
+    expect(again.id).toBe(first.id);
+    expect(fake.sessions.get(session.id)?.refunded).toBe(700);
+  });
 });
 
 describe('signWebhookPayload', () => {

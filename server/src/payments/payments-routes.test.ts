@@ -271,7 +271,7 @@ describe('paying for an order', () => {
     const part = await manager.post(`/api/payments/${paymentId}/refund`, { amountMinor: 500 });
     expect(part.status).toBe(200);
     expect(part.body.payment).toMatchObject({ status: 'partly-refunded', refundedMinor: 500 });
-    expect((await manager.post(`/api/payments/${paymentId}/refund`, { amountMinor: 5000 })).status).toBe(400);
+    expect((await manager.post(`/api/payments/${paymentId}/refund`, { amountMinor: 5000 })).status).toBe(409);
     const rest = await manager.post(`/api/payments/${paymentId}/refund`, {});
     expect(rest.body.payment).toMatchObject({ status: 'refunded', refundedMinor: 2000 });
     expect(fake.sessions.get(sessionId)?.refunded).toBe(2000);
