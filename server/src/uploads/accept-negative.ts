@@ -1,4 +1,4 @@
-import type { AcceptedUpload, MeasuredBase, RejectedUpload, ScannerProfile } from '@clearbase/contracts';
+import type { AcceptedUpload, RejectedUpload, ScannerProfile } from '@clearbase/contracts';
 import { neutralAdjustments } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import { open, unlink } from 'node:fs/promises';
@@ -6,10 +6,11 @@ import type { Clock } from '../clock';
 import type { Database } from '../db/database';
 import { findFileBySha, recordFile } from '../files/file-repository';
 import type { FileStore } from '../files/file-store';
-import { measureNegativeBase } from '../frames/measure-base';
 import { findFrameOfRollByFile, insertFrame, nextFrameIndex } from '../frames/frame-repository';
-import { ImageInputError, readNegative, sniffFormat } from '../imaging/index';
+import { ImageInputError, sniffFormat } from '../imaging/index';
 import type { HashedUpload } from './hashing-disk-storage';
+import { validateNegative, type ValidatedNegative } from './validate-negative';
+import type { ValidationBudget } from './validation-budget';
 
 const mediaTypes = { tiff: 'image/tiff', png: 'image/png' } as const;
 
@@ -27,14 +28,15 @@ async function headOf(path: string): Promise<Uint8Array> {
 /**
  * Judges one uploaded file and, when it is a usable negative scan, moves it into the store and records it as the
  * roll's next frame in one transaction. A rejected file is removed from the temp folder and leaves no row.
- * Accepted: a real TIFF or PNG, RGB, 8 or 16 bits, within the pixel limit, decodable to the end.
+ * Accepted: a real TIFF or PNG, RGB, 8 or 16 bits, within the pixel limit, decodable to the end. The pixels are
+ * checked within `budget` and without holding the frame (`validateNegative`).
  */
 export async function acceptNegative(
-  deps: { db: Kysely<Database>; store: FileStore; clock: Clock },
+  deps: { db: Kysely<Database>; store: FileStore; clock: Clock; budget: ValidationBudget },
   upload: HashedUpload & { fileName: string },
   roll: { id: number; scanner: ScannerProfile; maxFileBytes: number; maxPixels: number },
 ): Promise<{ accepted: AcceptedUpload } | { rejected: RejectedUpload }> {
-  const { db, store, clock } = deps;
+  const { db, store, clock, budget } = deps;
   const reject = (code: string, reason: string) => ({
     rejected: { fileName: upload.fileName, code, reason },
   });
@@ -51,13 +53,18 @@ export async function acceptNegative(
         'The file is a JPEG: 8 bits per channel with lossy compression. Upload the scan as a 16-bit TIFF or PNG.',
       );
     }
-    let negative;
+    let validated: ValidatedNegative;
     try {
-      negative = await readNegative(upload.path, { maxPixels: roll.maxPixels });
+      validated = await validateNegative(upload.path, {
+        maxPixels: roll.maxPixels,
+        budget,
+        scanner: roll.scanner,
+      });
     } catch (err) {
       if (err instanceof ImageInputError) return reject(err.code, err.message);
       throw err;
     }
+    const { header: negative, base } = validated;
     if (negative.format === 'jpeg') {
       return reject('unsupported-format', 'The file is a JPEG; upload the scan as a 16-bit TIFF or PNG.');
     }
@@ -67,12 +74,6 @@ export async function acceptNegative(
       if (twin) {
         return reject('duplicate-scan', `The same scan is already frame ${twin.frame_index} of this roll.`);
       }
-    }
-    let base: MeasuredBase | null = null;
-    try {
-      base = measureNegativeBase(negative, roll.scanner, null);
-    } catch {
-      // no base found is a QC matter for the render, not a reason to refuse the scan
     }
     const { created } = await store.adopt(upload.path, upload.sha256);
     try {

@@ -4,15 +4,15 @@ import multer from 'multer';
 import { unlink } from 'node:fs/promises';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
+import { createFilmBaseService } from '../film-base/film-base-service';
 import type { RouteModule } from '../http/route-module';
 import { advanceOrderWithWork } from '../orders/advance-order-with-work';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { loadRollFor, scannerProfileOf } from '../rolls/roll-access';
-import { medianBaseOf } from '../rolls/median-base';
 import { setRollStatus } from '../rolls/roll-repository';
-import { listFramesOfRoll } from '../frames/frame-repository';
 import { acceptNegative } from './accept-negative';
 import { hashingDiskStorage, type HashedUpload } from './hashing-disk-storage';
+import { createValidationBudget } from './validation-budget';
 
 /** The multipart field the scans travel in. */
 export const uploadField = 'files';
@@ -20,7 +20,9 @@ export const uploadField = 'files';
 /** Negative scans uploaded to a roll: each file judged on its own, the good ones kept as frames. */
 export const uploadsRoutes: RouteModule = (api, { db, config, clock }) => {
   const store = createFileStore(config.dataDir);
-  const { maxFiles, maxFileBytes, maxPixels } = config.uploads;
+  const { maxFiles, maxFileBytes, maxPixels, validationMemoryBytes } = config.uploads;
+  // One budget for every upload request this app serves, so a burst of them queues instead of decoding all at once.
+  const budget = createValidationBudget(validationMemoryBytes);
   const upload = multer({
     storage: hashingDiskStorage({ tempPath: () => store.tempPath(), maxFileBytes }),
     // file size is judged per file by the storage engine; these limits refuse the request as a whole
@@ -83,7 +85,7 @@ export const uploadsRoutes: RouteModule = (api, { db, config, clock }) => {
       try {
         for (const file of files) {
           const result = await acceptNegative(
-            { db, store, clock },
+            { db, store, clock, budget },
             { ...file, fileName: file.originalname },
             { id: roll.id, scanner, maxFileBytes, maxPixels },
           );
@@ -104,15 +106,8 @@ export const uploadsRoutes: RouteModule = (api, { db, config, clock }) => {
       }
       const at = clock.now();
       if (roll.status === 'awaiting-scans') await setRollStatus(db, roll.id, 'scanned', at);
-      if (roll.base_mode === 'auto') {
-        // the roll base an operator sees follows its frames: the robust median of their bases
-        const measured = medianBaseOf(await listFramesOfRoll(db, roll.id));
-        await db
-          .updateTable('rolls')
-          .set({ base_measured: measured ? JSON.stringify(measured) : null })
-          .where('id', '=', roll.id)
-          .execute();
-      }
+      // the roll base an operator sees follows its frames: the robust median of their bases
+      await createFilmBaseService({ db, store, clock, maxPixels }).followFrames(roll);
       await recordOrderAudit(db, {
         at,
         actor: user!,
