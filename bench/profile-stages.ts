@@ -6,10 +6,10 @@ import sharp from 'sharp';
 import { compileInversion } from '@clearbase/inversion';
 import { readNegative, writePositive } from '../server/src/imaging/index';
 import { createInversionPool } from '../server/src/inversion-pool/inversion-pool';
+import { measureFilmBase } from '../server/src/film-base/measure-film-base';
 import {
   invertAndWrite,
   inversionParams,
-  measureBase,
   measureLevels,
 } from '../server/src/inversion-pool/invert-negative-file';
 import { BENCH_SETTINGS, OUT_DIR, benchNegative } from './bench-negative';
@@ -31,7 +31,7 @@ for (let round = 0; round < 2; round++) {
   const negative = await span('read + decode 16-bit', () =>
     readNegative(file, { allocate: (n) => pool.buffers.acquire(Uint16Array, n) }),
   );
-  const measured = await span('detect film base', () => measureBase(negative, BENCH_SETTINGS));
+  const measured = await span('detect film base', () => measureFilmBase(negative, BENCH_SETTINGS));
   const levels = await span('frame levels', () => measureLevels(negative, BENCH_SETTINGS, measured.base));
   const plan = await span('compile plan', () =>
     compileInversion(inversionParams(BENCH_SETTINGS, measured.base, levels, 8)),

@@ -8,6 +8,7 @@ import { healthRoutes } from './health/health-routes';
 import type { RouteModule } from './http/route-module';
 import { paymentsRoutes } from './payments/payments-routes';
 import { framesRoutes } from './frames/frames-routes';
+import { frameTuningRoutes } from './frames/frame-tuning-routes';
 import { galleryRoutes } from './gallery/gallery-routes';
 import { jobsRoutes } from './jobs/jobs-routes';
 import { labRoutes } from './lab/lab-routes';
@@ -49,6 +50,7 @@ export const apiRouteModules: readonly RouteModule[] = [
   rollsRoutes,
   uploadsRoutes,
   framesRoutes,
+  frameTuningRoutes,
   jobsRoutes,
   adjustmentsRoutes,
   calibrationsRoutes,

@@ -26,10 +26,10 @@ import { createInversionPool, type InversionPool } from '../inversion-pool/inver
 import { measureWhileReading } from '../inversion-pool/measure-while-reading';
 import { mayKeepFrame } from '../inversion-pool/roll-keep-budget';
 import { runPipelined } from '../inversion-pool/run-pipelined';
+import { FilmBaseError } from '../film-base/film-base-error';
+import { measureFilmBase } from '../film-base/measure-film-base';
 import {
-  FilmBaseError,
   invertNegativeFile,
-  measureBase,
   measureLevels,
   NEUTRAL_PROFILE,
   readPooledNegative,
@@ -151,7 +151,7 @@ async function measureRoll(
       const negative = await readPooledNegative(pool, files[index]!, settings, reading.onRows);
       let keep = false;
       try {
-        bases[index] = measureBase(negative, settings, reading).base;
+        bases[index] = measureFilmBase(negative, settings, reading).base;
         samples[index] = reading.levelSample();
         keep = mayKeepFrame(negative.data.byteLength, keptBytes, freemem());
         if (keep) {

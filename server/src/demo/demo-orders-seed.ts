@@ -17,7 +17,7 @@ import type { Database } from '../db/database';
 import { recordFile } from '../files/file-repository';
 import { createFileStore } from '../files/file-store';
 import { insertFrame } from '../frames/frame-repository';
-import { measureNegativeBase } from '../frames/measure-base';
+import { measureNegativeBase } from '../film-base/measure-film-base';
 import { insertJob, rollTarget } from '../jobs/job-repository';
 import { insertOrder } from '../orders/order-repository';
 import { currentPublishedVersion, insertRoll } from '../rolls/roll-repository';

@@ -134,6 +134,74 @@ export async function outputFormatsOfFrames(
   return map;
 }
 
+/** Stores a frame's own adjustments; `requeue` puts it back in the queue, its tries counted afresh, to render again. */
+export async function saveFrameAdjustments(
+  db: Kysely<Database>,
+  id: number,
+  adjustments: Adjustments,
+  options: { requeue: boolean },
+): Promise<void> {
+  await db
+    .updateTable('frames')
+    .set({
+      adjustments: JSON.stringify(adjustments),
+      ...(options.requeue ? { status: 'queued' as const, attempts: 0, error: null } : {}),
+    })
+    .where('id', '=', id)
+    .execute();
+}
+
+/** Marks a frame as being inverted, counting the try. */
+export function markFrameInverting(db: Kysely<Database>, id: number, attempt: number): Promise<FrameRow> {
+  return db
+    .updateTable('frames')
+    .set({ status: 'inverting', attempts: attempt })
+    .where('id', '=', id)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
+/** Marks a frame rendered, with the QC flags of its render and where the base it rendered with came from. */
+export function markFrameDone(
+  db: Kysely<Database>,
+  id: number,
+  done: { qcFlags: QcFlag[]; baseSource: NonNullable<FrameRow['base_source']>; at: Date },
+): Promise<FrameRow> {
+  return db
+    .updateTable('frames')
+    .set({
+      status: 'done',
+      qc_flags: JSON.stringify(done.qcFlags),
+      base_source: done.baseSource,
+      error: null,
+      rendered_at: done.at.toISOString(),
+    })
+    .where('id', '=', id)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
+/**
+ * Records a failed try at a frame with its error: failed for good when `final`, else back in the queue. `qcFlags`,
+ * when given, replace the frame's flags.
+ */
+export function markFrameTryFailed(
+  db: Kysely<Database>,
+  id: number,
+  failure: { final: boolean; error: string; qcFlags?: QcFlag[] },
+): Promise<FrameRow> {
+  return db
+    .updateTable('frames')
+    .set({
+      status: failure.final ? 'failed' : 'queued',
+      error: failure.error,
+      ...(failure.qcFlags ? { qc_flags: JSON.stringify(failure.qcFlags) } : {}),
+    })
+    .where('id', '=', id)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
 const parse = <T>(text: string | null): T | null => (text === null ? null : (JSON.parse(text) as T));
 
 export function toFrame(row: FrameRow, outputs: OutputFormat[] = []): Frame {

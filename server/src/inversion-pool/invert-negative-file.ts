@@ -1,9 +1,7 @@
 import { performance } from 'node:perf_hooks';
 import type { ProfileDocument, ScannerProfile } from '@clearbase/contracts';
 import {
-  baseFromRegion,
   compileInversion,
-  detectFilmBase,
   levelsToTone,
   measureFrameLevels,
   neutralBalance,
@@ -24,13 +22,11 @@ import {
   type PositiveMetadata,
   type ReadNegativeOptions,
 } from '../imaging/index';
+import { measureFilmBase } from '../film-base/measure-film-base';
 import { createJpegStripWriter } from '../imaging/jpeg-strips';
 import { writeFileAtomically } from '../imaging/write-positive';
 import type { InversionPool } from './inversion-pool';
-import { measureWhileReading, type MeasureWhileReading } from './measure-while-reading';
-
-// Below this a detected base is not trusted; the frame is flagged for QC; from memory.
-export const MIN_BASE_CONFIDENCE = 0.3;
+import { measureWhileReading } from './measure-while-reading';
 
 /** Default profile: the same straight line (gamma 0.6, common practice of the trade) on every channel. */
 export const NEUTRAL_PROFILE: ProfileDocument = (() => {
@@ -52,11 +48,6 @@ export const NEUTRAL_PROFILE: ProfileDocument = (() => {
   };
 })();
 
-/** A frame whose film base cannot be used (none found, or a drawn rectangle holding no film). */
-export class FilmBaseError extends Error {
-  readonly code = 'no-base';
-}
-
 export interface FrameSettings {
   profile: ProfileDocument;
   scanner: ScannerProfile;
@@ -76,36 +67,6 @@ export interface FrameResult {
   base: FilmBase;
   warnings: string[];
   ms: number;
-}
-
-/** Measures a negative's film base the way `settings.base` asks. Throws FilmBaseError for an unusable base. */
-export function measureBase(
-  negative: RgbImage,
-  settings: Pick<FrameSettings, 'base' | 'scanner'>,
-  reading?: MeasureWhileReading,
-): { base: FilmBase; warnings: string[] } {
-  return checkedBase(
-    settings.base === 'auto'
-      ? (reading?.base() ?? detectFilmBase(negative, settings.scanner))
-      : Array.isArray(settings.base)
-        ? baseFromRegion(negative, settings.scanner, settings.base)
-        : settings.base,
-  );
-}
-
-/** A measured base with its warnings; throws FilmBaseError for one that cannot be used. */
-function checkedBase(base: FilmBase): { base: FilmBase; warnings: string[] } {
-  const warnings: string[] = [];
-  if (!base.rgb.every((v) => v > 0 && v <= 1))
-    throw new FilmBaseError(
-      'No usable film base found; draw the base region by hand (--base x,y,w,h) over unexposed film.',
-    );
-  if (base.confidence < MIN_BASE_CONFIDENCE) {
-    warnings.push(
-      `No reliable film base found (confidence ${base.confidence.toFixed(2)}); check the frame, or draw the base region by hand.`,
-    );
-  }
-  return { base, warnings };
 }
 
 /** The frame's own levels (E_mid, channel means, black and white points) against `base`. */
@@ -189,9 +150,9 @@ export async function invertNegativeFile(
   const negative = decoded ?? (await readPooledNegative(pool, file, settings, reading?.onRows));
   const outKind = settings.format === 'jpeg' ? Uint8Array : Uint16Array;
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
-  let measured: ReturnType<typeof measureBase>;
+  let measured: ReturnType<typeof measureFilmBase>;
   try {
-    measured = measureBase(negative, settings, reading ?? undefined);
+    measured = measureFilmBase(negative, settings, reading ?? undefined);
     const levels =
       settings.levels ??
       (reading

@@ -4,7 +4,8 @@ import { createFileStore } from '../files/file-store';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 import { createTestJobRunner } from '../test-support/create-test-job-runner';
-import { maxFrameAttempts, type JobRunner } from './job-runner';
+import type { JobRunner } from './job-runner';
+import { maxFrameAttempts } from './roll-job';
 
 let t: TestApp;
 let operator: Client;

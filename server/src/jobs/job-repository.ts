@@ -129,6 +129,26 @@ export function updateJob(
     .executeTakeFirst();
 }
 
+/** Counts one more frame of the job done. */
+export function countFrameDone(db: Kysely<Database>, id: number, at: Date): Promise<JobRow> {
+  return db
+    .updateTable('jobs')
+    .set((eb) => ({ progress_done: eb('progress_done', '+', 1), updated_at: at.toISOString() }))
+    .where('id', '=', id)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
+/** Counts one more frame of the job failed for good. */
+export function countFrameFailed(db: Kysely<Database>, id: number, at: Date): Promise<JobRow> {
+  return db
+    .updateTable('jobs')
+    .set((eb) => ({ progress_failed: eb('progress_failed', '+', 1), updated_at: at.toISOString() }))
+    .where('id', '=', id)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
 export function toJob(row: JobRow): Job {
   return {
     id: row.id,

@@ -1,14 +1,12 @@
 import { adjustmentsSchema, idParamsSchema, staffRoles } from '@clearbase/contracts';
-import { findFrameById, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
-import { loadFrameFor } from '../frames/frames-routes';
 import type { RouteModule } from '../http/route-module';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { loadRollFor } from './roll-access';
 import { findRollById, toRoll } from './roll-repository';
 
 /**
- * Tuning of a roll and of single frames (printer points, exposure, contrast). A change puts the frames it touches
- * back in the queue, so the next inversion renders them again; their full-size outputs are offered again once
+ * Tuning of a roll (printer points, exposure, contrast; a single frame's is in `frames/`). A change puts the roll's
+ * frames back in the queue, so the next inversion renders them again; their full-size outputs are offered again once
  * rendered anew (the preview keeps showing the last render).
  */
 export const adjustmentsRoutes: RouteModule = (api, { db, clock }) => {
@@ -46,41 +44,6 @@ export const adjustmentsRoutes: RouteModule = (api, { db, clock }) => {
         return toRoll((await findRollById(trx, before.id))!);
       });
       res.json(roll);
-    },
-  );
-
-  api.define(
-    {
-      method: 'put',
-      path: '/api/frames/:id/adjustments',
-      roles: staffRoles,
-      params: idParamsSchema,
-      body: adjustmentsSchema,
-      summary: 'Tune one frame on top of its roll',
-    },
-    async (_req, res, { params, body, user }) => {
-      const before = await loadFrameFor(db, params.id, user!);
-      const frame = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        await trx
-          .updateTable('frames')
-          .set({
-            adjustments: JSON.stringify(body),
-            ...(before.status === 'inverting' ? {} : { status: 'queued' as const, attempts: 0, error: null }),
-          })
-          .where('id', '=', before.id)
-          .execute();
-        await recordOrderAudit(trx, {
-          at,
-          actor: user!,
-          action: 'frame-adjusted',
-          target: `frame:${before.id}`,
-          details: { before: JSON.parse(before.adjustments), after: body },
-        });
-        return (await findFrameById(trx, before.id))!;
-      });
-      const outputs = await outputFormatsOfFrames(db, [frame.id]);
-      res.json(toFrame(frame, outputs.get(frame.id)));
     },
   );
 };

@@ -3,13 +3,12 @@ import {
   invertRollRequestSchema,
   rollBaseRequestSchema,
   staffRoles,
-  type MeasuredBase,
   type RollEvent,
 } from '@clearbase/contracts';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
-import { measureNegativeBase } from '../frames/measure-base';
-import { frameNegative } from '../frames/frame-negative';
+import { baseChangeHandler } from '../film-base/base-change-handler';
+import { createFilmBaseService } from '../film-base/film-base-service';
 import { listFramesOfRoll, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
 import type { RouteModule } from '../http/route-module';
 import { activeJobOf, insertJob, latestJobOf, rollTarget, toJob } from '../jobs/job-repository';
@@ -20,10 +19,8 @@ import {
   subscribeRollEvents,
 } from '../jobs/roll-events';
 import { recordOrderAudit } from '../orders/record-order-audit';
-import { medianBaseOf } from './median-base';
-import { assertRegionInside } from './region-check';
-import { loadRollFor, scannerProfileOf } from './roll-access';
-import { findRollById, setRollStatus, toRoll } from './roll-repository';
+import { loadRollFor } from './roll-access';
+import { setRollStatus, toRoll } from './roll-repository';
 
 const everyone = ['customer', ...staffRoles] as const;
 // 15 s between heartbeats keeps proxies from closing an idle stream (most time out after 30-60 s); from memory
@@ -31,7 +28,12 @@ export const heartbeatMs = 15_000;
 
 /** A roll with its frames, its inversion job, its base, and its live stream of changes. */
 export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
-  const store = createFileStore(config.dataDir);
+  const filmBase = createFilmBaseService({
+    db,
+    store: createFileStore(config.dataDir),
+    clock,
+    maxPixels: config.uploads.maxPixels,
+  });
 
   api.define(
     {
@@ -129,54 +131,7 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
       body: rollBaseRequestSchema,
       summary: 'Set the roll base: automatic, or a rectangle on one of its frames',
     },
-    async (_req, res, { params, body, user }) => {
-      const roll = await loadRollFor(db, params.id, user!);
-      const frames = await listFramesOfRoll(db, roll.id);
-      let measured: MeasuredBase | null;
-      if (body.mode === 'region') {
-        const frame = frames.find((f) => f.id === body.frameId);
-        if (!frame) {
-          throw new AppError('frame-not-found', 404, `Roll ${roll.id} has no frame with id ${body.frameId}.`);
-        }
-        assertRegionInside(body.region, frame.width, frame.height, 'body.region');
-        const negative = await frameNegative(db, store, frame, config.uploads.maxPixels);
-        measured = measureNegativeBase(negative, await scannerProfileOf(db, roll.scanner_id), body.region);
-        if (measured.confidence === 0) {
-          throw new AppError(
-            'no-film-in-region',
-            422,
-            'The rectangle holds no film (only bare light or dust); draw it over unexposed film such as the leader or rebate.',
-            [{ path: 'body.region', message: 'No film in this rectangle' }],
-          );
-        }
-      } else {
-        measured = medianBaseOf(frames);
-      }
-      const updated = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        await trx
-          .updateTable('rolls')
-          .set({
-            base_mode: body.mode,
-            base_frame_id: body.mode === 'region' ? body.frameId : null,
-            base_region: body.mode === 'region' ? JSON.stringify(body.region) : null,
-            base_measured: measured ? JSON.stringify(measured) : null,
-            updated_at: at.toISOString(),
-          })
-          .where('id', '=', roll.id)
-          .execute();
-        const after = toRoll((await findRollById(trx, roll.id))!);
-        await recordOrderAudit(trx, {
-          at,
-          actor: user!,
-          action: 'roll-base-changed',
-          target: `roll:${roll.id}`,
-          details: { before: toRoll(roll).base, after: after.base },
-        });
-        return after;
-      });
-      res.json(updated);
-    },
+    baseChangeHandler(filmBase.setRollBase),
   );
 
   api.define(

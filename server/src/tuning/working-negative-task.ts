@@ -6,7 +6,7 @@ import {
   type Rgb,
   type RgbImage,
 } from '@clearbase/inversion';
-import { measureNegativeBase } from '../frames/measure-base';
+import { measureNegativeBase } from '../film-base/measure-film-base';
 import { downsampleNegative } from './working-negative';
 
 /** Reduce a decoded scan to its working negative and keep the sample its levels are measured on. */
