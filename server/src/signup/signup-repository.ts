@@ -92,3 +92,14 @@ export async function usePasswordTokens(db: Kysely<Database>, userId: number, at
     .where('used_at', 'is', null)
     .execute();
 }
+
+/** Marks one token used if it is still open; false when another request used it first. */
+export async function claimPasswordToken(db: Kysely<Database>, id: number, at: string): Promise<boolean> {
+  const claimed = await db
+    .updateTable('password_tokens')
+    .set({ used_at: at })
+    .where('id', '=', id)
+    .where('used_at', 'is', null)
+    .executeTakeFirst();
+  return Number(claimed.numUpdatedRows) === 1;
+}

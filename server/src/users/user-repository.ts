@@ -18,6 +18,17 @@ export function listUsers(db: Kysely<Database>): Promise<UserRow[]> {
   return db.selectFrom('users').selectAll().orderBy('role').orderBy('email').execute();
 }
 
+/** Every customer account, by name then e-mail. */
+export function listCustomers(db: Kysely<Database>): Promise<UserRow[]> {
+  return db
+    .selectFrom('users')
+    .selectAll()
+    .where('role', '=', 'customer')
+    .orderBy('name')
+    .orderBy('email')
+    .execute();
+}
+
 export async function insertUser(db: Kysely<Database>, row: NewUserRow): Promise<UserRow> {
   return db
     .insertInto('users')
