@@ -4,13 +4,12 @@ import multer from 'multer';
 import { unlink } from 'node:fs/promises';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
+import { createFilmBaseService } from '../film-base/film-base-service';
 import type { RouteModule } from '../http/route-module';
 import { advanceOrderWithWork } from '../orders/advance-order-with-work';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { loadRollFor, scannerProfileOf } from '../rolls/roll-access';
-import { medianBaseOf } from '../rolls/median-base';
 import { setRollStatus } from '../rolls/roll-repository';
-import { listFramesOfRoll } from '../frames/frame-repository';
 import { acceptNegative } from './accept-negative';
 import { hashingDiskStorage, type HashedUpload } from './hashing-disk-storage';
 import { createValidationBudget } from './validation-budget';
@@ -107,15 +106,8 @@ export const uploadsRoutes: RouteModule = (api, { db, config, clock }) => {
       }
       const at = clock.now();
       if (roll.status === 'awaiting-scans') await setRollStatus(db, roll.id, 'scanned', at);
-      if (roll.base_mode === 'auto') {
-        // the roll base an operator sees follows its frames: the robust median of their bases
-        const measured = medianBaseOf(await listFramesOfRoll(db, roll.id));
-        await db
-          .updateTable('rolls')
-          .set({ base_measured: measured ? JSON.stringify(measured) : null })
-          .where('id', '=', roll.id)
-          .execute();
-      }
+      // the roll base an operator sees follows its frames: the robust median of their bases
+      await createFilmBaseService({ db, store, clock, maxPixels }).followFrames(roll);
       await recordOrderAudit(db, {
         at,
         actor: user!,
