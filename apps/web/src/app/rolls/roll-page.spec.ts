@@ -1,6 +1,5 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
-import { HttpEventType } from '@angular/common/http';
 import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
@@ -130,71 +129,37 @@ describe('RollPage', () => {
     backend.verify();
   });
 
-  it('sends each picked file on its own and shows the server’s reason beside the refused one', async () => {
+  it('reads the roll again once the upload queue has new frames kept', async () => {
     const { fixture, backend, root } = await render(testRollDetail([]));
-    const page = fixture.componentInstance;
-    page.addFiles([new File(['I am text'], 'notes.tif'), new File([new Uint8Array(2000)], 'frame-01.tif')]);
+    const input = root.querySelector('[data-testid="upload-input"]') as HTMLInputElement;
+    Object.defineProperty(input, 'files', { value: [new File([new Uint8Array(20)], 'frame-01.tif')] });
+    input.dispatchEvent(new Event('change'));
     await fixture.whenStable();
-
-    const first = backend.expectOne('/api/rolls/7/frames');
-    expect((first.request.body as FormData).getAll('files').map((f) => (f as File).name)).toEqual([
-      'notes.tif',
-    ]);
-    first.event({ type: HttpEventType.UploadProgress, loaded: 9, total: 9 });
-    first.flush(
-      {
-        type: 'about:blank',
-        title: 'Unprocessable Content',
-        status: 422,
-        detail: 'None of the 1 files was kept: notes.tif: The file is not a TIFF or PNG image.',
-        errors: [{ path: 'files.notes.tif', message: 'notes.tif: The file is not a TIFF or PNG image.' }],
-      },
-      { status: 422, statusText: 'Unprocessable Content' },
-    );
-    await fixture.whenStable();
-
-    const second = backend.expectOne('/api/rolls/7/frames');
-    second.event({ type: HttpEventType.UploadProgress, loaded: 1100, total: 2200 });
-    await fixture.whenStable();
-    const line = (key: number) => root.querySelector(`[data-testid="upload-${key}"]`)!;
-    expect(line(2).querySelector('[data-testid="upload-state"]')!.textContent!.trim()).toBe('Sending 50 %');
-    second.flush({
+    backend.expectOne('/api/rolls/7/frames').flush({
       accepted: [{ fileName: 'frame-01.tif', frameId: 101, index: 1, duplicate: false, warnings: [] }],
       rejected: [],
     });
     await fixture.whenStable();
     backend.expectOne('/api/rolls/7').flush(testRollDetail([testFrame(1, 'queued')]));
     await fixture.whenStable();
-
-    expect(line(1).querySelector('[data-testid="upload-reason"]')!.textContent!.trim()).toBe(
-      'The file is not a TIFF or PNG image.',
-    );
-    expect(line(2).querySelector('[data-testid="upload-reason"]')).toBeNull();
-    expect(line(2).querySelector('[data-testid="upload-state"]')!.textContent!.trim()).toBe('Frame 1');
-    expect(root.querySelector('[data-testid="upload-batch-counts"]')!.textContent!.trim()).toBe(
-      '1 kept · 1 refused',
-    );
-    expect(root.querySelector('[data-testid="frame-1"]')).not.toBeNull();
+    expect(
+      root.querySelector('[data-testid="frame-1"] [data-testid="frame-status"]')!.textContent!.trim(),
+    ).toBe('Queued');
   });
 
-  it('starts the inversion with the roll’s levels when asked, and offers to cancel it while it runs', async () => {
+  it('shows the job an inversion started and reads the roll again for the frames queued', async () => {
     const { fixture, backend, root } = await render(testRollDetail([testFrame(1, 'queued')]));
-    (root.querySelector('[data-testid="levels-roll"] button') as HTMLButtonElement).click();
-    await fixture.whenStable();
     (root.querySelector('[data-testid="invert-roll"]') as HTMLButtonElement).click();
-    const req = backend.expectOne('/api/rolls/7/invert');
-    expect(req.request.body).toEqual({ frames: 'pending', levels: 'roll' });
-    req.flush(testJob(4, 'queued'), { status: 202, statusText: 'Accepted' });
+    backend
+      .expectOne('/api/rolls/7/invert')
+      .flush(testJob(4, 'queued'), { status: 202, statusText: 'Accepted' });
     await fixture.whenStable();
+    expect(root.querySelector('[data-testid="job-state"]')!.textContent!.trim()).toBe(
+      'Waiting for the queue',
+    );
     backend.expectOne('/api/rolls/7').flush(testRollDetail([testFrame(1, 'queued')], testJob(4, 'queued')));
     await fixture.whenStable();
-    (root.querySelector('[data-testid="job-cancel"]') as HTMLButtonElement).click();
-    backend
-      .expectOne('/api/jobs/4/cancel')
-      .flush(testJob(4, 'cancelled'), { status: 202, statusText: 'Accepted' });
-    await fixture.whenStable();
-    expect(root.querySelector('[data-testid="job-state"]')!.textContent!.trim()).toBe('Cancelled');
-    expect(root.querySelector('[data-testid="invert-roll"]')).not.toBeNull();
+    expect(root.querySelector('[data-testid="job-cancel"]')).not.toBeNull();
   });
 
   it('draws the frame’s base rectangle, starts a roll base from it and shows the server’s complaint per field', async () => {
@@ -249,5 +214,15 @@ describe('RollPage', () => {
     expect(root.querySelector('[data-testid="base-error"]')!.textContent).toContain(
       'The rectangle holds no film',
     );
+  });
+
+  it('reads the roll again once its base is saved', async () => {
+    const { fixture, backend, root } = await render(testRollDetail([testFrame(1, 'done')]));
+    (root.querySelector('[data-testid="base-save"]') as HTMLButtonElement).click();
+    backend.expectOne('/api/rolls/7/base').flush(testRollDetail([testFrame(1, 'done')]).roll);
+    await fixture.whenStable();
+    backend.expectOne('/api/rolls/7').flush(testRollDetail([testFrame(1, 'done')]));
+    await fixture.whenStable();
+    backend.verify();
   });
 });
