@@ -23,7 +23,13 @@ const frame = (id: number, rollNumber: number, index: number): GalleryFrame => (
   ],
 });
 
-async function render(frames: GalleryFrame[] | { status: number; body: object }) {
+const released = { fullSize: true, reason: null };
+const settled = { currency: 'EUR', priceMinor: 2000, paidMinor: 2000, dueMinor: 0 };
+
+async function render(
+  frames: GalleryFrame[] | { status: number; body: object },
+  held?: { reason: string; dueMinor: number },
+) {
   const assigned: string[] = [];
   TestBed.configureTestingModule({
     imports: [GalleryPage],
@@ -40,8 +46,14 @@ async function render(frames: GalleryFrame[] | { status: number; body: object })
   fixture.componentRef.setInput('id', '7');
   await fixture.whenStable();
   const req = backend.expectOne('/api/orders/7/gallery');
-  if (Array.isArray(frames)) req.flush({ orderId: 7, frames });
-  else req.flush(frames.body, { status: frames.status, statusText: 'Error' });
+  if (Array.isArray(frames)) {
+    req.flush({
+      orderId: 7,
+      frames,
+      release: held ? { fullSize: false, reason: held.reason } : released,
+      balance: held ? { ...settled, paidMinor: 2000 - held.dueMinor, dueMinor: held.dueMinor } : settled,
+    });
+  } else req.flush(frames.body, { status: frames.status, statusText: 'Error' });
   await fixture.whenStable();
   return { fixture, backend, assigned };
 }
@@ -115,5 +127,19 @@ describe('GalleryPage', () => {
       body: { type: 'about:blank', title: 'Not Found', status: 404, detail: 'No order with id 7.' },
     });
     expect(q(missing.fixture, 'gallery-problem')?.textContent).toContain('No order with id 7.');
+  });
+
+  it('says why downloads are held back and what is left to pay, and offers only the thumbnails', async () => {
+    const thumbOnly = { ...frame(1, 1, 1), previewUrl: null, downloads: [] };
+    const reason = 'Order 7 has €20.00 left to pay; its full-size scans come once it is paid in full.';
+    const { fixture } = await render([thumbOnly], { reason, dueMinor: 2000 });
+    expect(q(fixture, 'gallery-held-back')?.textContent).toContain(reason);
+    expect(q(fixture, 'gallery-due')?.textContent).toContain('Left to pay: €20.00');
+    expect(q(fixture, 'gallery-pay-link')?.getAttribute('href')).toBe('/orders/7');
+    expect(q(fixture, 'gallery-download-all')).toBeNull();
+    q(fixture, 'gallery-thumb-1')!.click();
+    await fixture.whenStable();
+    expect(q(fixture, 'gallery-lightbox-image')?.getAttribute('src')).toBe('/api/frames/1/thumbnail');
+    expect(q(fixture, 'gallery-download-jpeg')).toBeNull();
   });
 });

@@ -8,6 +8,7 @@ import type { GalleryFrame, GalleryResponse } from '@clearbase/contracts';
 import { catchError, map, of, startWith, switchMap } from 'rxjs';
 import { outputFormatLabel } from '../orders/order-labels';
 import { BrowserLocation } from '../prices/browser-location';
+import { showMoney } from '../prices/money';
 import { readProblem, type ProblemMessage } from '../problem/read-problem';
 import { GalleryApi } from './gallery-api';
 
@@ -19,7 +20,8 @@ interface GalleryView {
 
 /**
  * An order's finished scans: thumbnails by roll, a full-screen view stepped with the arrow keys and closed with
- * Escape, each frame's files to download, and the whole order as one zip.
+ * Escape, each frame's files to download, and the whole order as one zip. Until the order is ready and paid the
+ * customer sees the thumbnails of approved frames only, with why the rest is held back and what is left to pay.
  */
 @Component({
   selector: 'cb-gallery-page',
@@ -55,6 +57,17 @@ export class GalleryPage {
   protected readonly loading = computed(() => this.state().loading);
   protected readonly problem = computed(() => this.state().problem);
   protected readonly frames = computed(() => this.state().gallery?.frames ?? []);
+  /** Why the full-size scans are not to be had yet, or null once they are (or before the gallery loads). */
+  protected readonly heldBack = computed(() => {
+    const gallery = this.state().gallery;
+    return gallery && !gallery.release.fullSize ? gallery.release.reason : null;
+  });
+  protected readonly released = computed(() => this.state().gallery?.release.fullSize ?? false);
+  /** What is left to pay, shown while the scans are held back for it. */
+  protected readonly due = computed(() => {
+    const balance = this.state().gallery?.balance;
+    return balance?.dueMinor ? showMoney(balance.dueMinor, balance.currency) : null;
+  });
   /** Frames grouped by roll, in order. */
   protected readonly rolls = computed(() => {
     const groups: { rollNumber: number; frames: GalleryFrame[] }[] = [];

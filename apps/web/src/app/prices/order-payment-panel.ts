@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { MatButton } from '@angular/material/button';
-import type { Payment, PaymentStatus } from '@clearbase/contracts';
+import type { OrderBalance, Payment, PaymentStatus } from '@clearbase/contracts';
 import { Session } from '../auth/session';
 import { readProblem } from '../problem/read-problem';
 import { BrowserLocation } from './browser-location';
@@ -16,8 +16,8 @@ const statusLabels: Record<PaymentStatus, string> = {
 };
 
 /**
- * An order's payments as its customer sees them: what was paid or refunded, and paying on the provider's page
- * (priced there from the price list). Staff see the payments, and refund, on the order page's own section. Place it
+ * An order's payments as its customer sees them: what was paid or refunded, what is left to pay (rolls added after
+ * paying are owed), and paying exactly that on the provider's page. Staff see the payments, and refund, on the order page's own section. Place it
  * on an order's page with `<cb-order-payment-panel [orderId]="id" />`.
  */
 @Component({
@@ -39,9 +39,24 @@ const statusLabels: Record<PaymentStatus, string> = {
       } @empty {
         <p>Not paid yet.</p>
       }
+      @if (balance(); as b) {
+        @if (b.priceMinor !== null && b.paidMinor > 0 && b.dueMinor) {
+          <p data-testid="payment-balance">
+            The order now costs {{ showMoney(b.priceMinor, b.currency) }};
+            {{ showMoney(b.paidMinor, b.currency) }} is paid and {{ showMoney(b.dueMinor, b.currency) }} is
+            left to pay. Your scans can be downloaded once it is paid.
+          </p>
+        } @else if (b.priceMinor !== null && b.dueMinor) {
+          <p data-testid="payment-balance">
+            {{ showMoney(b.dueMinor, b.currency) }} to pay. Your scans can be downloaded once it is paid.
+          </p>
+        } @else if (b.priceMinor === null) {
+          <p data-testid="payment-balance">The lab will price this order and tell you what it costs.</p>
+        }
+      }
       @if (canPay()) {
         <button mat-flat-button type="button" [disabled]="busy()" (click)="pay()" data-testid="payment-pay">
-          Pay now
+          Pay {{ showMoney(balance()!.dueMinor!, balance()!.currency) }} now
         </button>
       }
     </section>
@@ -60,12 +75,10 @@ export class OrderPaymentPanel {
   protected readonly problem = signal<string | null>(null);
   protected readonly statusLabels = statusLabels;
   protected readonly showMoney = showMoney;
+  protected readonly balance = signal<OrderBalance | null>(null);
+  /** A customer pays what is left, once the price list prices the order. */
   protected readonly canPay = computed(
-    () =>
-      this.role() === 'customer' &&
-      !this.payments().some(
-        (p) => p.status === 'paid' || p.status === 'partly-refunded' || p.status === 'refunded',
-      ),
+    () => this.role() === 'customer' && (this.balance()?.dueMinor ?? 0) > 0,
   );
 
   constructor() {
@@ -73,8 +86,11 @@ export class OrderPaymentPanel {
   }
 
   private load(orderId: number): void {
-    this.api.list(orderId).subscribe({
-      next: (list) => this.payments.set(list),
+    this.api.overview(orderId).subscribe({
+      next: (overview) => {
+        this.payments.set(overview.payments);
+        this.balance.set(overview.balance);
+      },
       error: (err: unknown) => this.problem.set(readProblem(err).message),
     });
   }

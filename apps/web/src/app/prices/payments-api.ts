@@ -9,7 +9,12 @@ export class PaymentsApi {
   private readonly http = inject(HttpClient);
 
   list(orderId: number): Observable<Payment[]> {
-    return this.http.get<PaymentListResponse>(`/api/orders/${orderId}/payments`).pipe(map((r) => r.payments));
+    return this.overview(orderId).pipe(map((r) => r.payments));
+  }
+
+  /** The order's payments with its balance: the price, what was paid towards it and what is left. */
+  overview(orderId: number): Observable<PaymentListResponse> {
+    return this.http.get<PaymentListResponse>(`/api/orders/${orderId}/payments`);
   }
 
   checkout(orderId: number): Observable<CheckoutResponse> {
