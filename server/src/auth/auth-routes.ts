@@ -6,9 +6,8 @@ import { recordAudit } from '../audit/audit-log';
 import { AppError } from '../errors/app-error';
 import { sendProblem } from '../errors/send-problem';
 import type { RouteModule } from '../http/route-module';
-import { findUserById, updateUser } from '../users/user-repository';
-import { dropUserSessions } from './kysely-session-store';
-import { hashPassword, verifyPassword } from './password-hash';
+import { updateUser } from '../users/user-repository';
+import { changePassword } from './change-password';
 import { sessionCookieName } from './session-cookie-name';
 
 const wrongCredentials = 'The e-mail or password is not right.';
@@ -126,24 +125,7 @@ export function authRoutes(passport: AppPassport): RouteModule {
         summary: 'Change my password; my other sessions end',
       },
       async (req, res, { body, user }) => {
-        const row = await findUserById(db, user!.id);
-        if (!row || !(await verifyPassword(body.currentPassword, row.password_hash))) {
-          throw new AppError('wrong-current-password', 400, 'The current password is not right.', [
-            { path: 'body.currentPassword', message: 'The current password is not right.' },
-          ]);
-        }
-        const now = clock.now().toISOString();
-        const passwordHash = await hashPassword(body.newPassword);
-        await db.transaction().execute(async (trx) => {
-          await updateUser(trx, row.id, { password_hash: passwordHash, password_changed_at: now });
-          await dropUserSessions(trx, row.id, req.sessionID);
-          await recordAudit(trx, {
-            at: clock.now(),
-            actor: user!,
-            action: 'password-changed',
-            target: `user:${row.id}`,
-          });
-        });
+        await changePassword({ db, clock }, user!, body, req.sessionID);
         res.status(204).end();
       },
     );
