@@ -129,21 +129,20 @@ export function updateJob(
     .executeTakeFirst();
 }
 
-/** Counts one more frame of the job done. */
-export function countFrameDone(db: Kysely<Database>, id: number, at: Date): Promise<JobRow> {
+/** Counts one more frame of the job done, or failed for good. */
+export function countFrameOfJob(
+  db: Kysely<Database>,
+  id: number,
+  outcome: 'done' | 'failed',
+  at: Date,
+): Promise<JobRow> {
   return db
     .updateTable('jobs')
-    .set((eb) => ({ progress_done: eb('progress_done', '+', 1), updated_at: at.toISOString() }))
-    .where('id', '=', id)
-    .returningAll()
-    .executeTakeFirstOrThrow();
-}
-
-/** Counts one more frame of the job failed for good. */
-export function countFrameFailed(db: Kysely<Database>, id: number, at: Date): Promise<JobRow> {
-  return db
-    .updateTable('jobs')
-    .set((eb) => ({ progress_failed: eb('progress_failed', '+', 1), updated_at: at.toISOString() }))
+    .set((eb) =>
+      outcome === 'done'
+        ? { progress_done: eb('progress_done', '+', 1), updated_at: at.toISOString() }
+        : { progress_failed: eb('progress_failed', '+', 1), updated_at: at.toISOString() },
+    )
     .where('id', '=', id)
     .returningAll()
     .executeTakeFirstOrThrow();

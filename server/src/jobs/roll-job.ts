@@ -35,7 +35,7 @@ import type { FrameRow, JobRow } from '../orders/order-tables';
 import { findVersionById } from '../profiles/profile-repository';
 import { scannerProfileOf } from '../rolls/roll-access';
 import { findRollById, setRollStatus, type RollListRow } from '../rolls/roll-repository';
-import { countFrameDone, countFrameFailed, findJobById, rollIdOfTarget } from './job-repository';
+import { countFrameOfJob, findJobById, rollIdOfTarget } from './job-repository';
 import { renderFrame } from './render-frame';
 import { publishRollEvent } from './roll-events';
 
@@ -141,7 +141,7 @@ export function createRollJob(deps: RollJobDeps) {
             baseSource: chosen.source,
             at: now,
           });
-          return { row, jobRow: await countFrameDone(trx, job.id, now) };
+          return { row, jobRow: await countFrameOfJob(trx, job.id, 'done', now) };
         });
         publishFrame(done.row);
         deps.publishJob(done.jobRow);
@@ -161,7 +161,7 @@ export function createRollJob(deps: RollJobDeps) {
             error: message,
             ...(noBase ? { qcFlags: ['no-base' as const] } : {}),
           });
-          const jobRow = final ? await countFrameFailed(trx, job.id, at) : undefined;
+          const jobRow = final ? await countFrameOfJob(trx, job.id, 'failed', at) : undefined;
           return { row, jobRow };
         });
         publishFrame(failed.row);
