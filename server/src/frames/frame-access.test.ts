@@ -1,0 +1,48 @@
+import type { User } from '@clearbase/contracts';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { addRollWithScans } from '../orders/order-test-fixtures';
+import { addUser, createTestApp, type TestApp } from '../test-support/test-app';
+import { addTestLab } from '../test-support/test-lab';
+import { findUserById, toUser } from '../users/user-repository';
+import { loadFrameFor } from './frame-access';
+
+let t: TestApp;
+let frame: number;
+const users = {} as Record<'owner' | 'other' | 'operator', User>;
+
+beforeAll(async () => {
+  t = await createTestApp();
+  const lab = await addTestLab(t);
+  const { frames } = await addRollWithScans(lab.operator, {
+    customerId: lab.customerId,
+    stockId: lab.stockId,
+    scans: [{ name: 'a.tif', seed: 1 }],
+  });
+  frame = frames[0]!;
+  const user = async (id: number) => toUser((await findUserById(t.db, id))!);
+  users.owner = await user(lab.customerId);
+  users.other = await user(await addUser(t.db, 'customer', 'other@lab.test'));
+  users.operator = await user(await addUser(t.db, 'operator', 'second-operator@lab.test'));
+});
+afterAll(() => t.close());
+
+describe('loading a frame for a user', () => {
+  it('gives staff any frame and a customer the frames of their own orders', async () => {
+    expect((await loadFrameFor(t.db, frame, users.operator)).id).toBe(frame);
+    expect((await loadFrameFor(t.db, frame, users.owner)).id).toBe(frame);
+  });
+
+  it('answers another customer the same 404 as a frame that does not exist', async () => {
+    const missing = frame + 1000;
+    await expect(loadFrameFor(t.db, frame, users.other)).rejects.toMatchObject({
+      code: 'frame-not-found',
+      status: 404,
+      message: `No frame with id ${frame}.`,
+    });
+    await expect(loadFrameFor(t.db, missing, users.operator)).rejects.toMatchObject({
+      code: 'frame-not-found',
+      status: 404,
+      message: `No frame with id ${missing}.`,
+    });
+  });
+});
