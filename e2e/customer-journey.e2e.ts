@@ -218,6 +218,7 @@ describe('a customer’s whole journey', () => {
       expect((await operator.postForm(`/api/rolls/${rollId}/frames`, form)).status).toBe(201);
       expect((await operator.post(`/api/rolls/${rollId}/invert`, {})).status).toBe(202);
     }
+    const rendered: { id: number }[] = [];
     for (const rollId of rollIds) {
       const frames = await until(`inversion of roll ${rollId}`, async () => {
         const detail = (await (await operator.get(`/api/rolls/${rollId}`)).json()) as {
@@ -227,11 +228,22 @@ describe('a customer’s whole journey', () => {
           ? detail.frames
           : undefined;
       });
-      for (const frame of frames) {
-        expect((await operator.post(`/api/frames/${frame.id}/qc`, { decision: 'approved' })).status).toBe(
-          200,
-        );
-      }
+      rendered.push(...frames);
+    }
+    // paid, but still being worked on: nothing to download yet, and the gallery says why
+    const early = await customer.post(`/api/orders/${order.id}/download-links`);
+    expect(early.status).toBe(409);
+    await page.goto(`${server.url}/orders/${order.id}/gallery`);
+    const held = page.getByTestId('gallery-held-back');
+    await held.waitFor();
+    expect(await held.textContent()).toContain(
+      'is tuning; its full-size scans come once the lab marks it ready',
+    );
+    expect(await page.getByTestId('gallery-download-all').count()).toBe(0);
+    await browser.screenshot('gallery-held-back');
+
+    for (const frame of rendered) {
+      expect((await operator.post(`/api/frames/${frame.id}/qc`, { decision: 'approved' })).status).toBe(200);
     }
     const ready = await operator.post(`/api/orders/${order.id}/ready`);
     expect(ready.status, await ready.clone().text()).toBe(200);
@@ -244,6 +256,9 @@ describe('a customer’s whole journey', () => {
     expect(zip.status).toBe(200);
     expect(zip.headers.get('content-type')).toBe('application/zip');
     const names = zipEntries(new Uint8Array(await zip.arrayBuffer())).map((e) => e.name);
+    await page.reload();
+    await page.getByTestId('gallery-download-all').waitFor();
+    expect(await page.getByTestId('gallery-held-back').count()).toBe(0);
     const stems = negatives.map((n) => basename(n, extname(n)));
     expect(names).toEqual([1, 2].flatMap((roll) => stems.map((s) => `roll-${roll}/${s}.jpg`)));
   }, 240_000);
