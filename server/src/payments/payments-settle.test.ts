@@ -238,6 +238,26 @@ describe('checking out twice', () => {
   });
 });
 
+describe('a checkout the app had given up on', () => {
+  it('is still recorded when its payment comes in, and refunded when the order did not need it', async () => {
+    const orderId = await orderOfRolls(1);
+    const first = await payer.post(`/api/orders/${orderId}/checkout`).expect(201);
+    const firstSession = sessionOf(first.body.checkoutUrl as string);
+    // marked declined here while the customer was still paying it at the provider
+    await t.db
+      .updateTable('payments')
+      .set({ status: 'declined' })
+      .where('id', '=', first.body.payment.id)
+      .execute();
+    const second = await payer.post(`/api/orders/${orderId}/checkout`);
+    expect(await pay(sessionOf(second.body.checkoutUrl as string))).toBe('paid');
+    expect(await pay(firstSession)).toBe('paid-surplus-refunded');
+    const list = await payer.get(`/api/orders/${orderId}/payments`).expect(200);
+    expect(list.body.payments.map((p: { status: string }) => p.status)).toEqual(['refunded', 'paid']);
+    expect(list.body.balance).toMatchObject({ paidMinor: rollMinor, dueMinor: 0 });
+  });
+});
+
 describe('rolls added after paying', () => {
   it('leave a balance that checkout charges exactly, and marking ready waits for it', async () => {
     const { orderId } = await paidOrder(1);
@@ -329,5 +349,50 @@ describe('refunds', () => {
       .where('payment_id', '=', paymentId)
       .execute();
     expect(refunds).toMatchObject([{ status: 'failed', failure: 'Refund amount must be between 1 and 0.' }]);
+  });
+
+  it('left without an answer are asked again with the same key before the next, so none is refunded twice', async () => {
+    const { paymentId, sessionId } = await paidOrder(1);
+    const intent = fake.sessions.get(sessionId)!.payment_intent!;
+    // the server stopped after the provider refunded 4.00 and before the answer was recorded
+    const iso = t.clock.now().toISOString();
+    const held = await t.db
+      .insertInto('payment_refunds')
+      .values({
+        payment_id: paymentId,
+        amount_minor: 400,
+        reason: 'requested',
+        status: 'pending',
+        provider_refund_id: null,
+        failure: null,
+        requested_by: null,
+        created_at: iso,
+        updated_at: iso,
+      })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    const sdk = new Stripe(secretKey, {
+      host: '127.0.0.1',
+      port: Number(new URL(fake.url).port),
+      protocol: 'http',
+    });
+    await sdk.refunds.create(
+      { payment_intent: intent, amount: 400 },
+      { idempotencyKey: `refund-${intent}-${held.id}` },
+    );
+    // what is held counts against what is left
+    expect((await manager.post(`/api/payments/${paymentId}/refund`, { amountMinor: 1700 })).status).toBe(409);
+    const res = await manager.post(`/api/payments/${paymentId}/refund`, { amountMinor: 500 }).expect(200);
+    expect(res.body.payment).toMatchObject({ refundedMinor: 900, status: 'partly-refunded' });
+    expect(fake.sessions.get(sessionId)?.refunded).toBe(900);
+    const refunds = await t.db
+      .selectFrom('payment_refunds')
+      .selectAll()
+      .where('payment_id', '=', paymentId)
+      .execute();
+    expect(refunds.map((r) => [r.amount_minor, r.status])).toEqual([
+      [400, 'succeeded'],
+      [500, 'succeeded'],
+    ]);
   });
 });
