@@ -25,33 +25,7 @@ afterAll(() => t.close());
 // the test negatives have a rebate of unexposed film along the top 4 rows (synth-command's 6 %, at least 4 px)
 const rebate = { x: 8, y: 0, width: 20, height: 3 };
 
-describe('film base by hand', () => {
-  it('refuses a rectangle past the edge of the scan, naming the field', async () => {
-    const res = await operator.send('put', `/api/frames/${frame}/base`, {
-      mode: 'region',
-      region: { x: 90, y: 0, width: 10, height: 3 },
-    });
-    expect(res.status).toBe(422);
-    expect(res.body.errors).toEqual([
-      { path: 'body.region.width', message: "x + width is 100, past the scan's width of 96 pixels" },
-    ]);
-  });
-
-  it('samples a frame’s base in a drawn rectangle, and goes back to automatic', async () => {
-    const drawn = await operator.send('put', `/api/frames/${frame}/base`, { mode: 'region', region: rebate });
-    expect(drawn.status).toBe(200);
-    expect(drawn.body.base).toMatchObject({ mode: 'region', region: rebate });
-    expect(drawn.body.base.measured.confidence).toBeGreaterThan(0);
-    const auto = await operator.send('put', `/api/frames/${frame}/base`, { mode: 'auto' });
-    expect(auto.body.base).toMatchObject({ mode: 'auto', region: null });
-    const audit = await t.db
-      .selectFrom('audit_log')
-      .select('action')
-      .where('action', '=', 'frame-base-changed')
-      .execute();
-    expect(audit).toHaveLength(2);
-  });
-
+describe('roll base by hand', () => {
   it('sets a roll base from a rectangle on one of its frames, and refuses a frame of another roll', async () => {
     const res = await operator.send('put', `/api/rolls/${roll}/base`, {
       mode: 'region',

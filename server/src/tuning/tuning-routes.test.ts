@@ -1,27 +1,9 @@
-import { workingNegativeHeaders, type RollTuning } from '@clearbase/contracts';
-import {
-  exposeNegative,
-  greySteps,
-  LINEAR_SCANNER,
-  measureFrameLevels,
-  pickNeutral,
-  POLYCLEAR_200,
-  profileForStock,
-  type Rgb,
-} from '@clearbase/inversion';
-import type { Response } from 'supertest';
+import type { RollTuning } from '@clearbase/contracts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addTestCatalogue, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
-import { createFileStore } from '../files/file-store';
-import { frameNegative } from '../frames/frame-negative';
-import { measureLevels } from '../inversion-pool/invert-negative-file';
 import { downsampleNegative } from './working-negative';
-import {
-  decodeWorkingNegative,
-  encodeWorkingNegative,
-  workingNegativeCacheOf,
-} from './working-negative-cache';
+import { decodeWorkingNegative, encodeWorkingNegative } from './working-negative-cache';
 
 let t: TestApp;
 let operator: Client;
@@ -29,13 +11,6 @@ let customer: Client;
 let order: number;
 let roll: number;
 let frames: number[];
-
-/** Collects a binary body as a Buffer. */
-const binary = (res: Response, done: (err: Error | null, body: Buffer) => void) => {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => done(null, Buffer.concat(chunks)));
-};
 
 beforeAll(async () => {
   t = await createTestApp();
@@ -77,85 +52,7 @@ describe('tuning sheet', () => {
   });
 });
 
-describe('working negative', () => {
-  it('sends raw 16-bit RGB with its size, base, where the base came from and the levels of the full scan', async () => {
-    const res = await operator
-      .get(`/api/frames/${frames[0]}/working-negative`)
-      .buffer(true)
-      .parse(binary)
-      .expect(200);
-    const width = Number(res.headers[workingNegativeHeaders.width.toLowerCase()]);
-    const height = Number(res.headers[workingNegativeHeaders.height.toLowerCase()]);
-    expect([width, height]).toEqual([96, 64]);
-    expect((res.body as Buffer).length).toBe(width * height * 3 * 2);
-    const base = String(res.headers[workingNegativeHeaders.base.toLowerCase()]).split(',').map(Number);
-    expect(base.every((b) => b > 0 && b <= 1)).toBe(true);
-    expect(res.headers[workingNegativeHeaders.baseSource.toLowerCase()]).toBe('frame');
-    expect(res.headers[workingNegativeHeaders.scanSize.toLowerCase()]).toBe('96x64');
-    const levels = JSON.parse(String(res.headers[workingNegativeHeaders.levels.toLowerCase()]));
-    expect(levels.channelMeans).toHaveLength(3);
-    expect(levels.whiteLogExposure).toBeGreaterThan(levels.blackLogExposure);
-  });
-
-  it('is made once per scan: requests together share one making, later ones read it from the store', async () => {
-    const cache = workingNegativeCacheOf(createFileStore(t.config.dataDir));
-    const get = () =>
-      operator.get(`/api/frames/${frames[1]}/working-negative`).buffer(true).parse(binary).expect(200);
-    const before = cache.made;
-    const [a, b] = await Promise.all([get(), get()]);
-    expect(cache.made).toBe(before + 1);
-    const c = await get();
-    expect(cache.made).toBe(before + 1);
-    expect((b.body as Buffer).equals(a.body as Buffer)).toBe(true);
-    expect((c.body as Buffer).equals(a.body as Buffer)).toBe(true);
-    expect(c.headers[workingNegativeHeaders.levels.toLowerCase()]).toBe(
-      a.headers[workingNegativeHeaders.levels.toLowerCase()],
-    );
-  });
-
-  it('sends the levels of the full scan, as the roll job measures them', async () => {
-    const res = await operator
-      .get(`/api/frames/${frames[0]}/working-negative`)
-      .buffer(true)
-      .parse(binary)
-      .expect(200);
-    const sheet = (await operator.get(`/api/rolls/${roll}/tuning`).expect(200)).body as RollTuning;
-    const frame = (await t.db
-      .selectFrom('frames')
-      .selectAll()
-      .where('id', '=', frames[0]!)
-      .executeTakeFirst())!;
-    const scan = await frameNegative(t.db, createFileStore(t.config.dataDir), frame, 1e8);
-    const base = String(res.headers[workingNegativeHeaders.base.toLowerCase()]).split(',').map(Number);
-    const full = measureLevels(
-      scan,
-      { profile: sheet.profile, scanner: sheet.scanner, render: 'print' },
-      { rgb: base as Rgb, region: [0, 0, 0, 0], confidence: 1 },
-    );
-    expect(JSON.parse(String(res.headers[workingNegativeHeaders.levels.toLowerCase()]))).toEqual(full);
-  });
-
-  it('measures the base of a frame that has none on file from its full scan', async () => {
-    const stored = await t.db
-      .selectFrom('frames')
-      .select('base_measured')
-      .where('id', '=', frames[1]!)
-      .executeTakeFirst();
-    await t.db.updateTable('frames').set({ base_measured: null }).where('id', '=', frames[1]!).execute();
-    try {
-      const res = await operator
-        .get(`/api/frames/${frames[1]}/working-negative`)
-        .buffer(true)
-        .parse(binary)
-        .expect(200);
-      expect(res.headers[workingNegativeHeaders.baseSource.toLowerCase()]).toBe('frame');
-      const base = String(res.headers[workingNegativeHeaders.base.toLowerCase()]).split(',').map(Number);
-      expect(base).toEqual((JSON.parse(stored!.base_measured!) as { rgb: number[] }).rgb);
-    } finally {
-      await t.db.updateTable('frames').set(stored!).where('id', '=', frames[1]!).execute();
-    }
-  });
-
+describe('working negative store', () => {
   it('reads back what it stores, and takes other bytes for no working negative', () => {
     const working = { width: 2, height: 1, data: Uint16Array.from([1, 2, 3, 4, 5, 65535]) };
     const sample = { width: 1, height: 1, data: Uint16Array.from([7, 8, 9]) };
@@ -176,57 +73,5 @@ describe('working negative', () => {
     // block of pixels 0, 1, 4, 5 → red samples 0, 300, 1200, 1500
     expect(small.data[0]).toBe(750);
     expect(downsampleNegative({ width: 4, height: 2, data }, 1500).data).toBe(data);
-  });
-});
-
-describe('cast and exposure steps saved on a frame', () => {
-  it('takes a neutral pick rounded to whole printer points and refuses the raw correction, naming the axis', async () => {
-    const profile = {
-      ...profileForStock(POLYCLEAR_200),
-      balance: { cyanRed: 0, magentaGreen: 6.4, yellowBlue: 0 },
-    };
-    const negative = exposeNegative(greySteps(4, 0.05, 0.8, 12), {
-      stock: POLYCLEAR_200,
-      scanner: LINEAR_SCANNER,
-    });
-    const base = negative.truth.base;
-    const levels = measureFrameLevels(
-      { profile, scanner: LINEAR_SCANNER, base, render: 'print', outputBits: 8 },
-      negative,
-    );
-    const pick = pickNeutral(negative, negative.truth.frame, {
-      profile,
-      scanner: LINEAR_SCANNER,
-      base,
-      midLogExposure: levels.midLogExposure,
-      render: 'print',
-      outputBits: 8,
-    });
-    expect(Number.isInteger(pick.correction.magentaGreen)).toBe(false);
-    const raw = await operator.send('put', `/api/frames/${frames[1]}/adjustments`, {
-      balance: pick.correction,
-    });
-    expect(raw.status).toBe(400);
-    expect(raw.headers['content-type']).toMatch(/application\/problem\+json/);
-    expect(raw.body.errors).toContainEqual({
-      path: 'body.balance.magentaGreen',
-      message: 'Use whole printer points',
-    });
-    const saved = await operator
-      .send('put', `/api/frames/${frames[1]}/adjustments`, { balance: pick.wholePoints })
-      .expect(200);
-    expect(saved.body.adjustments.balance).toEqual(pick.wholePoints);
-  });
-
-  it('refuses an exposure or a point shift off the 1/6-stop steps, naming the field', async () => {
-    const res = await operator.send('put', `/api/frames/${frames[1]}/adjustments`, {
-      exposureStops: 0.25,
-      whitePointStops: 0.2,
-    });
-    expect(res.status).toBe(400);
-    expect(res.body.errors).toEqual([
-      { path: 'body.exposureStops', message: 'Use steps of 1/6 stop' },
-      { path: 'body.whitePointStops', message: 'Use steps of 1/6 stop' },
-    ]);
   });
 });
