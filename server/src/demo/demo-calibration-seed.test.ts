@@ -12,7 +12,7 @@ import {
   demoCalibrationStockName,
 } from './demo-calibration-seed';
 import { demoCalibrationLayout } from './demo-calibration-layout';
-import { catalogueSeedStep } from '../profiles/demo-catalogue-seed';
+import { catalogueSeedStep } from './demo-catalogue-seed';
 import { seedDemo } from './seed';
 
 let t: TestApp;

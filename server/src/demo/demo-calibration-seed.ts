@@ -17,7 +17,7 @@ import { recordFile } from '../files/file-repository';
 import { createFileStore } from '../files/file-store';
 import { findStockByName } from '../stocks/stock-repository';
 import { demoCalibrationFrame } from './demo-calibration-layout';
-import type { SeedStep } from './seed';
+import type { SeedStep } from './seed-step';
 
 /**
  * The demo stock a new coating batch of which was shot for calibration: one of the demo catalogue's stocks, with a

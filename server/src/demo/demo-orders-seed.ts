@@ -21,7 +21,7 @@ import { measureNegativeBase } from '../film-base/measure-film-base';
 import { insertJob, rollTarget } from '../jobs/job-repository';
 import { insertOrder } from '../orders/order-repository';
 import { currentPublishedVersion, insertRoll } from '../rolls/roll-repository';
-import type { SeedStep } from './seed';
+import type { SeedStep } from './seed-step';
 
 /** Size of the demo negatives: small, so seeding and the first inversion take a moment only (our choice). */
 const demoWidth = 480;

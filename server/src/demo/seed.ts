@@ -1,12 +1,12 @@
 import type { Role } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import { hashPassword } from '../auth/password-hash';
-import type { Clock } from '../clock';
 import type { Database } from '../db/database';
-import { catalogueSeedStep } from '../profiles/demo-catalogue-seed';
+import { catalogueSeedStep } from './demo-catalogue-seed';
 import { demoCalibrationSeedStep } from './demo-calibration-seed';
 import { demoOrdersSeedStep } from './demo-orders-seed';
 import { countUsers, insertUser } from '../users/user-repository';
+import type { SeedContext, SeedStep } from './seed-step';
 
 /** The shared password of every demo account. */
 export const demoPassword = 'clearbase-demo';
@@ -27,16 +27,6 @@ export const demoUsers: readonly { email: string; name: string; role: Role }[] =
   { email: 'ines.marrow@clearbase.test', name: 'Ines Marrow', role: 'customer' },
   { email: 'tobiah.quell@clearbase.test', name: 'Tobiah Quell', role: 'customer' },
 ];
-
-export interface SeedContext {
-  clock: Clock;
-}
-
-/** One step of the demo seed; steps run in order inside one transaction. */
-export interface SeedStep {
-  name: string;
-  run(db: Kysely<Database>, context: SeedContext): Promise<void>;
-}
 
 const labStep: SeedStep = {
   name: 'lab',

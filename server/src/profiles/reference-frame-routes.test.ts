@@ -1,23 +1,30 @@
-import { profileForStock, sceneLinearPixel, type Rgb } from '@clearbase/inversion';
-import request from 'supertest';
+import { profileForStock, sceneLinearPixel, type Matrix3, type Rgb } from '@clearbase/inversion';
+import request, { type Test } from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { StockRow } from '../db/database';
 import { signInRoles } from '../test-support/sign-in-roles';
 import { tintedTestStock } from '../test-support/tinted-test-stock';
 import { createTestApp, type Client, type TestApp } from '../test-support/test-app';
-import { createReferenceNegativeCache, filmStockFor, makeReferenceNegative } from './demo-reference-frames';
+import {
+  filmStockFor,
+  makeReferenceNegative,
+  REFERENCE_SIZE,
+  type ReferenceFilm,
+} from './reference-negative';
+import { createReferenceNegativeCache } from './reference-negative-cache';
 
 let t: TestApp;
 let operator: Client;
 let customer: Client;
 let manager: Client;
 let draftId: number;
+let stockId: number;
 
 beforeAll(async () => {
   t = await createTestApp();
   ({ manager, operator, customer } = await signInRoles(t, ['manager', 'operator', 'customer']));
-  const stock = await manager.post('/api/stocks', tintedTestStock);
-  const created = await operator.post('/api/profiles', { stockId: stock.body.stock.id, name: 'House' });
+  stockId = (await manager.post('/api/stocks', tintedTestStock)).body.stock.id;
+  const created = await operator.post('/api/profiles', { stockId, name: 'House' });
   draftId = created.body.version.id;
 });
 afterAll(() => t.close());
@@ -28,6 +35,22 @@ const tinted: Pick<StockRow, 'name' | 'iso' | 'masked' | 'base_material'> = {
   masked: 0,
   base_material: 'tinted polyester',
 };
+// an invented crosstalk correction, unlike any the demo lab's profiles hold
+const ownCrosstalk: Matrix3 = [
+  [1.2, -0.15, -0.05],
+  [-0.04, 1.1, -0.06],
+  [-0.02, -0.2, 1.22],
+];
+const film: ReferenceFilm = { stock: tinted, crosstalk: ownCrosstalk };
+
+/** Collects a raw pixel reply's body as a Buffer. */
+function rawBody(res: Test) {
+  return res.buffer(true).parse((r, done) => {
+    const chunks: Buffer[] = [];
+    r.on('data', (c: Buffer) => chunks.push(c));
+    r.on('end', () => done(null, Buffer.concat(chunks)));
+  });
+}
 
 describe('reference negatives for the profile editor', () => {
   it('answers staff with raw 16-bit RGB of the version’s stock, its size and film base in headers', async () => {
@@ -70,9 +93,8 @@ describe('reference negatives for the profile editor', () => {
   it('makes each stock’s negative once and the same bytes every time', async () => {
     const size = { width: 44, height: 20 };
     const referenceFor = createReferenceNegativeCache(size);
-    const row = { ...tinted, id: 1 } as StockRow;
-    expect(await referenceFor(row)).toBe(await referenceFor(row));
-    expect(makeReferenceNegative(tinted, size).data).toEqual((await referenceFor(row)).data);
+    expect(await referenceFor(film)).toBe(await referenceFor(film));
+    expect(makeReferenceNegative(film, size).data).toEqual((await referenceFor(film)).data);
   });
 
   it('lets requests that arrive while a negative is made share that one making, and retries one that failed', async () => {
@@ -85,11 +107,10 @@ describe('reference negatives for the profile editor', () => {
       if (fail) throw new Error('worker gone');
       return makeReferenceNegative(stock, at);
     });
-    const row = { ...tinted, id: 2 } as StockRow;
-    await expect(Promise.all([referenceFor(row), referenceFor(row)])).rejects.toThrow('worker gone');
+    await expect(Promise.all([referenceFor(film), referenceFor(film)])).rejects.toThrow('worker gone');
     expect(makings).toBe(1);
     fail = false;
-    const [a, b] = await Promise.all([referenceFor(row), referenceFor(row)]);
+    const [a, b] = await Promise.all([referenceFor(film), referenceFor(film)]);
     expect(a).toBe(b);
     expect(makings).toBe(2);
   });
@@ -139,8 +160,8 @@ describe('reference negatives for the profile editor', () => {
 
   it('holds a neutral wedge that the stock’s matching profile renders grey', () => {
     const size = { width: 220, height: 100 };
-    const negative = makeReferenceNegative(tinted, size);
-    const profile = profileForStock(filmStockFor(tinted));
+    const negative = makeReferenceNegative(film, size);
+    const profile = profileForStock(filmStockFor(film));
     // the middle of the wedge's sixth step (of eleven), bottom tenth of the frame
     const x = 5 * 20 + 10,
       y = 95;
@@ -160,5 +181,53 @@ describe('reference negatives for the profile editor', () => {
     // neutral within 3 % between channels (grain of 0.004 D is about 1 %)
     const mean = (linear[0] + linear[1] + linear[2]) / 3;
     for (const v of linear) expect(Math.abs(v / mean - 1)).toBeLessThan(0.03);
+  });
+
+  it('keeps the negatives asked for most recently, making again one that was let go', async () => {
+    const size = { width: 44, height: 20 };
+    let makings = 0;
+    const referenceFor = createReferenceNegativeCache(
+      size,
+      async (f, at) => {
+        makings++;
+        return makeReferenceNegative(f, at);
+      },
+      2,
+    );
+    const other = (iso: number): ReferenceFilm => ({ stock: { ...tinted, iso }, crosstalk: ownCrosstalk });
+    await referenceFor(other(100));
+    await referenceFor(other(200));
+    await referenceFor(other(100));
+    await referenceFor(other(400));
+    expect(makings).toBe(3);
+    await referenceFor(other(100));
+    expect(makings).toBe(3);
+    await referenceFor(other(200));
+    expect(makings).toBe(4);
+  });
+
+  it('makes a real stock’s negative with its own profile’s crosstalk, even when a demo stock has the same name', async () => {
+    const parameters = (await operator.get(`/api/profile-versions/${draftId}`)).body.version.parameters;
+    const created = await operator.post('/api/profiles', {
+      stockId,
+      name: 'Own crosstalk',
+      parameters: { ...parameters, crosstalk: ownCrosstalk },
+    });
+    expect(created.status).toBe(201);
+    const res = await rawBody(
+      operator.agent.get(`/api/profile-versions/${created.body.version.id}/reference-negative`),
+    );
+    expect(res.status).toBe(200);
+    expect(res.headers['cache-control']).toBe('private, no-cache');
+    const row = {
+      name: tintedTestStock.name,
+      iso: 400,
+      masked: 0,
+      base_material: tintedTestStock.baseMaterial,
+    };
+    const own = makeReferenceNegative({ stock: row, crosstalk: ownCrosstalk }, REFERENCE_SIZE);
+    expect(
+      (res.body as Buffer).equals(Buffer.from(own.data.buffer, own.data.byteOffset, own.data.byteLength)),
+    ).toBe(true);
   });
 });

@@ -1,12 +1,13 @@
-import { referenceNegativeHeaders, staffRoles } from '@clearbase/contracts';
+import { referenceNegativeHeaders, staffRoles, type ProfileDocument } from '@clearbase/contracts';
 import { z } from 'zod';
 import { AppError } from '../errors/app-error';
 import type { RouteModule } from '../http/route-module';
 import { sendRawPixels } from '../http/send-raw-pixels';
 import { findStockById } from '../stocks/stock-repository';
-import { createReferenceNegativeCache, REFERENCE_SIZE } from './demo-reference-frames';
 import { generateReferenceNegative } from './generate-reference-negative';
 import { findProfileById, findVersionById } from './profile-repository';
+import { REFERENCE_SIZE } from './reference-negative';
+import { createReferenceNegativeCache } from './reference-negative-cache';
 
 const idParams = z.object({ id: z.coerce.number().int().positive('Expected a positive version id') });
 
@@ -24,7 +25,7 @@ export const referenceFrameRoutes: RouteModule = (api, { db }) => {
       path: '/api/profile-versions/:id/reference-negative',
       roles: staffRoles,
       params: idParams,
-      summary: 'A 16-bit reference negative of the version’s stock, for previews',
+      summary: 'A 16-bit reference negative of the version’s stock and crosstalk, for previews',
     },
     async (_req, res, { params }) => {
       const version = await findVersionById(db, params.id);
@@ -33,10 +34,12 @@ export const referenceFrameRoutes: RouteModule = (api, { db }) => {
       const profile = await findProfileById(db, version.profile_id);
       const stock = profile && (await findStockById(db, profile.stock_id));
       if (!stock) throw new AppError('stock-not-found', 404, `The stock of version ${params.id} is gone.`);
-      const negative = await referenceFor(stock);
+      const { crosstalk } = JSON.parse(version.parameters) as ProfileDocument;
+      const negative = await referenceFor({ stock, crosstalk });
       sendRawPixels(res, {
         pixels: negative.data,
-        cacheControl: 'private, max-age=3600',
+        // a draft's crosstalk may change under the same address; a published version's never does
+        cacheControl: version.status === 'draft' ? 'private, no-cache' : 'private, max-age=3600',
         headers: {
           [referenceNegativeHeaders.width]: String(negative.width),
           [referenceNegativeHeaders.height]: String(negative.height),

@@ -1,11 +1,11 @@
 import type { CreateScannerRequest, CreateStockRequest, ProfileDocument } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
-import type { SeedStep } from '../demo/seed';
 import { insertScanner } from '../scanners/scanner-repository';
 import { insertStock } from '../stocks/stock-repository';
-import { baseOf } from './default-profile-document';
-import { insertDraft, insertProfile } from './profile-repository';
+import { baseOf } from '../profiles/default-profile-document';
+import { insertDraft, insertProfile } from '../profiles/profile-repository';
+import type { SeedStep } from './seed-step';
 
 interface DemoStock {
   stock: CreateStockRequest;
@@ -17,7 +17,7 @@ interface DemoStock {
 }
 
 /** Invented stocks of the demo lab: two unmasked on polyester, one conventional masked stock for comparison. */
-export const demoStocks: readonly DemoStock[] = [
+const demoStocks: readonly DemoStock[] = [
   {
     stock: {
       name: 'Glasswing 400',
@@ -90,7 +90,7 @@ export const demoStocks: readonly DemoStock[] = [
 ];
 
 /** One input profile per kind of device, with invented demo values. */
-export const demoScanners: readonly CreateScannerRequest[] = [
+const demoScanners: readonly CreateScannerRequest[] = [
   {
     name: 'Copy stand, bench 1',
     kind: 'camera-rig',

@@ -1,6 +1,6 @@
 import { validateProfileDocument } from '@clearbase/contracts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { seedDemo } from '../demo/seed';
+import { seedDemo } from './seed';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 
 let t: TestApp;
