@@ -12,19 +12,15 @@ export interface NegativeSample {
   step: number;
 }
 
-/** Rows at the foot of the image decoded again to make sure the file decodes to its end: two sample rows. */
-const TAIL_STEPS = 2;
-
 /**
  * Decodes a negative whose header `readNegativeHeader` judged usable, keeping every `step`-th pixel each way (nearest
  * neighbour, no averaging), without ever holding the whole frame: libvips reads the file strip by strip in order
- * (`sequentialRead`), decoding every row on its way to the next sampled one, so a damaged strip anywhere fails the
- * read. The rows below the last sampled one are decoded in a second sequential pass that keeps only the last
- * `2 × step` rows, so a file cut off at its end fails too. In a tiled file every tile is touched while `step` is at
- * most 16 (tiles are multiples of 16 pixels each way), save a right-hand column of tiles narrower than half a step,
- * which only the second pass decodes, in its rows. Memory is the decoder's strip or tile buffer and the
- * sample (width × height × 6 / step² bytes), not the frame; a file whose pixels sit in one strip (or an interlaced
- * PNG) still makes the decoder hold that strip.
+ * (`sequentialRead`) and hands over every row at every `step`-th column, of which every `step`-th row is kept. Every
+ * row of the file is decoded, so a damaged strip anywhere, or a file cut off at its end, fails the read. In a tiled
+ * file every tile is decoded while `step` is at most 16 (tiles are multiples of 16 pixels each way, TIFF 6.0 section
+ * 15), save perhaps a right-hand column of tiles narrower than half a step. Memory is the decoder's strip or tile
+ * buffer and the rows at every `step`-th column (height × width × 6 / step bytes), not the frame; a file whose pixels
+ * sit in one strip (or an interlaced PNG) still makes the decoder hold that strip.
  *
  * `step` is an integer from 1 (every pixel: the whole frame) to the shorter side. Throws a RangeError for a bad step
  * and `ImageInputError` with code `truncated` when the pixels do not decode.
@@ -44,36 +40,46 @@ export async function sampleNegative(
       `Expected integer between 1 and ${Math.min(width, height)} for step but received ${step} of type ${typeof step}`,
     );
   }
-  const decoder = () =>
-    sharp(path, { limitInputPixels: width * height, failOn: 'error', ignoreIcc: true, sequentialRead: true })
-      .removeAlpha()
-      .toColourspace(bitDepth === 16 ? 'rgb16' : 'srgb');
-  const depth = bitDepth === 16 ? 'ushort' : 'uchar';
-  const sampled = { width: Math.floor(width / step), height: Math.floor(height / step) };
+  const decoder = sharp(path, {
+    limitInputPixels: width * height,
+    failOn: 'error',
+    ignoreIcc: true,
+    sequentialRead: true,
+  })
+    .removeAlpha()
+    .toColourspace(bitDepth === 16 ? 'rgb16' : 'srgb');
+  const columns = Math.floor(width / step);
+  // Every row at every step-th column: the rows come out whole, so none of the file's is left undecoded.
+  const pipeline =
+    step === 1
+      ? decoder
+      : decoder.resize({ width: columns, height, kernel: 'nearest', fit: 'fill', fastShrinkOnLoad: false });
   let pixels: Buffer;
   try {
-    const pipeline =
-      step === 1
-        ? decoder()
-        : decoder().resize({ ...sampled, kernel: 'nearest', fit: 'fill', fastShrinkOnLoad: false });
-    const { data, info } = await pipeline.raw({ depth }).toBuffer({ resolveWithObject: true });
-    if (info.channels !== 3 || info.width !== sampled.width || info.height !== sampled.height) {
+    const { data, info } = await pipeline
+      .raw({ depth: bitDepth === 16 ? 'ushort' : 'uchar' })
+      .toBuffer({ resolveWithObject: true });
+    if (info.channels !== 3 || info.width !== columns || info.height !== height) {
       throw new Error(`decoded ${info.width}x${info.height}x${info.channels}`);
     }
     pixels = data;
-    if (step > 1) {
-      const rows = Math.min(height, TAIL_STEPS * step);
-      await decoder()
-        .extract({ left: 0, top: height - rows, width, height: rows })
-        .raw({ depth })
-        .toBuffer();
-    }
   } catch (cause) {
     throw damagedImageError(format, cause);
   }
-  const samples = sampled.width * sampled.height * 3;
-  const data = new Uint16Array(samples);
-  if (bitDepth === 16) new Uint8Array(data.buffer).set(pixels.subarray(0, samples * 2));
-  else for (let i = 0; i < samples; i++) data[i] = pixels[i]! * 257;
-  return { ...sampled, data, step };
+  const rows = Math.floor(height / step);
+  const rowSamples = columns * 3;
+  const data = new Uint16Array(rows * rowSamples);
+  if (bitDepth === 16) {
+    const bytes = new Uint8Array(data.buffer);
+    for (let j = 0; j < rows; j++) {
+      const from = j * step * rowSamples * 2;
+      bytes.set(pixels.subarray(from, from + rowSamples * 2), j * rowSamples * 2);
+    }
+  } else {
+    for (let j = 0; j < rows; j++) {
+      const from = j * step * rowSamples;
+      for (let i = 0; i < rowSamples; i++) data[j * rowSamples + i] = pixels[from + i]! * 257;
+    }
+  }
+  return { width: columns, height: rows, data, step };
 }
