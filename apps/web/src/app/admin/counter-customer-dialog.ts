@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
 import {
   MatDialogActions,
@@ -8,10 +8,9 @@ import {
   MatDialogRef,
   MatDialogTitle,
 } from '@angular/material/dialog';
-import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
-import { MatInput } from '@angular/material/input';
 import type { CounterCustomerRequest, UserRecord } from '@clearbase/contracts';
-import { fieldErrorText } from '../forms/field-error-text';
+import { AccountField } from '../forms/account-field';
+import { accountValidators } from '../forms/account-validators';
 import { FormSubmission } from '../forms/form-submission';
 import { SubmissionProblem } from '../forms/submission-problem';
 import { CustomersApi } from './customers-api';
@@ -30,11 +29,7 @@ import { CustomersApi } from './customers-api';
     MatDialogActions,
     MatDialogClose,
     MatButton,
-    MatFormField,
-    MatLabel,
-    MatError,
-    MatHint,
-    MatInput,
+    AccountField,
   ],
   templateUrl: './counter-customer-dialog.html',
   styleUrl: './create-user-dialog.scss',
@@ -44,23 +39,13 @@ export class CounterCustomerDialog {
   private readonly api = inject(CustomersApi);
   private readonly ref = inject<MatDialogRef<CounterCustomerDialog, UserRecord>>(MatDialogRef);
 
-  // 120 and 254 characters: the server's limits (libs/contracts customers/signup.ts, auth/user.ts)
   protected readonly form = inject(NonNullableFormBuilder).group({
-    name: ['', [Validators.required, Validators.maxLength(120)]],
-    email: ['', [Validators.required, Validators.email, Validators.maxLength(254)]],
+    name: ['', accountValidators.name],
+    email: ['', accountValidators.email],
   });
   protected readonly submission = new FormSubmission(this.form);
   protected readonly busy = this.submission.busy;
   protected readonly created = signal<UserRecord | null>(null);
-
-  protected errorOf(field: 'name' | 'email'): string {
-    const errors = this.form.controls[field].errors;
-    if (errors?.['server']) return fieldErrorText(errors);
-    if (errors?.['required'])
-      return field === 'name' ? 'Enter the customer’s name' : 'Enter an e-mail address';
-    if (errors?.['email']) return 'Enter a valid e-mail address';
-    return fieldErrorText(errors);
-  }
 
   protected submit(): void {
     if (!this.submission.ready()) return;

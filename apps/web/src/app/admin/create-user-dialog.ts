@@ -8,19 +8,16 @@ import {
   MatDialogRef,
   MatDialogTitle,
 } from '@angular/material/dialog';
-import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
+import { MatFormField, MatLabel } from '@angular/material/form-field';
 import { MatIcon } from '@angular/material/icon';
-import { MatInput } from '@angular/material/input';
 import { MatOption, MatSelect } from '@angular/material/select';
 import type { CreateUserRequest, Role, UserRecord } from '@clearbase/contracts';
-import { fieldErrorText } from '../forms/field-error-text';
+import { AccountField } from '../forms/account-field';
+import { accountValidators } from '../forms/account-validators';
 import { FormSubmission } from '../forms/form-submission';
 import { SubmissionProblem } from '../forms/submission-problem';
 import { roleChoices, roleLabel } from '../shell/role-label';
 import { UsersApi } from './users-api';
-
-// The server's password rule (libs/contracts auth/user.ts): 10 to 200 characters.
-const minPasswordLength = 10;
 
 /**
  * Creates a user of any role. Without a password the server makes a temporary one; the dialog shows it
@@ -38,12 +35,10 @@ const minPasswordLength = 10;
     MatButton,
     MatFormField,
     MatLabel,
-    MatError,
-    MatHint,
-    MatInput,
     MatSelect,
     MatOption,
     MatIcon,
+    AccountField,
   ],
   templateUrl: './create-user-dialog.html',
   styleUrl: './create-user-dialog.scss',
@@ -55,27 +50,16 @@ export class CreateUserDialog {
 
   protected readonly roles = roleChoices;
   protected readonly roleLabel = roleLabel;
-  protected readonly minPasswordLength = minPasswordLength;
   protected readonly form = inject(NonNullableFormBuilder).group({
-    email: ['', [Validators.required, Validators.email, Validators.maxLength(254)]],
-    name: ['', [Validators.required, Validators.maxLength(120)]],
+    email: ['', accountValidators.email],
+    name: ['', accountValidators.name],
     role: ['customer' as Role, [Validators.required]],
-    password: ['', [Validators.minLength(minPasswordLength), Validators.maxLength(200)]],
+    password: ['', accountValidators.optionalNewPassword],
   });
   protected readonly submission = new FormSubmission(this.form);
   protected readonly busy = this.submission.busy;
   protected readonly created = signal<{ user: UserRecord; temporaryPassword: string } | null>(null);
   protected readonly copied = signal(false);
-
-  /** The message a field shows under it; the server's own words win. */
-  protected errorOf(field: 'email' | 'name' | 'password'): string {
-    const errors = this.form.controls[field].errors;
-    if (errors?.['server']) return fieldErrorText(errors);
-    if (field === 'email' && errors?.['email']) return 'Enter a valid e-mail address';
-    if (errors?.['minlength']) return `Use at least ${minPasswordLength} characters`;
-    if (errors?.['required']) return field === 'email' ? 'Enter an e-mail address' : 'Enter a name';
-    return fieldErrorText(errors);
-  }
 
   protected submit(): void {
     if (!this.submission.ready()) return;

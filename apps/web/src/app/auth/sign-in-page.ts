@@ -1,12 +1,10 @@
 import { ChangeDetectionStrategy, Component, inject, input, signal, viewChild } from '@angular/core';
-import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { Router, RouterLink } from '@angular/router';
 import { MatButton } from '@angular/material/button';
-import { MatError, MatFormField, MatLabel, MatSuffix } from '@angular/material/form-field';
-import { MatIcon } from '@angular/material/icon';
-import { MatIconButton } from '@angular/material/button';
-import { MatInput } from '@angular/material/input';
 import { MatProgressBar } from '@angular/material/progress-bar';
+import { AccountField } from '../forms/account-field';
+import { accountValidators } from '../forms/account-validators';
 import { readProblem } from '../problem/read-problem';
 import { safeReturnUrl } from './safe-return-url';
 import { Session } from './session';
@@ -14,19 +12,7 @@ import { Session } from './session';
 /** The sign-in page: e-mail and password, the server's reason when it says no, then back to where the user was. */
 @Component({
   selector: 'cb-sign-in-page',
-  imports: [
-    ReactiveFormsModule,
-    RouterLink,
-    MatButton,
-    MatIconButton,
-    MatFormField,
-    MatLabel,
-    MatError,
-    MatSuffix,
-    MatInput,
-    MatIcon,
-    MatProgressBar,
-  ],
+  imports: [ReactiveFormsModule, RouterLink, MatButton, MatProgressBar, AccountField],
   templateUrl: './sign-in-page.html',
   styleUrl: './sign-in-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -39,13 +25,12 @@ export class SignInPage {
   readonly returnUrl = input<string | undefined>();
 
   protected readonly form = inject(NonNullableFormBuilder).group({
-    email: ['', [Validators.required, Validators.email, Validators.maxLength(254)]],
-    password: ['', [Validators.required, Validators.maxLength(200)]],
+    email: ['', accountValidators.email],
+    password: ['', accountValidators.password],
   });
   protected readonly busy = signal(false);
   protected readonly problem = signal<string | null>(null);
   protected readonly fieldErrors = signal<Readonly<Record<string, string>>>({});
-  protected readonly showPassword = signal(false);
   private readonly formDirective = viewChild.required(FormGroupDirective);
 
   protected submit(): void {

@@ -1,16 +1,16 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
-import { MatError, MatFormField, MatLabel } from '@angular/material/form-field';
-import { MatInput } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
+import { AccountField } from '../forms/account-field';
+import { accountValidators } from '../forms/account-validators';
 import { readProblem } from '../problem/read-problem';
 import { SignupApi } from '../signup/signup-api';
 
 /** Asks for a link to choose a new password; the answer is the same whether the address has an account or not. */
 @Component({
   selector: 'cb-forgot-password-page',
-  imports: [ReactiveFormsModule, RouterLink, MatButton, MatFormField, MatLabel, MatError, MatInput],
+  imports: [ReactiveFormsModule, RouterLink, MatButton, AccountField],
   templateUrl: './forgot-password-page.html',
   styleUrl: '../signup/public-card.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -18,7 +18,7 @@ import { SignupApi } from '../signup/signup-api';
 export class ForgotPasswordPage {
   private readonly api = inject(SignupApi);
   protected readonly form = inject(NonNullableFormBuilder).group({
-    email: ['', [Validators.required, Validators.email, Validators.maxLength(254)]],
+    email: ['', accountValidators.email],
   });
   protected readonly busy = signal(false);
   protected readonly sent = signal<string | null>(null);

@@ -1,10 +1,9 @@
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
-import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
-import { MatInput } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
-import { maxPasswordLength, minPasswordLength, sameAsNew } from '../forms/new-password-rules';
+import { AccountField } from '../forms/account-field';
+import { accountValidators } from '../forms/account-validators';
 import { readProblem } from '../problem/read-problem';
 import { fieldProblem } from '../signup/field-problem';
 import { SignupApi } from '../signup/signup-api';
@@ -12,7 +11,7 @@ import { SignupApi } from '../signup/signup-api';
 /** Where a reset or welcome link lands: choose a new password, once. */
 @Component({
   selector: 'cb-reset-password-page',
-  imports: [ReactiveFormsModule, RouterLink, MatButton, MatFormField, MatLabel, MatError, MatHint, MatInput],
+  imports: [ReactiveFormsModule, RouterLink, MatButton, AccountField],
   templateUrl: './reset-password-page.html',
   styleUrl: '../signup/public-card.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -21,15 +20,11 @@ export class ResetPasswordPage {
   private readonly api = inject(SignupApi);
   /** Bound from the query string (`?token=…`). */
   readonly token = input<string | undefined>();
-  protected readonly minPasswordLength = minPasswordLength;
   protected readonly fieldProblem = fieldProblem;
 
   protected readonly form = inject(NonNullableFormBuilder).group({
-    newPassword: [
-      '',
-      [Validators.required, Validators.minLength(minPasswordLength), Validators.maxLength(maxPasswordLength)],
-    ],
-    repeatPassword: ['', [Validators.required, sameAsNew]],
+    newPassword: ['', accountValidators.newPassword],
+    repeatPassword: ['', accountValidators.repeatPassword],
   });
   protected readonly busy = signal(false);
   protected readonly problem = signal<string | null>(null);
