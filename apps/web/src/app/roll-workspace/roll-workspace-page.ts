@@ -1,6 +1,7 @@
 import {
   ChangeDetectionStrategy,
   Component,
+  computed,
   effect,
   inject,
   input,
@@ -55,6 +56,30 @@ export class RollWorkspacePage implements LeavesWithCare {
   protected readonly keys = tuningKeys.help;
   protected readonly helpOpen = signal(false);
   private readonly viewer = viewChild(FrameViewer);
+  /** The header's icon buttons: undo, redo and the keys' help. */
+  protected readonly tools = computed(() => [
+    {
+      icon: 'undo',
+      label: 'Undo',
+      title: 'Undo (Ctrl Z)',
+      off: !this.session.canUndo(),
+      run: () => this.session.undo(),
+    },
+    {
+      icon: 'redo',
+      label: 'Redo',
+      title: 'Redo (Ctrl Shift Z)',
+      off: !this.session.canRedo(),
+      run: () => this.session.redo(),
+    },
+    {
+      icon: 'keyboard',
+      label: 'Keyboard keys',
+      title: 'Keys (?)',
+      off: false,
+      run: () => this.helpOpen.set(true),
+    },
+  ]);
 
   readonly leaveQuestion = 'This roll has unsaved tuning. Leave and lose it?';
 
