@@ -17,3 +17,4 @@ export * from './calibration/index';
 export * from './neutral-picker';
 export * from './capture-primaries';
 export * from './sum-adjustments';
+export * from './metered-exposure';
