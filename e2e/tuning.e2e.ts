@@ -197,7 +197,7 @@ describe('tuning a roll', () => {
     // the canvas has a size before the first rendering: the picker needs the negative and its preview in
     await page.getByTestId('preview-ms').waitFor({ timeout: 30_000 });
     await page.getByText('Toggle', { exact: true }).click();
-    await browser.screenshot('roll-workspace-before-pick');
+    await browser.screenshot('tuning-before-pick');
 
     await page.getByTestId('neutral-picker').click();
     const box = (await canvas.boundingBox())!;
@@ -214,7 +214,7 @@ describe('tuning a roll', () => {
     const mg = Number(await page.getByTestId('value-magentaGreen').innerText());
     const cr = Number(await page.getByTestId('value-cyanRed').innerText());
     expect(Math.abs(mg - cr - 8)).toBeLessThanOrEqual(1);
-    await browser.screenshot('roll-workspace-picked');
+    await browser.screenshot('tuning-picked');
 
     const since = (await api('GET', `/api/rolls/${rollId}/tuning`)).body.frames[0].renderedAt as string;
     await page.getByTestId('save').click();
@@ -348,7 +348,7 @@ describe('tuning a roll', () => {
     }
     // the roll's cast was 8 points of magenta: the control takes out the same 8 points
     expect(Math.abs((await points()) - 8)).toBeLessThanOrEqual(1);
-    await browser.screenshot('roll-workspace-stepped');
+    await browser.screenshot('tuning-stepped');
 
     since = (await api('GET', `/api/rolls/${rollId}/tuning`)).body.frames[0].renderedAt as string;
     await page.getByTestId('save').click();
@@ -383,7 +383,7 @@ describe('tuning a roll', () => {
     // one image pixel per screen pixel
     expect(shown.width * ratio).toBeCloseTo(360, 0);
     expect(await page.getByTestId('actual-pixels-caption').innerText()).toContain('360×240');
-    await browser.screenshot('roll-workspace-actual-pixels');
+    await browser.screenshot('tuning-actual-pixels');
     await page.keyboard.press('Escape');
     await expect.poll(() => page.getByTestId('actual-pixels-view').count()).toBe(0);
   });

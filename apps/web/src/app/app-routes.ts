@@ -88,7 +88,7 @@ export const appRoutes: Routes = [
         canActivate: [roleGuard],
         data: { roles: staffRoles },
         canDeactivate: [unsavedChangesGuard],
-        loadComponent: () => import('./roll-workspace/roll-workspace-page').then((m) => m.RollWorkspacePage),
+        loadComponent: () => import('./tuning/tuning-page').then((m) => m.TuningPage),
       },
       {
         path: 'rolls',

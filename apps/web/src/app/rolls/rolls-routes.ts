@@ -1,6 +1,6 @@
 import type { Routes } from '@angular/router';
 
-/** A roll's page; the tuning workspace adds its own child route beside it. Lab staff only (set on the parent). */
+/** A roll's page; the tuning screen adds its own route beside it. Lab staff only (set on the parent). */
 export const rollsRoutes: Routes = [
   {
     path: ':id',

@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import { RollWorkspacePage } from './roll-workspace-page';
+import { TuningPage } from './tuning-page';
 import {
   answerSave,
   flushNegative,
@@ -10,12 +10,12 @@ import {
   type TuningTest,
 } from './tuning-testing';
 
-let t: TuningTest<RollWorkspacePage>;
+let t: TuningTest<TuningPage>;
 const render = async (...frames: Parameters<typeof sheet>[0]) =>
-  (t = await renderTuning(RollWorkspacePage, sheet(frames), { opensItself: true }));
+  (t = await renderTuning(TuningPage, sheet(frames), { opensItself: true }));
 
 // the first test also pays for loading the page's modules, slow on a busy machine
-describe('RollWorkspacePage', { timeout: 20_000 }, () => {
+describe('TuningPage', { timeout: 20_000 }, () => {
   afterEach(() => t.backend.verify());
 
   it('loads the roll and its frames, and previews the first frame', async () => {

@@ -22,13 +22,13 @@ import { tuningKeys, type TuningKeyAction } from './tuning-keys';
 import { TuningSession } from './tuning-session';
 
 /**
- * Staff: the tuning workspace of one roll. The selected frame's working negative renders live in a worker at the
+ * Staff: the tuning screen of one roll. The selected frame's working negative renders live in a worker at the
  * server's levels, before (profile only) and after (with the roll's and the frame's adjustments); casts in whole
  * printer points, exposure in sixth stops, contrast; a neutral picker; undo and redo; saving renders on the server.
  * The page holds the session they share, the header, the keys and their help.
  */
 @Component({
-  selector: 'cb-roll-workspace-page',
+  selector: 'cb-tuning-page',
   imports: [
     RouterLink,
     MatButton,
@@ -40,15 +40,15 @@ import { TuningSession } from './tuning-session';
     FrameStrip,
   ],
   providers: [PreviewRenderer, TuningSession],
-  templateUrl: './roll-workspace-page.html',
-  styleUrl: './roll-workspace-page.scss',
+  templateUrl: './tuning-page.html',
+  styleUrl: './tuning-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
   host: {
     '(document:keydown)': 'onKey($event)',
     '(window:beforeunload)': 'holdUnload($event)',
   },
 })
-export class RollWorkspacePage implements LeavesWithCare {
+export class TuningPage implements LeavesWithCare {
   /** The roll id, from the route. */
   readonly id = input.required<string>();
 
