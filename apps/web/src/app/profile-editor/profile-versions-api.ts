@@ -54,7 +54,10 @@ export class ProfileVersionsApi {
     return this.http.get<ProfileDiff>(`/api/profile-versions/${from}/diff/${to}`);
   }
 
-  /** The version's stock's reference negative: raw little-endian 16-bit RGB, size and base in headers. */
+  /**
+   * The version's reference negative, its stock's film with the version's own crosstalk: raw little-endian 16-bit
+   * RGB, size and base in headers.
+   */
   referenceNegative(id: number): Observable<ReferenceNegative> {
     return this.http
       .get(`/api/profile-versions/${id}/reference-negative`, {
