@@ -39,7 +39,7 @@ export interface ReferenceFilm {
 
 /** Size of a reference negative: 1500 × 1000 is 1.5 megapixels, the size the live preview is meant for. */
 export const REFERENCE_SIZE = { width: 1500, height: 1000 } as const;
-// Density noise of fine-grained colour negative film at preview scale: invented demo value, from memory
+// Density noise of fine-grained colour negative film at preview scale: an invented value, from memory
 const referenceGrain = 0.004;
 // A fixed seed, so a film's reference negative is the same bytes on every start.
 const referenceSeed = 7;
