@@ -5,7 +5,7 @@ import type { Clock } from '../clock';
 import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
 import { findFrameById } from '../frames/frame-repository';
-import { loadFrameFor } from '../frames/frames-routes';
+import { loadFrameFor } from '../frames/frame-access';
 import { findOrderById, setOrderStatus } from '../orders/order-repository';
 import { recordOrderAudit } from '../orders/record-order-audit';
 import { findRollById } from '../rolls/roll-repository';
