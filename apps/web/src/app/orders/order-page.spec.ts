@@ -4,7 +4,7 @@ import { provideZonelessChangeDetection } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
-import type { OrderDetail, OrderReadiness, Payment, Role, User } from '@clearbase/contracts';
+import type { OrderBalance, OrderDetail, OrderReadiness, Payment, Role, User } from '@clearbase/contracts';
 import { Session } from '../auth/session';
 import { testStocks } from '../catalogue/catalogue-testing';
 import { testRollDetail } from '../rolls/roll-testing';
@@ -56,7 +56,10 @@ const paidPayment: Payment = {
   paidAt: '2026-11-20T09:06:00.000Z',
 };
 
-async function render(role: Role, staffAnswers: { readiness?: OrderReadiness; payments?: Payment[] } = {}) {
+async function render(
+  role: Role,
+  staffAnswers: { readiness?: OrderReadiness; payments?: Payment[]; balance?: OrderBalance } = {},
+) {
   TestBed.configureTestingModule({
     imports: [OrderPage],
     providers: [
@@ -78,7 +81,10 @@ async function render(role: Role, staffAnswers: { readiness?: OrderReadiness; pa
   if (role !== 'customer') {
     backend.expectOne('/api/scanners').flush({ scanners: [] });
     backend.expectOne('/api/orders/3/readiness').flush(staffAnswers.readiness ?? notReady);
-    backend.expectOne('/api/orders/3/payments').flush({ payments: staffAnswers.payments ?? [] });
+    backend.expectOne('/api/orders/3/payments').flush({
+      payments: staffAnswers.payments ?? [],
+      balance: staffAnswers.balance ?? { currency: 'EUR', priceMinor: 4300, paidMinor: 4300, dueMinor: 0 },
+    });
   }
   await fixture.whenStable();
   const root = fixture.nativeElement as HTMLElement;
@@ -225,6 +231,14 @@ describe('OrderPage', () => {
     (document.querySelector('[data-testid="confirm-cancel"]') as HTMLElement).click();
     await fixture.whenStable();
     backend.expectNone('/api/orders/3/ready');
+  });
+
+  it('shows staff what is left to pay once rolls were added after paying', async () => {
+    const { byId } = await render('operator', {
+      payments: [paidPayment],
+      balance: { currency: 'EUR', priceMinor: 14300, paidMinor: 4300, dueMinor: 10000 },
+    });
+    expect(byId('staff-payment-due')!.textContent).toContain('€100.00 left to pay of €143.00.');
   });
 
   it('shows staff the payment state; an operator may not refund', async () => {

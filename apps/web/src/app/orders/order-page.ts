@@ -8,7 +8,16 @@ import { MatMenu, MatMenuItem, MatMenuTrigger } from '@angular/material/menu';
 import { MatProgressBar } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import type { OrderDetail, OrderReadiness, OrderStatus, Payment, Roll, Scanner } from '@clearbase/contracts';
+import type {
+  OrderBalance,
+  OrderDetail,
+  OrderReadiness,
+  OrderStatus,
+  Payment,
+  PaymentListResponse,
+  Roll,
+  Scanner,
+} from '@clearbase/contracts';
 import { catchError, combineLatest, map, of, scan, startWith, Subject, switchMap } from 'rxjs';
 import { ConfirmDialog, type ConfirmDialogData } from '../admin/confirm-dialog';
 import { OrderReadinessApi } from '../admin/order-readiness-api';
@@ -170,18 +179,22 @@ export class OrderPage {
 
   /** Staff only: the order's payments; a customer's page has the payment panel instead. */
   protected readonly payments = signal<Payment[]>([]);
+  /** Staff only: what is left to pay, shown when something is (rolls added after paying, or nothing paid yet). */
+  protected readonly balance = signal<OrderBalance | null>(null);
 
   constructor() {
+    const none: PaymentListResponse | null = null;
     combineLatest([toObservable(this.id), toObservable(this.staff), this.reloads.pipe(startWith(undefined))])
       .pipe(
         switchMap(([id, staff]) =>
-          staff
-            ? this.paymentsApi.list(Number(id)).pipe(catchError(() => of<Payment[]>([])))
-            : of<Payment[]>([]),
+          staff ? this.paymentsApi.overview(Number(id)).pipe(catchError(() => of(none))) : of(none),
         ),
         takeUntilDestroyed(),
       )
-      .subscribe((list) => this.payments.set(list));
+      .subscribe((overview) => {
+        this.payments.set(overview?.payments ?? []);
+        this.balance.set(overview?.balance ?? null);
+      });
   }
 
   protected scannerName(roll: Roll): string {

@@ -8,10 +8,6 @@ import { map, type Observable } from 'rxjs';
 export class PaymentsApi {
   private readonly http = inject(HttpClient);
 
-  list(orderId: number): Observable<Payment[]> {
-    return this.overview(orderId).pipe(map((r) => r.payments));
-  }
-
   /** The order's payments with its balance: the price, what was paid towards it and what is left. */
   overview(orderId: number): Observable<PaymentListResponse> {
     return this.http.get<PaymentListResponse>(`/api/orders/${orderId}/payments`);
