@@ -19,8 +19,9 @@ export interface FinishedFrame {
 }
 
 /**
- * The frames of an order a customer receives: rendered (`done`), not excluded by the operator's review, with at
- * least one full-size output; in roll order, then frame order.
+ * The finished frames of an order: rendered (`done`), not excluded by the operator's review, with at least one
+ * full-size output; in roll order, then frame order. Staff get them all; a customer only those customerFileAccess
+ * lets through (approved, once the order is released).
  *
  * @example
  * const frames = await finishedFramesOfOrder(db, order.id);
