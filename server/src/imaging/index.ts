@@ -5,6 +5,8 @@ export {
   type NegativeImage,
   type ReadNegativeOptions,
 } from './read-negative';
+export { readNegativeHeader, type NegativeHeader } from './read-negative-header';
+export { sampleNegative, type NegativeSample } from './sample-negative';
 export {
   writePositive,
   encodePositive,

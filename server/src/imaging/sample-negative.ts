@@ -19,8 +19,10 @@ export interface NegativeSample {
  * row of the file is decoded, so a damaged strip anywhere, or a file cut off at its end, fails the read. In a tiled
  * file every tile is decoded while `step` is at most 16 (tiles are multiples of 16 pixels each way, TIFF 6.0 section
  * 15), save perhaps a right-hand column of tiles narrower than half a step. Memory is the decoder's strip or tile
- * buffer and the rows at every `step`-th column (height × width × 6 / step bytes), not the frame; a file whose pixels
- * sit in one strip (or an interlaced PNG) still makes the decoder hold that strip.
+ * buffer and the rows at every `step`-th column (height × width × 6 / step bytes), not the frame. libvips reads even a
+ * TIFF with all its rows in one strip a part at a time (10950 × 10950 at 16 bits in one deflate strip: 165 MB peak
+ * RSS, against 719 MB decoded), but it decodes an interlaced PNG whole (6000 × 6000: 311 MB against 122 MB for the
+ * same image not interlaced).
  *
  * `step` is an integer from 1 (every pixel: the whole frame) to the shorter side. Throws a RangeError for a bad step
  * and `ImageInputError` with code `truncated` when the pixels do not decode.

@@ -1,7 +1,7 @@
 import type { MeasuredBase, ScannerProfile } from '@clearbase/contracts';
 import { detectFilmBase } from '@clearbase/inversion';
 import { toMeasuredBase } from '../frames/measure-base';
-import type { NegativeSample } from '../imaging/sample-negative';
+import type { NegativeSample } from '../imaging/index';
 
 /**
  * Detects the film base on a sample of a frame (`sampleNegative`), with blocks of the size detection would use on the

@@ -1,7 +1,6 @@
 import type { MeasuredBase, ScannerProfile } from '@clearbase/contracts';
 import { baseBlockLayout } from '@clearbase/inversion';
-import { readNegativeHeader, type NegativeHeader } from '../imaging/read-negative-header';
-import { sampleNegative } from '../imaging/sample-negative';
+import { readNegativeHeader, sampleNegative, type NegativeHeader } from '../imaging/index';
 import { measureSampledBase } from './measure-sampled-base';
 import type { ValidationBudget } from './validation-budget';
 
@@ -23,7 +22,8 @@ export const MAX_SAMPLE_STEP = 16;
  * nothing decoded), then, within `budget`, the pixels are decoded strip by strip to the end of the file at the
  * spacing base detection samples them (`sampleNegative`, at most every 16th pixel), and the film base is detected on
  * that sample. The budget is charged the frame's decoded bytes (width × height × channels × bytes a sample): what the
- * decoder would hold if the file kept its pixels in one strip, so the bound holds whatever the file's layout.
+ * decoder holds for an interlaced PNG, which libvips decodes whole, so the bound holds whatever the file's layout;
+ * most files hold far less (see sample-negative.ts).
  *
  * Throws `ImageInputError` as `readNegativeHeader` and `sampleNegative` do (`too-many-pixels` before any decode and
  * without waiting for the budget, `truncated` for pixels that do not decode...).
