@@ -18,7 +18,13 @@ export const LUMINANCE_WEIGHTS: Rgb = [0.2126, 0.7152, 0.0722];
 export type InversionProfile = Pick<
   ProfileDocument,
   'curves' | 'crosstalk' | 'balance' | 'tone' | 'saturation' | 'capturePrimaries'
->;
+> & {
+  /**
+   * Exposure-space colour matrix, the film's recorded exposures (linear) → linear sRGB, fitted by calibration; when
+   * present it is the change of primaries and `capturePrimaries` is not used. Absent: as before.
+   */
+  exposureMatrix?: Matrix3 | undefined;
+};
 
 /**
  * Everything that determines how one frame inverts.
@@ -48,7 +54,8 @@ export interface ResolvedInversion {
   offset: Rgb;
   /**
    * Film's capture primaries → linear sRGB, applied to the recovered exposures (in linear light) before saturation
-   * and tone; null when the film records in sRGB primaries (the profile says nothing, or 'srgb').
+   * and tone: the profile's exposure-space matrix, else its named capture primaries; null when the film records in
+   * sRGB primaries (the profile says nothing, or 'srgb').
    */
   primaries: Matrix3 | null;
   saturation: number;
@@ -124,7 +131,7 @@ export function resolveInversion(params: InversionParams): ResolvedInversion {
     curves: [curve('red'), curve('green'), curve('blue')],
     crosstalk: profile.crosstalk,
     offset: [balance[0] + shift, balance[1] + shift, balance[2] + shift],
-    primaries: capturePrimariesToSrgb(profile.capturePrimaries),
+    primaries: profile.exposureMatrix ?? capturePrimariesToSrgb(profile.capturePrimaries),
     saturation: params.render === 'reference' ? 1 : profile.saturation,
     encode,
     encodeUnclipped,

@@ -2,27 +2,29 @@ import type { Balance, ProfileDocument, ScannerProfile } from '@clearbase/contra
 import { densityAboveBase } from '../density';
 import type { Region, RgbImage } from '../film-base';
 import { labD50ToLabD65, labD50ToLinearSrgb } from '../forward-model';
-import { D65_WHITE, xyzToLab } from '../lab';
-import { deltaE2000 } from '../delta-e';
 import type { MonotoneCurve } from '../monotone-curve';
 import { LOG_EXPOSURE_PER_STOP, ZERO_BALANCE } from '../printer-points';
-import { linearSrgbToXyz, multiply3, type Matrix3, type Rgb } from '../srgb';
+import { multiply3, type Matrix3, type Rgb } from '../srgb';
 import { MID_GREY } from '../tone-curve';
 import { bracketBalance, type BracketFrameBalance } from './bracket-balance';
 import {
-  BLANK_DENSITY,
+  CROSS_VALIDATION_GAP_LIMIT,
   MIN_BRACKET_FRAMES,
   NEUTRAL_CAST_LIMIT,
   RESIDUAL_LIMIT,
   type CalibrationWarning,
 } from './calibration-warning';
+import { fitChartColour } from './chart-colour-fit';
+import { chartDeltaE, type ChartDeltaE } from './chart-delta-e';
 import { fitCharacteristicCurve, type CharacteristicCurveFit } from './characteristic-curve-fit';
 import { chartGridFromCorners, chartGridFromRegion, type ChartGrid } from './chart-grid';
 import { CHART_NEUTRAL_INDICES, CHART_REFERENCE, type ChartReferencePatch } from './chart-reference';
+import { reproducePatch } from './colour-matrix-fit';
 import { fitCrosstalk, type CrosstalkFit } from './crosstalk-fit';
 import type { Point } from './homography';
 import { sampleRegion, type RegionSample, type SampleRegionOptions } from './sample-region';
 import { speedPoint, type SpeedPoint } from './speed-point';
+import { usableBrackets } from './usable-brackets';
 
 /** The stock a calibration builds a profile for. */
 export interface CalibrationStock {
@@ -42,6 +44,11 @@ export interface CalibrationMeasurements {
   brackets: { stops: number; sample: RegionSample }[];
   /** The chart's patches in reference order, each sampled. */
   chart: RegionSample[];
+  /**
+   * More frames of the same chart at other exposures (e.g. 2 stops over, 1 under), each patch sampled, with the
+   * stops they were shot at when known (their exposure is found from their neutral row either way).
+   */
+  moreCharts?: { samples: RegionSample[]; stops?: number }[];
   stock: CalibrationStock;
   /** Published chart values; default CHART_REFERENCE. */
   reference?: readonly ChartReferencePatch[];
@@ -56,34 +63,11 @@ export interface CalibrationInput {
   brackets: { image: RgbImage; stops: number; region: Region }[];
   /** The chart frame with its four corners (patch 1, 6, 24, 19 in that order) or an axis-aligned region. */
   chart: { image: RgbImage; corners?: readonly Point[]; region?: Region };
+  /** More frames of the same chart at other exposures, each with its corners or region and its stops if known. */
+  moreCharts?: { image: RgbImage; corners?: readonly Point[]; region?: Region; stops?: number }[];
   stock: CalibrationStock;
   reference?: readonly ChartReferencePatch[];
   sample?: SampleRegionOptions;
-}
-
-/** One chart patch's colour accuracy in reference rendering. */
-export interface PatchDeltaE {
-  index: number;
-  name: string;
-  /** Published value adapted to D65, L*a*b*. */
-  reference: Rgb;
-  /** Reproduced L*a*b* (D65) with the measured curves and no crosstalk correction. */
-  before: Rgb;
-  /** Reproduced L*a*b* (D65) with the built profile. */
-  after: Rgb;
-  deltaEBefore: number;
-  deltaEAfter: number;
-  /** False when the published colour lies outside the sRGB gamut the film model records (cyan): held apart from means. */
-  inGamut: boolean;
-  /** False when the patch was not used (clipped or empty sample). */
-  measured: boolean;
-}
-
-/** Per-patch ΔE00 and summaries over the in-gamut, measured patches. */
-export interface ChartDeltaE {
-  patches: PatchDeltaE[];
-  before: { mean: number; max: number };
-  after: { mean: number; max: number };
 }
 
 /** Everything a calibration computes. Log exposures are relative: 0 = the metered grey. */
@@ -105,7 +89,13 @@ export interface CalibrationResult {
   balance: { profile: Balance; frames: BracketFrameBalance[]; mean: Balance };
   /** How far one balance fits the whole bracket, points. */
   spread: { range: Balance; standardDeviation: Balance; largestRange: number };
+  /** The density crosstalk: the fitted matrix (with the colour fit), and the density-only fit it started from. */
   crosstalk: CrosstalkFit;
+  /**
+   * The exposure-space colour matrix, from the film's recorded exposures (linear, in its layers' own primaries) to
+   * linear sRGB, rows summing to 1; fitted together with the crosstalk.
+   */
+  exposureMatrix: Matrix3;
   /** Exposure of the chart frame found from its neutral row, stops from the metered exposure. */
   chartExposureStops: number;
   deltaE: ChartDeltaE;
@@ -144,8 +134,17 @@ export function buildCalibration(input: CalibrationInput): CalibrationResult & {
   const chart = grid.patches.map((p) =>
     sampleRegion(input.chart.image, input.scanner, p.sample, input.sample),
   );
+  const moreCharts = (input.moreCharts ?? []).map((c, k) => {
+    if (!c.corners && !c.region)
+      throw new RangeError(`Expected corners or region for moreCharts[${k}] but received neither`);
+    const g = c.corners ? chartGridFromCorners(c.corners) : chartGridFromRegion(c.region!);
+    return {
+      samples: g.patches.map((p) => sampleRegion(c.image, input.scanner, p.sample, input.sample)),
+      ...(c.stops === undefined ? {} : { stops: c.stops }),
+    };
+  });
   return {
-    ...fitCalibration({ base: input.base, brackets, chart, stock: input.stock, reference }),
+    ...fitCalibration({ base: input.base, brackets, chart, moreCharts, stock: input.stock, reference }),
     grid,
   };
 }
@@ -156,12 +155,17 @@ export function buildCalibration(input: CalibrationInput): CalibrationResult & {
  * 1. Grey frames: densities above base per channel against relative log exposure (stops × log10 2);
  *    clipped, empty or blank frames are left out with a warning. Each channel's measured curve G is
  *    fitted (`fitCharacteristicCurve`); the speed point is read from these (`speedPoint`, ISO 5800).
- * 2. Chart: its exposure is found from the neutral row (green, median over the six patches); each
- *    patch's published L*a*b* D50 → XYZ → Bradford to D65 → linear sRGB gives its log exposure per
- *    channel; the crosstalk M is fitted by least squares (`fitCrosstalk`, rows summing to 1).
+ * 2. Chart frames (the metered one, then any `moreCharts`): each frame's exposure is found from its neutral
+ *    row (green, median over the six patches). The density-only crosstalk is fitted by least squares on the
+ *    first frame (`fitCrosstalk`: each patch's published L*a*b* D50 → XYZ → Bradford to D65 → linear sRGB as
+ *    its exposures); from there the density crosstalk M and the exposure-space colour matrix P are fitted
+ *    together over every frame, minimising CIEDE2000 with the neutral axis held (`fitChartColour`), and each
+ *    patch is cross-validated by a fit without it.
  * 3. The profile's curves F = M·G at the bracket's exposures, γ, toe and shoulder from them.
  * 4. Each grey frame's neutral balance and its spread (`bracketBalance`); ΔE00 of every patch in
- *    reference rendering before (G, no matrix) and after (the profile); warnings.
+ *    reference rendering before (G, no matrices), after (the profile: training) and cross-validated, per
+ *    frame too (`chartDeltaE`); warnings, among them a memorised chart when the cross-validated mean
+ *    exceeds the training mean by more than CROSS_VALIDATION_GAP_LIMIT.
  *
  * Throws a RangeError when fewer than two grey frames are usable or the chart has the wrong patch count.
  * @example fitCalibration(measurements).profileDocument.crosstalk // e.g. [[1.08, -0.06, -0.02], …]
@@ -180,55 +184,7 @@ export function fitCalibration(input: CalibrationMeasurements): CalibrationResul
   const density = (rgb: Rgb) => rgb.map((v, c) => densityAboveBase(v, input.base[c]!)) as Rgb;
 
   // 1. Grey frames.
-  const usable: { frame: number; stops: number; densities: Rgb }[] = [];
-  input.brackets.forEach((b, frame) => {
-    const label = `Grey frame ${frame + 1} (${formatStops(b.stops)})`;
-    if (!Number.isFinite(b.stops))
-      throw new RangeError(`Expected finite stops for bracket ${frame} but received ${b.stops}`);
-    if (b.sample.status === 'empty') {
-      warnings.push({
-        severity: 'warning',
-        code: 'clipped-frame',
-        frame,
-        message: `${label}: the grey rectangle holds no usable pixels; it was left out.`,
-      });
-      return;
-    }
-    if (b.sample.status === 'clipped') {
-      const pct = Math.round(100 * (b.sample.clippedFraction + b.sample.darkFraction));
-      warnings.push({
-        severity: 'warning',
-        code: 'clipped-frame',
-        frame,
-        message: `${label}: ${pct} % of the grey rectangle is clipped (bare light or too dense to read); it was left out. Rescan it with the scanner exposure adjusted.`,
-      });
-      return;
-    }
-    usable.push({ frame, stops: b.stops, densities: density(b.sample.rgb) });
-  });
-  // Frames with no density above base: below the toe when every frame under them is as thin (left out, a
-  // notice); blank when a frame given less exposure has density (a frame that never saw light, a warning).
-  const nearBase = (u: { densities: Rgb }) => u.densities.every((d) => d < BLANK_DENSITY);
-  for (const u of [...usable].filter(nearBase)) {
-    const label = `Grey frame ${u.frame + 1} (${formatStops(u.stops)})`;
-    const blank = usable.some((o) => o.stops < u.stops && !nearBase(o));
-    warnings.push(
-      blank
-        ? {
-            severity: 'warning',
-            code: 'blank-frame',
-            frame: u.frame,
-            message: `${label}: the grey is within ${BLANK_DENSITY} of the film base in every channel although less exposed frames are denser — the frame looks unexposed; it was left out.`,
-          }
-        : {
-            severity: 'notice',
-            code: 'below-toe',
-            frame: u.frame,
-            message: `${label}: no density above the base yet (under ${BLANK_DENSITY}); it lies below the toe and was left out.`,
-          },
-    );
-    usable.splice(usable.indexOf(u), 1);
-  }
+  const usable = usableBrackets(input.brackets, density, warnings);
   if (usable.length < 2)
     throw new RangeError(`Expected at least 2 usable grey frames but received ${usable.length}`);
   if (usable.length < MIN_BRACKET_FRAMES)
@@ -257,35 +213,48 @@ export function fitCalibration(input: CalibrationMeasurements): CalibrationResul
       });
   });
 
-  // 2. Chart exposure from the neutral row, then the crosstalk fit.
+  // 2. Each chart frame's exposure from its neutral row; the density-only crosstalk (least squares) as the start of
+  //    the colour fit, which then fits the crosstalk and the exposure-space matrix together over every frame.
+  const charts = [{ samples: input.chart }, ...(input.moreCharts ?? [])];
+  const frames = charts.map((c, k) => {
+    const densities = c.samples.map((s) => (s.status === 'ok' ? density(s.rgb) : null));
+    c.samples.forEach((s, i) => {
+      if (s.status !== 'ok')
+        warnings.push({
+          severity: 'warning',
+          code: 'clipped-patch',
+          patch: reference[i]!.index,
+          message: `${k ? `Chart frame ${k + 1}: c` : 'C'}hart patch ${reference[i]!.index} (${reference[i]!.name}) is ${s.status === 'empty' ? 'outside the frame' : 'clipped'}; it was left out.`,
+        });
+    });
+    const stops = 'stops' in c ? c.stops : undefined;
+    return {
+      densities,
+      offset: neutralRowOffset(densities, g[1], reference),
+      ...(stops === undefined ? {} : { labelledStops: stops }),
+    };
+  });
   const patchesLinear = reference.map((r) => labD50ToLinearSrgb(r.labD50));
-  const chartDensities = input.chart.map((s) => (s.status === 'ok' ? density(s.rgb) : null));
-  input.chart.forEach((s, i) => {
-    if (s.status !== 'ok')
-      warnings.push({
-        severity: 'warning',
-        code: 'clipped-patch',
-        patch: reference[i]!.index,
-        message: `Chart patch ${reference[i]!.index} (${reference[i]!.name}) is ${s.status === 'empty' ? 'outside the frame' : 'clipped'}; it was left out.`,
-      });
-  });
-  const neutralOffsets = CHART_NEUTRAL_INDICES.flatMap((index) => {
-    const i = reference.findIndex((r) => r.index === index);
-    const d = i >= 0 ? chartDensities[i] : null;
-    if (!d) return [];
-    return [g[1].inverse(d[1]) - Math.log10(patchesLinear[i]![1] / MID_GREY)];
-  });
-  const chartOffset = neutralOffsets.length ? median(neutralOffsets) : 0;
+  const chartOffset = frames[0]!.offset;
   const patchLogExposure = (i: number): Rgb =>
     patchesLinear[i]!.map((v) => (v > 0 ? Math.log10(v / MID_GREY) + chartOffset : Number.NaN)) as Rgb;
-  const crosstalk = fitCrosstalk(
-    chartDensities.flatMap((d, i) => (d ? [{ densities: d, logExposure: patchLogExposure(i) }] : [])),
+  const start = fitCrosstalk(
+    frames[0]!.densities.flatMap((d, i) => (d ? [{ densities: d, logExposure: patchLogExposure(i) }] : [])),
     g,
   );
-  const m = crosstalk.matrix;
+  const xs = [...new Set(logExposures)].sort((a, b) => a - b);
+  const colour = fitChartColour({
+    frames,
+    reference: reference.map((r) => labD50ToLabD65(r.labD50)),
+    measuredCurves: g,
+    bracketLogExposures: xs,
+    lowestDensity: lowest,
+    startCrosstalk: start.matrix,
+  });
+  const m = colour.crosstalk,
+    p = colour.exposureMatrix;
 
   // 3. The profile's curves F = M·G at the bracket's exposures.
-  const xs = [...new Set(logExposures)].sort((a, b) => a - b);
   const curves = fitChannels(
     (c) =>
       xs.map((x) => ({
@@ -297,47 +266,23 @@ export function fitCalibration(input: CalibrationMeasurements): CalibrationResul
   );
   const f = [curves.red.curve, curves.green.curve, curves.blue.curve] as const;
 
-  // 4. Balance, ΔE00, warnings.
+  // 4. Balance, ΔE00 (training and cross-validated), warnings.
   const balance = bracketBalance(
     usable.map((u) => ({ stops: u.stops, densities: multiply3(m, u.densities) })),
     f[1],
   );
-  const identity: Matrix3 = [
-    [1, 0, 0],
-    [0, 1, 0],
-    [0, 0, 1],
-  ];
-  const reproduce = (d: Rgb, matrix: Matrix3, cs: readonly MonotoneCurve[]): Rgb => {
-    const dp = multiply3(matrix, d);
-    const lin = dp.map((v, c) => Math.min(1, MID_GREY * 10 ** (cs[c]!.inverse(v) - chartOffset))) as Rgb;
-    return xyzToLab(linearSrgbToXyz(lin), D65_WHITE);
-  };
-  const patches: PatchDeltaE[] = reference.map((r, i) => {
-    const ref = labD50ToLabD65(r.labD50);
-    const d = chartDensities[i];
-    const before = d ? reproduce(d, identity, g) : ([Number.NaN, Number.NaN, Number.NaN] as Rgb);
-    const after = d ? reproduce(d, m, f) : ([Number.NaN, Number.NaN, Number.NaN] as Rgb);
-    return {
-      index: r.index,
-      name: r.name,
-      reference: ref,
-      before,
-      after,
-      deltaEBefore: d ? deltaE2000(before, ref) : Number.NaN,
-      deltaEAfter: d ? deltaE2000(after, ref) : Number.NaN,
-      inGamut: patchesLinear[i]!.every((v) => v >= 0 && v <= 1),
-      measured: d !== null,
-    };
+  const deltaE = chartDeltaE({
+    reference,
+    frames,
+    before: (d, offset) => reproducePatch(d, offset, IDENTITY, g, IDENTITY),
+    after: (d, offset) => reproducePatch(d, offset, m, f, p),
+    crossValidated: colour.crossValidated,
+    usable: colour.usable,
   });
-  const counted = patches.filter((p) => p.inGamut && p.measured);
-  const summary = (pick: (p: PatchDeltaE) => number) => ({
-    mean: counted.length ? counted.reduce((s, p) => s + pick(p), 0) / counted.length : Number.NaN,
-    max: counted.length ? Math.max(...counted.map(pick)) : Number.NaN,
-  });
-  const neutral = patches.filter((p) => CHART_NEUTRAL_INDICES.includes(p.index) && p.measured);
+  const neutral = deltaE.patches.filter((q) => CHART_NEUTRAL_INDICES.includes(q.index) && q.measured);
   if (neutral.length) {
-    const da = neutral.reduce((s, p) => s + p.after[1] - p.reference[1], 0) / neutral.length;
-    const db = neutral.reduce((s, p) => s + p.after[2] - p.reference[2], 0) / neutral.length;
+    const da = neutral.reduce((s, q) => s + q.after[1] - q.reference[1], 0) / neutral.length;
+    const db = neutral.reduce((s, q) => s + q.after[2] - q.reference[2], 0) / neutral.length;
     if (Math.abs(da) > NEUTRAL_CAST_LIMIT || Math.abs(db) > NEUTRAL_CAST_LIMIT)
       warnings.push({
         severity: 'warning',
@@ -345,15 +290,13 @@ export function fitCalibration(input: CalibrationMeasurements): CalibrationResul
         message: `The chart's neutral row is not neutral after balance (mean Δa* ${da.toFixed(1)}, Δb* ${db.toFixed(1)}; limit ±${NEUTRAL_CAST_LIMIT}): the chart was lit unlike the grey card. Reshoot it in the grey card's light.`,
       });
   }
-  crosstalk.residualRms.forEach((r, c) => {
-    if (r > RESIDUAL_LIMIT)
-      warnings.push({
-        severity: 'warning',
-        code: 'large-residuals',
-        channel: CHANNELS[c],
-        message: `The crosstalk fit of the ${CHANNELS[c]} channel leaves an RMS density residual of ${r.toFixed(3)} (limit ${RESIDUAL_LIMIT}) over the chart.`,
-      });
-  });
+  const gap = deltaE.crossValidated.mean - deltaE.after.mean;
+  if (gap > CROSS_VALIDATION_GAP_LIMIT)
+    warnings.push({
+      severity: 'warning',
+      code: 'memorised-chart',
+      message: `Each patch predicted by a fit without it is off by mean ΔE00 ${deltaE.crossValidated.mean.toFixed(2)}, against ${deltaE.after.mean.toFixed(2)} for the patches the fit saw (limit ${CROSS_VALIDATION_GAP_LIMIT} apart): the colour matrices follow this chart more than the film. Add chart frames at other exposures or check the chart's patches for glare and dust.`,
+    });
 
   const id =
     input.stock.id ??
@@ -389,9 +332,10 @@ export function fitCalibration(input: CalibrationMeasurements): CalibrationResul
       standardDeviation: balance.standardDeviation,
       largestRange: balance.largestRange,
     },
-    crosstalk,
+    crosstalk: { ...start, matrix: m },
+    exposureMatrix: p,
     chartExposureStops: chartOffset / LOG_EXPOSURE_PER_STOP,
-    deltaE: { patches, before: summary((p) => p.deltaEBefore), after: summary((p) => p.deltaEAfter) },
+    deltaE,
     usedFrames: usable.map((u) => u.frame),
     warnings,
     profileDocument,
@@ -440,6 +384,27 @@ function absolute(fit: CharacteristicCurveFit) {
   }));
 }
 
+/** Log exposure of a chart frame from the metered exposure: median over its neutral row of the green curve's reading less the patch's published luminance. */
+function neutralRowOffset(
+  densities: readonly (Rgb | null)[],
+  green: MonotoneCurve,
+  reference: readonly ChartReferencePatch[],
+): number {
+  const offsets = CHART_NEUTRAL_INDICES.flatMap((index) => {
+    const i = reference.findIndex((r) => r.index === index);
+    const d = i >= 0 ? densities[i] : null;
+    if (!d) return [];
+    return [green.inverse(d[1]) - Math.log10(labD50ToLinearSrgb(reference[i]!.labD50)[1] / MID_GREY)];
+  });
+  return offsets.length ? median(offsets) : 0;
+}
+
+const IDENTITY: Matrix3 = [
+  [1, 0, 0],
+  [0, 1, 0],
+  [0, 0, 1],
+];
+
 function round(v: number, digits: number): number {
   const k = 10 ** digits;
   return Math.round(v * k) / k;
@@ -449,8 +414,4 @@ function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);
   const n = s.length;
   return n % 2 ? s[n >> 1]! : 0.5 * (s[n / 2 - 1]! + s[n / 2]!);
-}
-
-function formatStops(stops: number): string {
-  return `${stops > 0 ? '+' : ''}${Number(stops.toFixed(2))} stops`;
 }

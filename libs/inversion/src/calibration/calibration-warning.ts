@@ -8,7 +8,8 @@ export type CalibrationWarningCode =
   | 'speed-point-extrapolated'
   | 'clipped-patch'
   | 'badly-lit-chart'
-  | 'large-residuals';
+  | 'large-residuals'
+  | 'memorised-chart';
 
 /** A warning of a calibration: a code to act on, a message a person can read, and what it concerns. */
 export interface CalibrationWarning {
@@ -35,3 +36,9 @@ export const BLANK_DENSITY = 0.02;
 export const NEUTRAL_CAST_LIMIT = 3;
 /** RMS density residual above this is a poor fit (common practice choice: about the repeatability of a densitometer reading on film; from memory). */
 export const RESIDUAL_LIMIT = 0.03;
+/**
+ * Cross-validated mean ΔE00 more than this above the training mean: the colour matrices memorise the chart (chosen:
+ * half of a ΔE00 of 1, about a just-noticeable difference side by side, so a profile within ΔE00 1 on the chart it
+ * was fitted to still predicts colours it never saw within 1.5).
+ */
+export const CROSS_VALIDATION_GAP_LIMIT = 0.5;
