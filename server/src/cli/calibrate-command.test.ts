@@ -73,6 +73,8 @@ describe('clearbase calibrate', () => {
       6,
     );
     chartArgs = ['--chart', 'chart.png', '--chart-corners', roll.chartCorners.flat().join(',')];
+    const over = calibrationRoll({ stock: STOCK, scanner: LINEAR_SCANNER, stops: [0], chartStops: 2 }).chart;
+    await writeNegativeTiff(join(dir, 'chart-over.tif'), over.data, over.width, over.height);
     chartRegion = roll.chartRegion.join(',');
   }, 60_000);
   afterAll(async () => {
@@ -101,12 +103,16 @@ describe('clearbase calibrate', () => {
     const report = JSON.parse(run.stdout) as {
       gamma: number[];
       ei: number;
-      deltaE: { after: { mean: number } };
+      exposureMatrix: number[][];
+      deltaE: { after: { mean: number }; crossValidated: { mean: number } };
       grid: { sample: number[][] }[];
       warnings: { severity: string }[];
     };
     report.gamma.forEach((g, c) => expect(Math.abs(g / STOCK.gamma[c]! - 1)).toBeLessThan(0.03));
     expect(report.deltaE.after.mean).toBeLessThan(1);
+    expect(report.deltaE.crossValidated.mean).toBeLessThan(1.5);
+    // The neutral axis is held: each row of the exposure matrix sums to 1.
+    report.exposureMatrix.forEach((row) => expect(row[0]! + row[1]! + row[2]!).toBeCloseTo(1, 9));
     expect(report.grid).toHaveLength(24);
     expect(report.grid[0]!.sample).toHaveLength(4);
     const profile = validateProfileDocument(JSON.parse(await readFile(join(dir, 'out/p.json'), 'utf8')));
@@ -124,6 +130,34 @@ describe('clearbase calibrate', () => {
       /^profile written to q\.json\nγ \(red, green, blue\): 0\.5\d\d, 0\.6\d\d, 0\.\d+\n/,
     );
     expect(run.stdout).toMatch(/EI \d+/);
+  }, 60_000);
+
+  it('reports the fitted and the cross-validated ΔE00 and both matrices, and fits a second chart frame', async () => {
+    const run = await runCalibrate(
+      [...bracketArgs, ...chartArgs, '--more-chart', 'chart-over.tif:+2', '--out', 'two.json'],
+      dir,
+    );
+    expect(run.stderr).toBe('');
+    expect(run.code).toBe(0);
+    expect(run.stdout).toMatch(/^crosstalk \(density\): \[1\.\d{3}, -?0\.\d{3}, -?0\.\d{3}\] /m);
+    expect(run.stdout).toMatch(/^exposure matrix \(film exposures → linear sRGB\): \[/m);
+    const line =
+      /fitted mean (\d\.\d\d) max \d\.\d\d; cross-validated \(each patch by a fit without it\) mean (\d\.\d\d)/.exec(
+        run.stdout,
+      );
+    expect(Number(line?.[1])).toBeLessThan(1);
+    expect(Number(line?.[2])).toBeLessThan(1.5);
+    expect(run.stdout).toMatch(
+      /^neutral row after the profile: largest \|Δa\*\| 0\.\d\d, \|Δb\*\| 0\.\d\d$/m,
+    );
+    expect(run.stdout).toMatch(
+      /^chart frame 1: exposure [+-]0\.0\d stops, \d+ patches fitted, ΔE00 mean 0\.\d\d/m,
+    );
+    expect(run.stdout).toMatch(
+      /^chart frame 2: exposure \+[12]\.\d\d stops \(labelled \+2\.00\), \d+ patches fitted/m,
+    );
+    const profile = JSON.parse(await readFile(join(dir, 'two.json'), 'utf8')) as unknown;
+    expect(validateProfileDocument(profile).ok).toBe(true);
   }, 60_000);
 
   it('takes the film base from a leader frame when given one', async () => {

@@ -29,16 +29,19 @@ import { UsageError } from './usage-error';
 const FILM_BASES = ['clear', 'tinted', 'masked'] as const;
 
 /**
- * `clearbase calibrate --bracket FILE:STOPS[:x,y,w,h] … --chart FILE --chart-region x,y,w,h | --chart-corners
- * x1,y1,…,x4,y4 --out PROFILE.json …`: see the usage text. Fits a stock profile from a calibration roll
- * and writes it as a profile document. Resolves to 0 when the fit raised no warning, 1 when it was
- * written with warnings or could not be made (unreadable file, no usable base, too few usable frames).
+ * `clearbase calibrate --bracket FILE:STOPS[:x,y,w,h] … --chart FILE [--more-chart FILE[:STOPS] …] --chart-region
+ * x,y,w,h | --chart-corners x1,y1,…,x4,y4 --out PROFILE.json …`: see the usage text. Fits a stock profile from a
+ * calibration roll and writes it as a profile document; `--more-chart` adds frames of the same chart at other
+ * exposures (marked by the same region or corners) to the colour fit. Resolves to 0 when the fit raised no
+ * warning, 1 when it was written with warnings (among them a colour fit that memorises the chart) or could not be
+ * made (unreadable file, no usable base, too few usable frames).
  * Frames are read one at a time and only their samples kept, so full-size scans fit in memory.
  */
 export async function calibrateCommand(args: string[]): Promise<number> {
   const { values, positionals } = parseCommandArgs(args, {
     bracket: { type: 'string', multiple: true },
     chart: { type: 'string' },
+    'more-chart': { type: 'string', multiple: true },
     'chart-region': { type: 'string' },
     'chart-corners': { type: 'string' },
     'grey-region': { type: 'string' },
@@ -117,6 +120,16 @@ export async function calibrateCommand(args: string[]): Promise<number> {
     throw new UsageError(`--chart-corners: ${(error as Error).message}.`);
   }
   const chart = grid.patches.map((p) => sampleRegion(chartImage, scanner, p.sample));
+  // More frames of the same chart at other exposures, marked as the first one is.
+  const moreCharts: { samples: RegionSample[]; stops?: number }[] = [];
+  for (const more of (values['more-chart'] ?? []).map(parseMoreChart)) {
+    const image = await read(more.file);
+    if (typeof image === 'string') return fail(image);
+    moreCharts.push({
+      samples: grid.patches.map((p) => sampleRegion(image, scanner, p.sample)),
+      ...(more.stops === undefined ? {} : { stops: more.stops }),
+    });
+  }
   if (values.leader) {
     const leader = await read(values.leader);
     if (typeof leader === 'string') return fail(leader);
@@ -134,6 +147,7 @@ export async function calibrateCommand(args: string[]): Promise<number> {
       base: base.rgb,
       brackets: samples,
       chart,
+      moreCharts,
       stock: { name: values.stock, iso, base: filmBase },
       reference: CHART_REFERENCE,
     });
@@ -172,6 +186,7 @@ export function calibrationReport(result: CalibrationResult, grid: ChartGrid, ba
     balance: result.balance,
     spread: result.spread,
     crosstalk: result.crosstalk,
+    exposureMatrix: result.exposureMatrix,
     chartExposureStops: result.chartExposureStops,
     deltaE: result.deltaE,
     usedFrames: result.usedFrames,
@@ -182,16 +197,35 @@ export function calibrationReport(result: CalibrationResult, grid: ChartGrid, ba
 
 function describeCalibration(r: CalibrationResult, out: string): string {
   const f = (v: number, d = 3) => v.toFixed(d);
+  const matrix = (m: readonly (readonly number[])[]) =>
+    m.map((row) => `[${row.map((v) => f(v)).join(', ')}]`).join(' ');
+  const e = r.deltaE;
+  const stops = (v: number) => `${v >= 0 ? '+' : ''}${f(v, 2)}`;
   const lines = [
     `profile written to ${out}`,
     `γ (red, green, blue): ${r.gamma.map((g) => f(g)).join(', ')}`,
     `speed point: ${f(r.speedPoint.logExposure)} log E from the metered grey, ${f(r.speedPoint.offsetStops, 2)} stops from box speed: EI ${Math.round(r.ei)}`,
-    `crosstalk: ${r.crosstalk.matrix.map((row) => `[${row.map((v) => f(v)).join(', ')}]`).join(' ')}`,
-    `chart ΔE00 (in gamut): before mean ${f(r.deltaE.before.mean, 2)} max ${f(r.deltaE.before.max, 2)}; after mean ${f(r.deltaE.after.mean, 2)} max ${f(r.deltaE.after.max, 2)}`,
+    `crosstalk (density): ${matrix(r.crosstalk.matrix)}`,
+    `exposure matrix (film exposures → linear sRGB): ${matrix(r.exposureMatrix)}`,
+    `chart ΔE00 (in gamut): before mean ${f(e.before.mean, 2)} max ${f(e.before.max, 2)}; fitted mean ${f(e.after.mean, 2)} max ${f(e.after.max, 2)}; cross-validated (each patch by a fit without it) mean ${f(e.crossValidated.mean, 2)} max ${f(e.crossValidated.max, 2)}`,
+    `neutral row after the profile: largest |Δa*| ${f(e.neutral.a, 2)}, |Δb*| ${f(e.neutral.b, 2)}`,
+    ...e.frames.map(
+      (frame, k) =>
+        `chart frame ${k + 1}: exposure ${stops(frame.exposureStops)} stops${frame.labelledStops === undefined ? '' : ` (labelled ${stops(frame.labelledStops)})`}, ${frame.patchesUsed} patches fitted, ΔE00 mean ${f(frame.after.mean, 2)} max ${f(frame.after.max, 2)}`,
+    ),
     `neutral spread over the bracket: ${f(r.spread.largestRange, 1)} points (cyan–red ${f(r.spread.range.cyanRed, 1)}, magenta–green ${f(r.spread.range.magentaGreen, 1)}, yellow–blue ${f(r.spread.range.yellowBlue, 1)})`,
     ...r.warnings.filter((w) => w.severity === 'notice').map((w) => `note: ${w.message}`),
   ];
   return `${lines.join('\n')}\n`;
+}
+
+/** One --more-chart: the file and, when given, the stops it was shot at. */
+function parseMoreChart(raw: string): { file: string; stops?: number } {
+  const at = raw.lastIndexOf(':');
+  const stops = at > 0 ? parseStops(raw.slice(at + 1)) : Number.NaN;
+  if (Number.isFinite(stops)) return { file: raw.slice(0, at), stops };
+  if (!raw) throw new UsageError('Expected FILE or FILE:STOPS for --more-chart but received nothing.');
+  return { file: raw };
 }
 
 /** One --bracket: the file, its stops and, when given, its own grey rectangle. */
