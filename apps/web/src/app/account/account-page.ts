@@ -2,17 +2,16 @@ import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/cor
 import { HttpClient } from '@angular/common/http';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButton } from '@angular/material/button';
-import { MatError, MatFormField, MatHint, MatLabel } from '@angular/material/form-field';
-import { MatInput } from '@angular/material/input';
 import type { ChangePasswordRequest } from '@clearbase/contracts';
 import { Session } from '../auth/session';
-import { maxPasswordLength, minPasswordLength, sameAsNew } from '../forms/new-password-rules';
+import { AccountField } from '../forms/account-field';
+import { accountValidators } from '../forms/account-validators';
 import { readProblem } from '../problem/read-problem';
 
 /** Account: who you are, and changing your password. */
 @Component({
   selector: 'cb-account-page',
-  imports: [ReactiveFormsModule, MatButton, MatFormField, MatLabel, MatError, MatHint, MatInput],
+  imports: [ReactiveFormsModule, MatButton, AccountField],
   templateUrl: './account-page.html',
   styleUrl: './account-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -20,15 +19,11 @@ import { readProblem } from '../problem/read-problem';
 export class AccountPage {
   private readonly http = inject(HttpClient);
   protected readonly user = inject(Session).user;
-  protected readonly minPasswordLength = minPasswordLength;
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     currentPassword: ['', [Validators.required]],
-    newPassword: [
-      '',
-      [Validators.required, Validators.minLength(minPasswordLength), Validators.maxLength(maxPasswordLength)],
-    ],
-    repeatPassword: ['', [Validators.required, sameAsNew]],
+    newPassword: ['', accountValidators.newPassword],
+    repeatPassword: ['', accountValidators.repeatPassword],
   });
   protected readonly busy = signal(false);
   protected readonly problem = signal<string | null>(null);

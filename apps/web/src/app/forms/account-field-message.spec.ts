@@ -10,18 +10,26 @@ describe('accountFieldMessage', () => {
   });
 
   it('takes the words given for a form filled in for someone else', () => {
-    expect(accountFieldMessage('email', { required: true }, 'Enter an e-mail address')).toBe(
+    expect(accountFieldMessage('email', { required: true }, { required: 'Enter an e-mail address' })).toBe(
       'Enter an e-mail address',
     );
+    expect(
+      accountFieldMessage(
+        'repeat-password',
+        { mismatch: true },
+        { mismatch: 'The two new passwords differ' },
+      ),
+    ).toBe('The two new passwords differ');
   });
 
-  it('puts the server’s words first, then a repeat that differs, then the other checks', () => {
+  it('puts the server’s words first, then a missing value, a repeat that differs and the other checks', () => {
     expect(accountFieldMessage('email', { server: 'Already has an account', email: true })).toBe(
       'Already has an account',
     );
     expect(accountFieldMessage('repeat-password', { mismatch: true, required: true })).toBe(
-      'The two passwords differ',
+      'Type the password again',
     );
+    expect(accountFieldMessage('repeat-password', { mismatch: true })).toBe('The two passwords differ');
     expect(accountFieldMessage('email', { email: true })).toBe('Enter a valid e-mail address');
     expect(accountFieldMessage('new-password', { minlength: { requiredLength: 10, actualLength: 3 } })).toBe(
       'Use at least 10 characters',

@@ -14,20 +14,20 @@ const requiredWords: Record<AccountFieldKind, string> = {
 };
 
 /**
- * The message an account field shows under it for its first failing check: the server's own words, then a repeat
- * that differs, a missing value (`required` words when given, for a form filled in for someone else), an address
+ * The message an account field shows under it for its first failing check: the server's own words, then a missing
+ * value, a repeat that differs (the `words` given win, as for a form filled in for someone else), an address
  * that is not one, a password too short, then the general words of `fieldErrorText`.
  * @example accountFieldMessage('email', { email: true }) // 'Enter a valid e-mail address'
  */
 export function accountFieldMessage(
   kind: AccountFieldKind,
   errors: ValidationErrors | null | undefined,
-  required?: string,
+  words: { required?: string; mismatch?: string } = {},
 ): string {
   if (!errors) return '';
   if (errors['server']) return String(errors['server']);
-  if (errors['mismatch']) return 'The two passwords differ';
-  if (errors['required']) return required ?? requiredWords[kind];
+  if (errors['required']) return words.required ?? requiredWords[kind];
+  if (errors['mismatch']) return words.mismatch ?? 'The two passwords differ';
   if (errors['email']) return 'Enter a valid e-mail address';
   if (errors['minlength']) return `Use at least ${minPasswordLength} characters`;
   return fieldErrorText(errors);

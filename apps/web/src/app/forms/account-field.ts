@@ -59,6 +59,8 @@ export class AccountField {
   readonly autocomplete = input<string>();
   /** The words for an empty field, where the form is filled in for someone else. */
   readonly requiredMessage = input<string>();
+  /** The words for a repeat that differs, where the form asks for it in its own words. */
+  readonly mismatchMessage = input<string>();
   /** The server's words for this field, shown under it. */
   readonly problem = input<string | undefined>();
   /** Whether a password can be shown as typed. */
@@ -81,6 +83,9 @@ export class AccountField {
     ),
   );
   protected readonly message = computed(() =>
-    accountFieldMessage(this.kind(), this.errors(), this.requiredMessage()),
+    accountFieldMessage(this.kind(), this.errors(), {
+      required: this.requiredMessage(),
+      mismatch: this.mismatchMessage(),
+    }),
   );
 }
