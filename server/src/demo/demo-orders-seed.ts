@@ -20,6 +20,7 @@ import { insertFrame } from '../frames/frame-repository';
 import { measureNegativeBase } from '../film-base/measure-film-base';
 import { insertJob, rollTarget } from '../jobs/job-repository';
 import { insertOrder } from '../orders/order-repository';
+import { readPriceList } from '../prices/price-list-store';
 import { currentPublishedVersion, insertRoll } from '../rolls/roll-repository';
 import type { SeedStep } from './seed-step';
 
@@ -92,6 +93,7 @@ export const demoOrdersSeedStep: SeedStep = {
         outputFormats: demo.formats,
         scanSize: 'standard',
         at,
+        priceList: await readPriceList(db),
       });
       await db.updateTable('orders').set({ status: demo.status }).where('id', '=', order.id).execute();
       if (demo.status !== 'tuning') continue;

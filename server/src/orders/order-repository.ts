@@ -8,6 +8,7 @@ import {
   type OrderStatus,
   type OutputFormat,
   type ScanSize,
+  type PriceList,
 } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
@@ -78,6 +79,8 @@ export function insertOrder(
     at: Date;
     /** collected at the lab when not given */
     negatives?: NegativesReturn;
+    /** the price list the order is placed under, which prices it from then on */
+    priceList: PriceList;
   },
 ): Promise<OrderRow> {
   const at = order.at.toISOString();
@@ -90,6 +93,7 @@ export function insertOrder(
       output_formats: JSON.stringify(order.outputFormats),
       scan_size: order.scanSize,
       negatives: JSON.stringify(order.negatives ?? { method: 'collect' }),
+      price_list: JSON.stringify(order.priceList),
       created_at: at,
       updated_at: at,
     })

@@ -21,6 +21,8 @@ export interface OrdersTable {
   scan_size: string;
   /** JSON: what happens to the negatives, posted back to an address or collected at the lab */
   negatives: ColumnType<string, string | undefined, string>;
+  /** JSON: the price list the order was placed under; null on orders placed before orders kept one */
+  price_list: ColumnType<string | null, string | null | undefined, string | null>;
   created_at: ColumnType<string, string, never>;
   updated_at: string;
 }

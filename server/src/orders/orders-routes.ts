@@ -9,6 +9,7 @@ import {
 import { AppError } from '../errors/app-error';
 import { enqueueTemplatedMail } from '../mail/outbox-repository';
 import type { RouteModule } from '../http/route-module';
+import { readPriceList } from '../prices/price-list-store';
 import { listRollsOfOrder, toRoll } from '../rolls/roll-repository';
 import { findUserById } from '../users/user-repository';
 import { addRollToOrder } from './add-roll-to-order';
@@ -69,7 +70,7 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       const order = await db.transaction().execute(async (trx) => {
         const at = clock.now();
         const { rolls, ...asked } = body;
-        const row = await insertOrder(trx, { ...asked, customerId, at });
+        const row = await insertOrder(trx, { ...asked, customerId, at, priceList: await readPriceList(trx) });
         for (const [i, request] of rolls.entries()) {
           await addRollToOrder(trx, { orderId: row.id, request, actor: user!, at, path: `body.rolls.${i}` });
         }

@@ -65,6 +65,7 @@ export async function findOrderForPayment(db: Kysely<Database>, orderId: number)
       'orders.scan_size',
       'orders.status',
       'orders.negatives',
+      'orders.price_list',
       'users.email as customer_email',
       'users.name as customer_name',
     ])

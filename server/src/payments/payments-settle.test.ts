@@ -296,6 +296,30 @@ describe('rolls added after paying', () => {
   });
 });
 
+describe('prices changed after an order was placed', () => {
+  it('change nothing it owes: its rolls, old and new, are charged at the prices it was placed under', async () => {
+    const { orderId } = await paidOrder(1);
+    const list = (await manager.get('/api/prices').expect(200)).body;
+    const dearer = {
+      ...list,
+      scan: list.scan.map((s: { size: string; amountMinor: number }) => ({
+        ...s,
+        amountMinor: s.amountMinor * 3,
+      })),
+    };
+    await manager.send('put', '/api/prices', dearer).expect(200);
+    try {
+      const paid = await payer.get(`/api/orders/${orderId}/payments`).expect(200);
+      expect(paid.body.balance).toMatchObject({ priceMinor: rollMinor, dueMinor: 0 });
+      await operator.post(`/api/orders/${orderId}/rolls`, { stockId, ei: 200, format: '135-36' }).expect(201);
+      const more = await payer.get(`/api/orders/${orderId}/payments`).expect(200);
+      expect(more.body.balance).toMatchObject({ priceMinor: 2 * rollMinor, dueMinor: rollMinor });
+    } finally {
+      await manager.send('put', '/api/prices', list).expect(200);
+    }
+  });
+});
+
 describe('refunds', () => {
   it('asked for at the same time add up on the record exactly as the provider refunded them', async () => {
     const { paymentId, sessionId } = await paidOrder(1);
