@@ -121,7 +121,12 @@ function meanLab65(
   for (let y = Math.floor(box.y0 * size.height); y < Math.floor(box.y1 * size.height); y++)
     for (let x = Math.floor(box.x0 * size.width); x < Math.floor(box.x1 * size.width); x++, n++)
       for (let c = 0; c < 3; c++) sum[c]! += data[(y * size.width + x) * size.channels + c]!;
-  const lab = toLab65({ mode: 'rgb', r: sum[0]! / n / 255, g: sum[1]! / n / 255, b: sum[2]! / n / 255 });
+  return lab65OfCodes(sum.map((s) => s / n));
+}
+
+/** CIELAB (D65, culori's lab65) of mean 8-bit sRGB code values. */
+function lab65OfCodes([r, g, b]: number[]): { l: number; a: number; b: number } {
+  const lab = toLab65({ mode: 'rgb', r: r! / 255, g: g! / 255, b: b! / 255 });
   return { l: lab.l, a: lab.a ?? 0, b: lab.b ?? 0 };
 }
 
@@ -303,19 +308,25 @@ describe('tuning a roll', () => {
       .toBeGreaterThan(0);
     const points = async () => Number(await page.getByTestId('value-magentaGreen').innerText());
     expect(await points()).toBe(0);
-    /** The neutral patch as the live preview shows it. */
+    /** The neutral patch as the live preview shows it: its mean code values, summed in the page. */
     const previewLab = async () => {
-      const pixels = await canvas.evaluate((c) => {
+      const mean = await canvas.evaluate((c, box) => {
         const el = c as HTMLCanvasElement;
-        const rgba = el.getContext('2d')!.getImageData(0, 0, el.width, el.height).data;
-        return { width: el.width, height: el.height, rgba: Array.from(rgba) };
-      });
-      return meanLab65(pixels.rgba, { width: pixels.width, height: pixels.height, channels: 4 }, patch);
+        const [x0, y0] = [Math.floor(box.x0 * el.width), Math.floor(box.y0 * el.height)];
+        const [x1, y1] = [Math.floor(box.x1 * el.width), Math.floor(box.y1 * el.height)];
+        const rgba = el.getContext('2d')!.getImageData(x0, y0, x1 - x0, y1 - y0).data;
+        const sum = [0, 0, 0];
+        for (let i = 0; i < rgba.length; i += 4) for (let k = 0; k < 3; k++) sum[k]! += rgba[i + k]!;
+        return sum.map((v) => v / (rgba.length / 4));
+      }, patch);
+      return lab65OfCodes(mean);
     };
-    // the canvas has its default size before the first rendering lands: wait for the preview's timing and a lit patch
-    await page.getByTestId('preview-ms').waitFor({ timeout: 30_000 });
+    // the canvas has its default size before the first rendering lands: wait until it has drawn one
+    await expect
+      .poll(async () => Number(await canvas.getAttribute('data-render-count')), { timeout: 30_000 })
+      .toBeGreaterThan(0);
     let reading = await previewLab();
-    await expect.poll(async () => (reading = await previewLab()).l, { timeout: 30_000 }).toBeGreaterThan(10);
+    expect(reading.l).toBeGreaterThan(10);
     expect(reading.a).toBeGreaterThan(4);
 
     // one whole point greener at a time (the slider's arrow key), until the patch's a* crosses zero in the preview
