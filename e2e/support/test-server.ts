@@ -51,7 +51,9 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
   child.stdout?.on('data', (d: Buffer) => (log += d.toString()));
   child.stderr?.on('data', (d: Buffer) => (log += d.toString()));
   const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 60_000;
+  // migrating and seeding the demo lab took 72 s with both cores busy (load 16): leave room above that
+  const startupMs = 180_000;
+  const deadline = Date.now() + startupMs;
   for (;;) {
     if (child.exitCode !== null)
       throw new Error(`The server exited (${child.exitCode}) while starting:\n${log}`);
@@ -63,16 +65,24 @@ export async function startTestServer(env: Record<string, string> = {}): Promise
     }
     if (Date.now() > deadline) {
       child.kill('SIGKILL');
-      throw new Error(`The server did not answer within 60 s:\n${log}`);
+      throw new Error(`The server did not answer within ${startupMs / 1000} s:\n${log}`);
     }
     await new Promise((r) => setTimeout(r, 200));
   }
+  let stopping = false;
+  // a server that dies under the tests shows only as refused connections: say why it ended, with its output
+  child.once('exit', (code, signal) => {
+    if (!stopping)
+      console.error(`The test server on ${url} exited (${signal ?? code}) while in use:\n${log}`);
+  });
   return {
     url,
     dataDir,
     output: () => log,
     stop: async () => {
-      if (child.exitCode === null) {
+      stopping = true;
+      // a process ended by a signal keeps exitCode null: only one still running is asked to stop
+      if (child.exitCode === null && child.signalCode === null) {
         const exited = new Promise((r) => child.once('exit', r));
         child.kill('SIGTERM');
         const timer = setTimeout(() => child.kill('SIGKILL'), 10_000);
