@@ -96,6 +96,21 @@ export async function findFrameOutput(
     .executeTakeFirst();
 }
 
+/** Full-size outputs a 1:1 view is cut from, best first: the lossless 16-bit ones, then the JPEG. */
+const fullSizeKinds = ['png16', 'tiff16', 'jpeg'] as const;
+
+/** A frame's best full-size output (`fullSizeKinds`, best first), if it has one. */
+export async function findFullSizeOutput(
+  db: Kysely<Database>,
+  frameId: number,
+): Promise<{ sha256: string; media_type: string } | undefined> {
+  for (const kind of fullSizeKinds) {
+    const output = await findFrameOutput(db, frameId, kind);
+    if (output) return output;
+  }
+  return undefined;
+}
+
 /** Records (or replaces) one render of a frame. */
 export async function putFrameOutput(
   db: Kysely<Database>,
@@ -148,6 +163,29 @@ export async function saveFrameAdjustments(
       ...(options.requeue ? { status: 'queued' as const, attempts: 0, error: null } : {}),
     })
     .where('id', '=', id)
+    .execute();
+}
+
+/** Puts these frames back in the queue to render again, their tries and last error cleared. */
+export async function requeueFrames(db: Kysely<Database>, ids: readonly number[]): Promise<void> {
+  if (ids.length === 0) return;
+  await db
+    .updateTable('frames')
+    .set({ status: 'queued', attempts: 0, error: null })
+    .where('id', 'in', ids)
+    .execute();
+}
+
+/**
+ * Puts a roll's frames back in the queue to render again, but for those being inverted: the job in hand renders them
+ * with what it read.
+ */
+export async function requeueFramesOfRoll(db: Kysely<Database>, rollId: number): Promise<void> {
+  await db
+    .updateTable('frames')
+    .set({ status: 'queued', attempts: 0, error: null })
+    .where('roll_id', '=', rollId)
+    .where('status', '!=', 'inverting')
     .execute();
 }
 

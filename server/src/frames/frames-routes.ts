@@ -7,26 +7,18 @@ import {
   type PixelRegion,
 } from '@clearbase/contracts';
 import type { Response } from 'express';
-import type { Kysely } from 'kysely';
 import { basename, extname } from 'node:path';
 import sharp from 'sharp';
-import type { Database } from '../db/database';
 import { assertCustomerMayGet } from '../downloads/assert-customer-may-get';
 import { AppError, type FieldError } from '../errors/app-error';
-import { recordFile } from '../files/file-repository';
 import { createFileStore, type FileStore } from '../files/file-store';
 import type { RouteModule } from '../http/route-module';
 import { POSITIVE_EXTENSIONS } from '../imaging/index';
-import type { FrameRow } from '../orders/order-tables';
 import { loadFrameFor } from './frame-access';
-import { frameSourcePath } from './frame-negative';
-import { findFrameOutput, outputFormatsOfFrames, putFrameOutput, toFrame } from './frame-repository';
+import { findFrameOutput, findFullSizeOutput, outputFormatsOfFrames, toFrame } from './frame-repository';
+import { negativePreviewOf } from './negative-preview';
 
 const everyone = ['customer', ...staffRoles] as const;
-/** Long edge of the previews, pixels: sharp enough for a full-screen view, small enough to load fast (our choice). */
-export const previewLongEdge = 2048;
-// JPEG quality 85 for a look at the negative, not for delivery: common practice for web previews, from memory
-const negativePreviewQuality = 85;
 
 // Kept where it was for the routes that still load frames from here; frame-access.ts is its home.
 export { loadFrameFor } from './frame-access';
@@ -45,50 +37,8 @@ function sendStored(
   res.sendFile(store.pathOf(sha256));
 }
 
-/** The negative as scanned, reduced to a JPEG preview, made on first request and kept in the store. */
-async function negativePreview(
-  db: Kysely<Database>,
-  store: FileStore,
-  frame: FrameRow,
-  at: Date,
-): Promise<{ sha256: string; media_type: string }> {
-  const known = await findFrameOutput(db, frame.id, 'negative-preview');
-  if (known) return known;
-  const bytes = await sharp(await frameSourcePath(db, store, frame))
-    .resize(previewLongEdge, previewLongEdge, { fit: 'inside', withoutEnlargement: true })
-    .toColourspace('srgb')
-    .jpeg({ quality: negativePreviewQuality })
-    .toBuffer();
-  const stored = await store.putBytes(bytes);
-  await db.transaction().execute(async (trx) => {
-    const file = await recordFile(trx, {
-      sha256: stored.sha256,
-      size: stored.size,
-      mediaType: 'image/jpeg',
-      at,
-    });
-    await putFrameOutput(trx, { frameId: frame.id, kind: 'negative-preview', fileId: file.id, at });
-  });
-  return { sha256: stored.sha256, media_type: 'image/jpeg' };
-}
-
 // 92 keeps grain and edges at 1:1 while staying a fraction of PNG's size: common practice, from memory
 const regionJpegQuality = 92;
-/** Full-size outputs a 1:1 view is cut from, best first: the lossless 16-bit ones, then the JPEG. */
-const fullSizeKinds = ['png16', 'tiff16', 'jpeg'] as const;
-
-/** A frame's best full-size output, if it has one. */
-async function fullSizeOutput(
-  db: Kysely<Database>,
-  frameId: number,
-): Promise<{ sha256: string; media_type: string } | undefined> {
-  for (const kind of fullSizeKinds) {
-    const output = await findFrameOutput(db, frameId, kind);
-    if (output) return output;
-  }
-  return undefined;
-}
-
 /** Throws a 422 naming the query field when the rectangle does not lie inside the width × height positive. */
 function assertRegionInsidePositive(region: PixelRegion, width: number, height: number): void {
   const errors: FieldError[] = [];
@@ -154,7 +104,7 @@ export const framesRoutes: RouteModule = (api, { db, config, clock }) => {
     },
     async (_req, res, { params, user }) => {
       const frame = await loadFrameFor(db, params.id, user!);
-      const preview = await negativePreview(db, store, frame, clock.now());
+      const preview = await negativePreviewOf(db, store, frame, clock.now());
       sendStored(res, store, preview.sha256, preview.media_type);
     },
   );
@@ -203,7 +153,7 @@ export const framesRoutes: RouteModule = (api, { db, config, clock }) => {
     },
     async (req, res, { params, query, user }) => {
       const frame = await loadFrameFor(db, params.id, user!);
-      const output = frame.status === 'done' ? await fullSizeOutput(db, frame.id) : undefined;
+      const output = frame.status === 'done' ? await findFullSizeOutput(db, frame.id) : undefined;
       if (!output) {
         throw new AppError('output-not-ready', 404, `Frame ${frame.id} has not been inverted yet.`);
       }
