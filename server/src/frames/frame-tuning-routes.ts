@@ -15,15 +15,14 @@ import { createFileStore } from '../files/file-store';
 import type { RouteModule } from '../http/route-module';
 import { sendRawPixels } from '../http/send-raw-pixels';
 import { readNegative } from '../imaging/index';
-import { recordOrderAudit } from '../orders/record-order-audit';
 import { findVersionById } from '../profiles/profile-repository';
+import { createAdjustmentsService } from '../rolls/adjustments-service';
 import { scannerProfileOf } from '../rolls/roll-access';
 import { findRollById } from '../rolls/roll-repository';
 import { workingNegativeCacheOf } from '../tuning/working-negative-cache';
 import { measureBaseOffThread, measureLevelsOffThread } from '../tuning/working-negative-worker';
 import { loadFrameFor } from './frame-access';
 import { frameSourceFile } from './frame-negative';
-import { findFrameById, outputFormatsOfFrames, saveFrameAdjustments, toFrame } from './frame-repository';
 
 const parse = <T>(text: string | null): T | null => (text === null ? null : (JSON.parse(text) as T));
 
@@ -36,6 +35,7 @@ export const frameTuningRoutes: RouteModule = (api, { db, config, clock }) => {
   const store = createFileStore(config.dataDir);
   const { maxPixels } = config.uploads;
   const filmBase = createFilmBaseService({ db, store, clock, maxPixels });
+  const adjustments = createAdjustmentsService({ db, clock });
   const workingNegatives = workingNegativeCacheOf(store);
 
   api.define(
@@ -60,22 +60,7 @@ export const frameTuningRoutes: RouteModule = (api, { db, config, clock }) => {
       summary: 'Tune one frame on top of its roll',
     },
     async (_req, res, { params, body, user }) => {
-      const before = await loadFrameFor(db, params.id, user!);
-      const frame = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        // a frame being inverted keeps its state: the job in hand renders it with what it read
-        await saveFrameAdjustments(trx, before.id, body, { requeue: before.status !== 'inverting' });
-        await recordOrderAudit(trx, {
-          at,
-          actor: user!,
-          action: 'frame-adjusted',
-          target: `frame:${before.id}`,
-          details: { before: JSON.parse(before.adjustments), after: body },
-        });
-        return (await findFrameById(trx, before.id))!;
-      });
-      const outputs = await outputFormatsOfFrames(db, [frame.id]);
-      res.json(toFrame(frame, outputs.get(frame.id)));
+      res.json(await adjustments.adjustFrame(user!, params.id, body));
     },
   );
 

@@ -1,8 +1,6 @@
 import { adjustmentsSchema, idParamsSchema, staffRoles } from '@clearbase/contracts';
 import type { RouteModule } from '../http/route-module';
-import { recordOrderAudit } from '../orders/record-order-audit';
-import { loadRollFor } from './roll-access';
-import { findRollById, toRoll } from './roll-repository';
+import { createAdjustmentsService } from './adjustments-service';
 
 /**
  * Tuning of a roll (printer points, exposure, contrast; a single frame's is in `frames/`). A change puts the roll's
@@ -10,6 +8,8 @@ import { findRollById, toRoll } from './roll-repository';
  * rendered anew (the preview keeps showing the last render).
  */
 export const adjustmentsRoutes: RouteModule = (api, { db, clock }) => {
+  const adjustments = createAdjustmentsService({ db, clock });
+
   api.define(
     {
       method: 'put',
@@ -20,30 +20,7 @@ export const adjustmentsRoutes: RouteModule = (api, { db, clock }) => {
       summary: 'Tune a roll: balance in printer points, exposure in stops, contrast',
     },
     async (_req, res, { params, body, user }) => {
-      const before = await loadRollFor(db, params.id, user!);
-      const roll = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        await trx
-          .updateTable('rolls')
-          .set({ adjustments: JSON.stringify(body), updated_at: at.toISOString() })
-          .where('id', '=', before.id)
-          .execute();
-        await trx
-          .updateTable('frames')
-          .set({ status: 'queued', attempts: 0, error: null })
-          .where('roll_id', '=', before.id)
-          .where('status', '!=', 'inverting')
-          .execute();
-        await recordOrderAudit(trx, {
-          at,
-          actor: user!,
-          action: 'roll-adjusted',
-          target: `roll:${before.id}`,
-          details: { before: JSON.parse(before.adjustments), after: body },
-        });
-        return toRoll((await findRollById(trx, before.id))!);
-      });
-      res.json(roll);
+      res.json(await adjustments.adjustRoll(user!, params.id, body));
     },
   );
 };

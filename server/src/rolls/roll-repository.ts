@@ -109,6 +109,20 @@ export async function setRollStatus(
   await db.updateTable('rolls').set({ status, updated_at: at.toISOString() }).where('id', '=', id).execute();
 }
 
+/** Stores a roll's own adjustments (printer points, exposure, contrast). */
+export async function saveRollAdjustments(
+  db: Kysely<Database>,
+  id: number,
+  adjustments: Adjustments,
+  at: Date,
+): Promise<void> {
+  await db
+    .updateTable('rolls')
+    .set({ adjustments: JSON.stringify(adjustments), updated_at: at.toISOString() })
+    .where('id', '=', id)
+    .execute();
+}
+
 const parse = <T>(text: string | null): T | null => (text === null ? null : (JSON.parse(text) as T));
 
 export function toRoll(row: RollListRow): Roll {
