@@ -5,22 +5,16 @@ import {
   staffRoles,
   type RollEvent,
 } from '@clearbase/contracts';
-import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
 import { baseChangeHandler } from '../film-base/base-change-handler';
 import { createFilmBaseService } from '../film-base/film-base-service';
 import { listFramesOfRoll, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
 import type { RouteModule } from '../http/route-module';
-import { activeJobOf, insertJob, latestJobOf, rollTarget, toJob } from '../jobs/job-repository';
-import {
-  announceJobQueued,
-  onCloseRollStreams,
-  publishRollEvent,
-  subscribeRollEvents,
-} from '../jobs/roll-events';
-import { recordOrderAudit } from '../orders/record-order-audit';
+import { createInversionService } from '../jobs/inversion-service';
+import { latestJobOf, rollTarget, toJob } from '../jobs/job-repository';
+import { onCloseRollStreams, subscribeRollEvents } from '../jobs/roll-events';
 import { loadRollFor } from './roll-access';
-import { setRollStatus, toRoll } from './roll-repository';
+import { toRoll } from './roll-repository';
 
 const everyone = ['customer', ...staffRoles] as const;
 // 15 s between heartbeats keeps proxies from closing an idle stream (most time out after 30-60 s); from memory
@@ -28,6 +22,7 @@ export const heartbeatMs = 15_000;
 
 /** A roll with its frames, its inversion job, its base, and its live stream of changes. */
 export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
+  const inversion = createInversionService({ db, clock });
   const filmBase = createFilmBaseService({
     db,
     store: createFileStore(config.dataDir),
@@ -69,56 +64,7 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
       summary: 'Start (or restart) the roll’s batch inversion; answers 202 with the job',
     },
     async (_req, res, { params, body, user }) => {
-      const roll = await loadRollFor(db, params.id, user!);
-      const target = rollTarget(roll.id);
-      const running = await activeJobOf(db, target);
-      if (running) {
-        res.status(202).json(toJob(running));
-        return;
-      }
-      const job = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        const frames = await listFramesOfRoll(trx, roll.id);
-        if (frames.length === 0) {
-          throw new AppError(
-            'roll-has-no-frames',
-            409,
-            `Roll ${roll.id} has no scans yet; upload them first.`,
-          );
-        }
-        const again = body.frames === 'all' ? frames : frames.filter((f) => f.status !== 'done');
-        if (again.length) {
-          await trx
-            .updateTable('frames')
-            .set({ status: 'queued', attempts: 0, error: null })
-            .where(
-              'id',
-              'in',
-              again.map((f) => f.id),
-            )
-            .execute();
-        }
-        const job = await insertJob(trx, {
-          kind: 'invert-roll',
-          target,
-          payload: { rollId: roll.id, frames: body.frames, levels: body.levels },
-          total: again.length,
-          by: user!.id,
-          at,
-        });
-        await setRollStatus(trx, roll.id, 'inverting', at);
-        await recordOrderAudit(trx, {
-          at,
-          actor: user!,
-          action: 'inversion-started',
-          target,
-          details: { jobId: job.id, frames: body.frames, levels: body.levels, count: again.length },
-        });
-        return job;
-      });
-      publishRollEvent(db, roll.id, { type: 'job', job: toJob(job) });
-      announceJobQueued(db);
-      res.status(202).json(toJob(job));
+      res.status(202).json(await inversion.start(user!, params.id, body));
     },
   );
 
