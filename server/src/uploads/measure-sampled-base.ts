@@ -1,6 +1,6 @@
 import type { MeasuredBase, ScannerProfile } from '@clearbase/contracts';
 import { detectFilmBase } from '@clearbase/inversion';
-import { toMeasuredBase } from '../frames/measure-base';
+import { toMeasuredBase } from '../film-base/measured-base';
 import type { NegativeSample } from '../imaging/index';
 
 /**

@@ -3,7 +3,7 @@ import { mkdtemp, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { measureNegativeBase } from '../frames/measure-base';
+import { measureNegativeBase } from '../film-base/measure-film-base';
 import { ImageInputError, readNegative } from '../imaging/index';
 import { flatTiff } from '../imaging/tiff-test-fixtures';
 import { negativeTiff } from '../orders/order-test-fixtures';
