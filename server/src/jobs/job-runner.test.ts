@@ -71,11 +71,12 @@ describe('batch inversion', () => {
       });
     }
     const frameId = detail.frames[0].id as number;
-    const preview = await customer.get(`/api/frames/${frameId}/preview`).expect(200);
+    // staff read the files: a customer gets them once the order is released (ready and paid)
+    const preview = await operator.get(`/api/frames/${frameId}/preview`).expect(200);
     expect(preview.headers['content-type']).toBe('image/jpeg');
     const meta = await sharp(preview.body as Buffer).metadata();
     expect([meta.width, meta.height]).toEqual([96, 64]);
-    const tiff = await customer.get(`/api/frames/${frameId}/output?format=tiff16`);
+    const tiff = await operator.get(`/api/frames/${frameId}/output?format=tiff16`);
     expect(tiff.status).toBe(200);
     expect(tiff.headers['content-disposition']).toBe('attachment; filename=f1.tif');
     expect((await sharp(tiff.body as Buffer).metadata()).depth).toBe('ushort');
@@ -86,7 +87,7 @@ describe('batch inversion', () => {
       sourceFile: 'f1.tif',
       adjustments: { roll: { exposureStops: 0 }, frame: { exposureStops: 0 } },
     });
-    const jpeg = await customer.get(`/api/frames/${frameId}/output?format=jpeg`).expect(200);
+    const jpeg = await operator.get(`/api/frames/${frameId}/output?format=jpeg`).expect(200);
     const jpegMeta = await sharp(jpeg.body as Buffer).metadata();
     expect([jpegMeta.width, jpegMeta.height, jpegMeta.space, jpegMeta.hasProfile]).toEqual([
       96,
@@ -95,7 +96,7 @@ describe('batch inversion', () => {
       true,
     ]);
     expect(parsePositiveXmp(jpegMeta.xmpAsString ?? '')).toMatchObject({ profileVersion: 'testline@1' });
-    expect((await customer.get(`/api/frames/${frameId}/output?format=png16`)).status).toBe(404);
+    expect((await operator.get(`/api/frames/${frameId}/output?format=png16`)).status).toBe(404);
     expect(readdirSync(join(t.config.dataDir, 'tmp'))).toEqual([]);
   });
 
