@@ -2,8 +2,8 @@ import type { AuditEntry, AuditQuery } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
 
-/** The actions the audit log records. */
-export type AuditAction =
+/** Sign-in, accounts and the lab's settings. */
+export type AccountAuditAction =
   | 'sign-in'
   | 'sign-in-failed'
   | 'sign-out'
@@ -15,6 +15,40 @@ export type AuditAction =
   | 'user-enabled'
   | 'settings-changed'
   | 'mail-retried';
+
+/** Orders, rolls, frames, their review and inversion jobs. */
+export type OrderAuditAction =
+  | 'order-created'
+  | 'order-status-changed'
+  | 'roll-created'
+  | 'roll-base-changed'
+  | 'frames-uploaded'
+  | 'frame-base-changed'
+  | 'roll-adjusted'
+  | 'frame-adjusted'
+  | 'frame-reviewed'
+  | 'inversion-started'
+  | 'inversion-cancelled';
+
+/** Stocks, scanners, profiles and their versions, and the calibrations that make drafts. */
+export type CatalogueAuditAction =
+  | 'stock-created'
+  | 'stock-sheet-updated'
+  | 'scanner-created'
+  | 'scanner-updated'
+  | 'profile-created'
+  | 'profile-imported'
+  | 'profile-version-created'
+  | 'profile-version-updated'
+  | 'profile-version-published'
+  | 'profile-version-retired'
+  | 'calibration-created';
+
+/** Money: refunds sent to the payment provider, and those it refused. */
+export type PaymentAuditAction = 'payment-refunded' | 'payment-refund-refused';
+
+/** Every action the audit log records. */
+export type AuditAction = AccountAuditAction | OrderAuditAction | CatalogueAuditAction | PaymentAuditAction;
 
 export interface AuditEvent {
   at: Date;

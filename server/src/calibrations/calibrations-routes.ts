@@ -17,7 +17,7 @@ import multer from 'multer';
 import { randomUUID } from 'node:crypto';
 import { unlink } from 'node:fs/promises';
 import sharp from 'sharp';
-import { recordAudit, type AuditAction } from '../audit/audit-log';
+import { recordAudit } from '../audit/audit-log';
 import type { Database, StockRow } from '../db/database';
 import { AppError, type FieldError } from '../errors/app-error';
 import { findFileById, recordFile } from '../files/file-repository';
@@ -341,7 +341,7 @@ export const calibrationsRoutes: RouteModule = (api, { db, config, clock }) => {
           await recordAudit(trx, {
             at,
             actor: user!,
-            action: 'calibration-created' as AuditAction,
+            action: 'calibration-created',
             target: `calibration:${row.id}`,
             details: {
               stockId: stock.id,

@@ -1,6 +1,6 @@
 import type { OrderStatus } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
-import { recordAudit, type AuditAction } from '../audit/audit-log';
+import { recordAudit } from '../audit/audit-log';
 import type { Database } from '../db/database';
 
 /** Statuses the work itself may move an order out of; from tuning on, people decide. */
@@ -64,7 +64,7 @@ export async function advanceOrderWithWork(
     await recordAudit(trx, {
       at,
       actor: null,
-      action: 'order-status-changed' as string as AuditAction,
+      action: 'order-status-changed',
       target: `order:${orderId}`,
       details: { before: before.status, after: target, by: 'system', reason: reasonFor(target) },
     });

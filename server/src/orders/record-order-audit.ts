@@ -1,24 +1,12 @@
 import type { User } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
-import { recordAudit, type AuditAction } from '../audit/audit-log';
+import { recordAudit, type OrderAuditAction } from '../audit/audit-log';
 import type { Database } from '../db/database';
 
-/** Audit actions of orders, rolls, frames and inversion jobs. */
-export type OrderAuditAction =
-  | 'order-created'
-  | 'order-status-changed'
-  | 'roll-created'
-  | 'roll-base-changed'
-  | 'frames-uploaded'
-  | 'frame-base-changed'
-  | 'roll-adjusted'
-  | 'frame-adjusted'
-  | 'inversion-started'
-  | 'inversion-cancelled';
+export type { OrderAuditAction };
 
 /**
- * Appends a change of an order, roll, frame or job to the audit log. The audit module's action list names account
- * events; these names extend it without editing it.
+ * Appends a change of an order, roll, frame or job to the audit log.
  */
 export function recordOrderAudit(
   db: Kysely<Database>,
@@ -33,7 +21,7 @@ export function recordOrderAudit(
   return recordAudit(db, {
     at: event.at,
     actor: { id: event.actor.id, email: event.actor.email },
-    action: event.action as string as AuditAction,
+    action: event.action,
     target: event.target,
     details: event.details,
   });

@@ -23,8 +23,8 @@ export interface RefundDeps {
 }
 
 // the audit module's list names account events; payment actions extend it without editing it
-const refundedAction = 'payment-refunded' as string as AuditAction;
-const refusedAction = 'payment-refund-refused' as string as AuditAction;
+const refundedAction: AuditAction = 'payment-refunded';
+const refusedAction: AuditAction = 'payment-refund-refused';
 
 /** True when the provider answered and said no (a 4xx), as opposed to not answering at all. */
 function refusedByProvider(err: unknown): err is Stripe.errors.StripeError {

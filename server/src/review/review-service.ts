@@ -1,6 +1,6 @@
 import type { FrameReviewRequest, FrameReviewResult, User } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
-import { recordAudit, type AuditAction } from '../audit/audit-log';
+import { recordAudit } from '../audit/audit-log';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
@@ -53,7 +53,7 @@ export function createReviewService({ db, clock }: ReviewDeps) {
         await recordAudit(trx, {
           at,
           actor: { id: actor.id, email: actor.email },
-          action: 'frame-reviewed' as string as AuditAction,
+          action: 'frame-reviewed',
           target: `frame:${frame.id}`,
           details: {
             before: before ? { decision: before.decision, note: before.note } : null,
