@@ -1,7 +1,7 @@
 import type { OrderBalance, OrderStatus } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
-import { readLab } from '../lab/lab-routes';
+import { readLab } from '../lab/lab-settings';
 import { loadOrderBalance } from '../payments/load-order-balance';
 import type { FileReleaseState } from './customer-file-access';
 

@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
-import { readLab } from '../lab/lab-routes';
+import { readLab } from '../lab/lab-settings';
 import type { MailMessage } from './mail-message';
 import { renderMail, type MailKind, type MailTemplateData } from './mail-templates';
 import type { OutboxRow } from './outbox-table';

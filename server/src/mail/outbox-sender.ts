@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { Logger } from 'pino';
 import type { Clock } from '../clock';
 import type { Database } from '../db/database';
-import { readLab } from '../lab/lab-routes';
+import { readLab } from '../lab/lab-settings';
 import type { MailTransport } from './mail-transport';
 import { findDueMail, markMailAttemptFailed, markMailSent } from './outbox-repository';
 import { retryDelayMs } from './retry-delay';
