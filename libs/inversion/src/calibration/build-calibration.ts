@@ -167,13 +167,19 @@ export function buildCalibration(input: CalibrationInput): CalibrationResult & {
  *    frame too (`chartDeltaE`); warnings, among them a memorised chart when the cross-validated mean
  *    exceeds the training mean by more than CROSS_VALIDATION_GAP_LIMIT.
  *
- * Throws a RangeError when fewer than two grey frames are usable or the chart has the wrong patch count.
+ * Throws a RangeError when fewer than two grey frames are usable or a chart frame has the wrong patch count.
  * @example fitCalibration(measurements).profileDocument.crosstalk // e.g. [[1.08, -0.06, -0.02], …]
  */
 export function fitCalibration(input: CalibrationMeasurements): CalibrationResult {
   const reference = input.reference ?? CHART_REFERENCE;
   if (input.chart.length !== reference.length)
     throw new RangeError(`Expected ${reference.length} chart samples but received ${input.chart.length}`);
+  (input.moreCharts ?? []).forEach((c, k) => {
+    if (c.samples.length !== reference.length)
+      throw new RangeError(
+        `Expected ${reference.length} chart samples for moreCharts[${k}] but received ${c.samples.length}`,
+      );
+  });
   input.base.forEach((b, c) => {
     if (!(typeof b === 'number' && b > 0 && b <= 1))
       throw new RangeError(

@@ -57,13 +57,16 @@ describe('fitting sampled measurements', () => {
     expect(p?.density).toBeCloseTo(0.7, 6);
   });
 
-  it('refuses fewer than two usable frames and a chart of the wrong size', () => {
+  it('refuses fewer than two usable frames and a chart frame of the wrong size', () => {
     expect(() => fitCalibration({ ...measurements, brackets: measurements.brackets.slice(0, 1) })).toThrow(
       'Expected at least 2 usable grey frames but received 1',
     );
     expect(() => fitCalibration({ ...measurements, chart: measurements.chart.slice(1) })).toThrow(
       'Expected 24 chart samples but received 23',
     );
+    expect(() =>
+      fitCalibration({ ...measurements, moreCharts: [{ samples: measurements.chart.slice(2), stops: 2 }] }),
+    ).toThrow('Expected 24 chart samples for moreCharts[0] but received 22');
   });
 
   it('warns that the colour fit memorises the chart when patches scatter off the film’s response', () => {
