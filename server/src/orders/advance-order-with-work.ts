@@ -1,7 +1,8 @@
 import type { OrderStatus } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
-import { recordAudit } from '../audit/audit-log';
 import type { Database } from '../db/database';
+import { moveOrder } from './move-order';
+import { findOrderById } from './order-repository';
 
 /** Statuses the work itself may move an order out of; from tuning on, people decide. */
 const movedByWork: readonly OrderStatus[] = ['received', 'developing', 'scanning'];
@@ -47,28 +48,17 @@ export async function advanceOrderWithWork(
   if (!target) return null;
   const earlier = workOrder.slice(0, workOrder.indexOf(target)).filter((s) => movedByWork.includes(s));
   return db.transaction().execute(async (trx) => {
-    const before = await trx
-      .selectFrom('orders')
-      .select('status')
-      .where('id', '=', orderId)
-      .executeTakeFirst();
+    const before = await findOrderById(trx, orderId);
     if (!before || !earlier.includes(before.status)) return null;
-    // the condition on the status keeps a concurrent change by staff from being overwritten
-    const moved = await trx
-      .updateTable('orders')
-      .set({ status: target, updated_at: at.toISOString() })
-      .where('id', '=', orderId)
-      .where('status', '=', before.status)
-      .executeTakeFirst();
-    if (Number(moved.numUpdatedRows) === 0) return null;
-    await recordAudit(trx, {
-      at,
+    const moved = await moveOrder(trx, {
+      orderId,
+      from: before.status,
+      to: target,
       actor: null,
-      action: 'order-status-changed',
-      target: `order:${orderId}`,
-      details: { before: before.status, after: target, by: 'system', reason: reasonFor(target) },
+      at,
+      details: { reason: reasonFor(target) },
     });
-    return target;
+    return moved ? target : null;
   });
 }
 

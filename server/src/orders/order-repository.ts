@@ -101,18 +101,21 @@ export function insertOrder(
     .executeTakeFirstOrThrow();
 }
 
-export function setOrderStatus(
+/** Sets an order's status if it is still `from`; false when it was not (another change came first). */
+export async function setOrderStatusIf(
   db: Kysely<Database>,
   id: number,
-  status: OrderStatus,
+  from: OrderStatus,
+  to: OrderStatus,
   at: Date,
-): Promise<OrderRow | undefined> {
-  return db
+): Promise<boolean> {
+  const result = await db
     .updateTable('orders')
-    .set({ status, updated_at: at.toISOString() })
+    .set({ status: to, updated_at: at.toISOString() })
     .where('id', '=', id)
-    .returningAll()
+    .where('status', '=', from)
     .executeTakeFirst();
+  return Number(result.numUpdatedRows) === 1;
 }
 
 export function toOrder(row: OrderListRow): Order {

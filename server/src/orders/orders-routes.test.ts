@@ -126,4 +126,17 @@ describe('orders', () => {
     expect(JSON.parse(audit.details!)).toEqual({ before: 'received', after: 'developing' });
     expect(await customer.patch(`/api/orders/${order}`, { status: 'ready' }).then((r) => r.status)).toBe(403);
   });
+
+  it('sends ready through marking ready and hands over only a ready order, changing nothing otherwise', async () => {
+    const order = (await customer.post('/api/orders', {}).expect(201)).body.id as number;
+    const ready = await operator.patch(`/api/orders/${order}`, { status: 'ready' });
+    expect(ready.status).toBe(409);
+    expect(ready.body).toMatchObject({ code: 'mark-ready-instead' });
+    const delivered = await operator.patch(`/api/orders/${order}`, { status: 'delivered' });
+    expect(delivered.status).toBe(409);
+    expect(delivered.body.detail).toBe(
+      `Order ${order} is received; only a ready order can be delivered. Mark it ready first.`,
+    );
+    expect((await operator.get(`/api/orders/${order}`).expect(200)).body.order.status).toBe('received');
+  });
 });

@@ -13,15 +13,10 @@ import { readPriceList } from '../prices/price-list-store';
 import { listRollsOfOrder, toRoll } from '../rolls/roll-repository';
 import { findUserById } from '../users/user-repository';
 import { addRollToOrder } from './add-roll-to-order';
+import { moveOrder } from './move-order';
 import { isStaff, loadOrderFor } from './order-access';
-import {
-  findOrderById,
-  insertOrder,
-  listOrderCustomers,
-  listOrders,
-  setOrderStatus,
-  toOrder,
-} from './order-repository';
+import { refusalOfStaffMove } from './order-status';
+import { findOrderById, insertOrder, listOrderCustomers, listOrders, toOrder } from './order-repository';
 import { recordOrderAudit } from './record-order-audit';
 
 const everyone = ['customer', ...staffRoles] as const;
@@ -139,24 +134,25 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
     },
     async (_req, res, { params, body, user }) => {
       const before = await loadOrderFor(db, params.id, user!);
-      if (before.status === 'delivered' || before.status === 'cancelled') {
-        throw new AppError(
-          'order-closed',
-          409,
-          `Order ${before.id} is ${before.status} and cannot change status any more.`,
-        );
-      }
+      const refused = refusalOfStaffMove(before.id, before.status, body.status);
+      if (refused) throw refused;
       const order = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        await setOrderStatus(trx, before.id, body.status, at);
-        await recordOrderAudit(trx, {
-          at,
+        const moved = await moveOrder(trx, {
+          orderId: before.id,
+          from: before.status,
+          to: body.status,
           actor: user!,
-          action: 'order-status-changed',
-          target: `order:${before.id}`,
-          details: { before: before.status, after: body.status },
+          at: clock.now(),
         });
-        return toOrder((await findOrderById(trx, before.id))!);
+        const now = (await findOrderById(trx, before.id))!;
+        if (!moved && now.status !== body.status) {
+          throw new AppError(
+            'order-moved-meanwhile',
+            409,
+            `Order ${before.id} became ${now.status} meanwhile; reload it and choose again.`,
+          );
+        }
+        return toOrder(now);
       });
       res.json(order);
     },

@@ -22,6 +22,14 @@ beforeAll(async () => {
     ],
   }));
   await t.db.updateTable('orders').set({ status: 'tuning' }).where('id', '=', order).execute();
+  // the lab takes payment on collection, so approving every roll readies the order
+  await t.db
+    .insertInto('settings')
+    .values({
+      key: 'lab',
+      value: JSON.stringify({ name: 'Test lab', town: '', address: '', payOnCollection: true }),
+    })
+    .execute();
 });
 afterAll(() => t.close());
 

@@ -4,6 +4,7 @@ import { AppError } from '../errors/app-error';
 import { addOrderTestLab, addRollWithScans, negativeTiff } from '../orders/order-test-fixtures';
 import { addUser, createTestApp, type TestApp } from '../test-support/test-app';
 import { findUserByEmail, findUserById, toUser } from '../users/user-repository';
+import { writeLab } from '../lab/lab-settings';
 import { createReviewService, type ReviewService } from './review-service';
 
 let t: TestApp;
@@ -76,7 +77,15 @@ describe('review service', () => {
     expect(await orderStatus()).toBe('tuning');
   });
 
+  it('leaves an approved order that is not paid in tuning, as marking it ready would', async () => {
+    const settled = await review.decide(operator, secondFrames[0]!, { decision: 'excluded', note: 'fogged' });
+    expect(settled.rollApproved).toBe(true);
+    expect(await orderStatus()).toBe('tuning');
+  });
+
   it('readies the order when the last roll is settled, audits the change, and takes it back on a rejection', async () => {
+    // the lab takes payment on collection, so approval alone readies the order
+    await writeLab(t, operator, { name: 'Test lab', town: '', address: '', payOnCollection: true });
     const settled = await review.decide(operator, secondFrames[0]!, { decision: 'excluded', note: 'fogged' });
     expect(settled.rollApproved).toBe(true);
     expect(await orderStatus()).toBe('ready');

@@ -6,8 +6,10 @@ import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
 import { findFrameById } from '../frames/frame-repository';
 import { loadFrameFor } from '../frames/frame-access';
-import { findOrderById, setOrderStatus } from '../orders/order-repository';
-import { recordOrderAudit } from '../orders/record-order-audit';
+import { loadFileRelease } from '../downloads/load-file-release';
+import { readyPaymentBlocker } from '../downloads/ready-payment-blocker';
+import { moveOrder } from '../orders/move-order';
+import { findOrderById } from '../orders/order-repository';
 import { findRollById } from '../rolls/roll-repository';
 import { framesWithReviews } from './frames-with-reviews';
 import { orderStatusAfterReview } from './order-status-after-review';
@@ -63,15 +65,18 @@ export function createReviewService({ db, clock }: ReviewDeps) {
         const roll = (await findRollById(trx, frame.roll_id))!;
         const order = (await findOrderById(trx, roll.order_id))!;
         const rolls = await decisionsByRollOfOrder(trx, order.id);
-        const next = orderStatusAfterReview(order.status, [...rolls.values()].every(isRollApproved));
+        const everyRollApproved = [...rolls.values()].every(isRollApproved);
+        const paymentLetsReady =
+          everyRollApproved && readyPaymentBlocker((await loadFileRelease(trx, order)).state) === null;
+        const next = orderStatusAfterReview(order.status, everyRollApproved, paymentLetsReady);
         if (next) {
-          await setOrderStatus(trx, order.id, next, at);
-          await recordOrderAudit(trx, {
-            at,
+          await moveOrder(trx, {
+            orderId: order.id,
+            from: order.status,
+            to: next,
             actor,
-            action: 'order-status-changed',
-            target: `order:${order.id}`,
-            details: { before: order.status, after: next, because: `frame:${frame.id} reviewed` },
+            at,
+            details: { because: `frame:${frame.id} reviewed` },
           });
         }
         return isRollApproved(rolls.get(roll.id) ?? []);

@@ -125,11 +125,20 @@ export class OrderPage {
     const next = order && !orderClosed(order.status) ? nextOrderStatus(order.status) : null;
     return next === 'ready' ? null : next;
   });
-  /** Statuses an open order may be moved to other than the next one (Ready only through Mark ready). */
+  /**
+   * Statuses an open order may be moved to other than the next one, as the server allows: Ready only through Mark
+   * ready, Delivered only once it is ready.
+   */
   protected readonly otherMoves = computed(() => {
     const order = this.order();
     if (!order || orderClosed(order.status)) return [];
-    return orderStatusChoices.filter((s) => s !== order.status && s !== this.next() && s !== 'ready');
+    return orderStatusChoices.filter(
+      (s) =>
+        s !== order.status &&
+        s !== this.next() &&
+        s !== 'ready' &&
+        (s !== 'delivered' || order.status === 'ready'),
+    );
   });
   protected readonly moving = signal(false);
   /** Customers see the gallery once the scans are ready; staff may look at any time. */
