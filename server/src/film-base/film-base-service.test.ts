@@ -1,4 +1,4 @@
-import type { User } from '@clearbase/contracts';
+import type { MeasuredBase, User } from '@clearbase/contracts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createFileStore } from '../files/file-store';
 import { findFrameById, listFramesOfRoll } from '../frames/frame-repository';
@@ -59,13 +59,39 @@ describe('film base service', () => {
     expect(rollBase!.confidence).toBeGreaterThan(0);
     for (const row of rows)
       expect(filmBase.choose(row, rollBase)).toMatchObject({ usable: true, source: 'frame' });
-    expect(filmBase.choose(rows[0]!, rollBase, null)).toMatchObject({
+    expect(filmBase.choose({ ...rows[0]!, base_measured: null }, rollBase)).toMatchObject({
       usable: true,
       source: 'roll',
       base: { rgb: rollBase!.rgb },
       flags: ['roll-base-used'],
     });
-    expect(filmBase.choose(rows[0]!, null, null)).toMatchObject({ usable: false, flags: ['no-base'] });
+    expect(filmBase.choose({ ...rows[0]!, base_measured: null }, null)).toMatchObject({
+      usable: false,
+      flags: ['no-base'],
+    });
+  });
+
+  it('measures a frame with no base on file before choosing, and only then', async () => {
+    const rollRow = (await findRollById(t.db, roll))!;
+    const [row] = await listFramesOfRoll(t.db, roll);
+    const own = JSON.parse(row!.base_measured!) as MeasuredBase;
+    let asked = 0;
+    const measureOwn = () => {
+      asked++;
+      return Promise.resolve(own);
+    };
+    expect(await filmBase.chooseForFrame(row!, rollRow, measureOwn)).toMatchObject({ source: 'frame' });
+    expect(asked).toBe(0);
+    const unmeasured = { ...row!, base_measured: null };
+    expect(await filmBase.chooseForFrame(unmeasured, rollRow, measureOwn)).toMatchObject({
+      source: 'frame',
+      base: { rgb: own.rgb },
+    });
+    expect(asked).toBe(1);
+    expect(await filmBase.chooseForFrame(unmeasured, rollRow, () => Promise.resolve(null))).toMatchObject({
+      source: 'roll',
+      flags: ['roll-base-used'],
+    });
   });
 
   it('sets a frame’s base in a rectangle, stores it, audits before and after, and forgets the rendered source', async () => {

@@ -72,10 +72,9 @@ export function createFilmBaseService({ db, store, clock, maxPixels }: FilmBaseS
       return rollFilmBase(baseFactsOfRoll(roll), frames.map(baseFactsOfFrame));
     },
 
-    /** The base `frame` renders with, given its roll's base; `measured` stands in for the frame's own when given. */
-    choose(frame: FrameRow, rollBase: MeasuredBase | null, measured?: MeasuredBase | null): FilmBaseChoice {
-      const facts = baseFactsOfFrame(frame);
-      return chooseFilmBase(measured === undefined ? facts : { ...facts, measured }, rollBase);
+    /** The base `frame` renders with, given its roll's base (`chooseFilmBase`). */
+    choose(frame: FrameRow, rollBase: MeasuredBase | null): FilmBaseChoice {
+      return chooseFilmBase(baseFactsOfFrame(frame), rollBase);
     },
 
     /**
