@@ -1,6 +1,6 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
-import { AppError } from '../errors/app-error';
+import { receiveMultipart } from '../http/receive-multipart';
 
 // 1 MB: a profile document is a few kilobytes; the limit only keeps a wrong file from filling memory (our choice)
 export const profileUploadLimitBytes = 1024 * 1024;
@@ -13,18 +13,8 @@ const upload = multer({
 /** Reads a multipart body with one small file field `file` into memory; any other body passes through untouched. */
 export const profileUpload: RequestHandler = (req, res, next) => {
   if (!req.is('multipart/form-data')) return next();
-  upload(req, res, (err: unknown) => {
-    if (!err) return next();
-    if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') {
-      return next(
-        new AppError(
-          'profile-file-too-large',
-          413,
-          `A profile file may be at most ${profileUploadLimitBytes} bytes.`,
-        ),
-      );
-    }
-    const detail = err instanceof multer.MulterError ? `${err.message}.` : 'The upload could not be read.';
-    next(new AppError('profile-upload-invalid', 400, `${detail} Send one file in the field "file".`));
-  });
+  receiveMultipart(upload, req, res, { fields: { file: 1 }, maxFileBytes: profileUploadLimitBytes }).then(
+    () => next(),
+    next,
+  );
 };

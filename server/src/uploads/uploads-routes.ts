@@ -5,6 +5,7 @@ import { unlink } from 'node:fs/promises';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
 import { createFilmBaseService } from '../film-base/film-base-service';
+import { receiveMultipart } from '../http/receive-multipart';
 import type { RouteModule } from '../http/route-module';
 import { advanceOrderWithWork } from '../orders/advance-order-with-work';
 import { recordOrderAudit } from '../orders/record-order-audit';
@@ -32,33 +33,7 @@ export const uploadsRoutes: RouteModule = (api, { db, config, clock }) => {
   } as multer.Options).array(uploadField, maxFiles);
 
   const receive = (req: Request, res: Response) =>
-    new Promise<void>((resolve, reject) =>
-      upload(req, res, (err: unknown) => {
-        if (!err) return resolve();
-        if (err instanceof multer.MulterError) {
-          if (err.code === 'LIMIT_FILE_COUNT' || err.code === 'LIMIT_UNEXPECTED_FILE') {
-            if (err.code === 'LIMIT_FILE_COUNT' || err.field === uploadField) {
-              return reject(
-                new AppError(
-                  'too-many-files',
-                  413,
-                  `At most ${maxFiles} files per upload; nothing was kept. Send the rest in another upload.`,
-                ),
-              );
-            }
-            return reject(
-              new AppError(
-                'unexpected-field',
-                400,
-                `Send the scans in the multipart field "${uploadField}", not "${err.field ?? ''}".`,
-              ),
-            );
-          }
-          return reject(new AppError('upload-invalid', 400, `${err.message}; nothing was kept.`));
-        }
-        reject(new AppError('upload-invalid', 400, 'The upload could not be read; nothing was kept.'));
-      }),
-    );
+    receiveMultipart(upload, req, res, { fields: { [uploadField]: maxFiles } });
 
   api.define(
     {
