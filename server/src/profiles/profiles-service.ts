@@ -23,6 +23,8 @@ import {
   findVersionOfProfile,
   insertDraft,
   insertProfile,
+  listProfilesOfStock,
+  listVersionsOfProfiles,
   stamped,
   toProfile,
   toVersion,
@@ -250,6 +252,58 @@ export function createProfilesService({ db, clock }: ProfilesDeps) {
           (started): ImportedProfile => ({ created: 'profile', ...started }),
         );
       });
+    },
+
+    /**
+     * Files a calibration's fitted document: a new draft of the stock's newest profile for that scanner, or, when it
+     * has none, a new profile with the document as its version 1 draft; audited with the calibration's id. Runs in
+     * the caller's transaction, beside the calibration's own record.
+     */
+    async draftFromCalibration(
+      trx: Kysely<Database>,
+      actor: User,
+      fitted: {
+        stock: { id: number; name: string };
+        scannerId: number | null;
+        parameters: ProfileDocument;
+        calibrationId: number;
+        at: Date;
+      },
+    ): Promise<{ profileId: number; versionId: number; created: 'profile' | 'draft' }> {
+      const { stock, scannerId, parameters, calibrationId, at } = fitted;
+      const existing = (await listProfilesOfStock(trx, stock.id))
+        .filter((p) => p.scanner_id === scannerId)
+        .at(-1);
+      if (existing) {
+        const latest = (await listVersionsOfProfiles(trx, [existing.id])).at(-1);
+        const draft = await addDraft(
+          trx,
+          actor,
+          { profile: existing, parentVersionId: latest?.id ?? null, parameters, at },
+          'profile-version-created',
+          (version) => ({ profileId: existing.id, version: toVersionSummary(version), calibrationId }),
+        );
+        return { profileId: existing.id, versionId: draft.id, created: 'draft' };
+      }
+      return startProfile(
+        trx,
+        actor,
+        {
+          stockId: stock.id,
+          scannerId,
+          name: `${stock.name} (calibrated)`,
+          documentId: randomUUID(),
+          parameters,
+          at,
+        },
+        'profile-created',
+        (started) => ({
+          profileId: started.profile.id,
+          versionId: started.version.id,
+          created: 'profile' as const,
+          calibrationId,
+        }),
+      ).then(({ profileId, versionId, created }) => ({ profileId, versionId, created }));
     },
 
     /** Makes a new draft from any version of the same profile. Throws AppError 404 for an unknown profile or version. */
