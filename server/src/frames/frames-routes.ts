@@ -21,7 +21,6 @@ import { negativePreviewOf } from './negative-preview';
 const everyone = ['customer', ...staffRoles] as const;
 
 // Kept where it was for the routes that still load frames from here; frame-access.ts is its home.
-export { loadFrameFor } from './frame-access';
 
 function sendStored(
   res: Response,

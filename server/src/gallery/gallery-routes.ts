@@ -7,7 +7,7 @@ import { loadFileRelease } from '../downloads/load-file-release';
 import { AppError } from '../errors/app-error';
 import { createFileStore } from '../files/file-store';
 import { findFrameOutput } from '../frames/frame-repository';
-import { loadFrameFor } from '../frames/frames-routes';
+import { loadFrameFor } from '../frames/frame-access';
 import type { RouteModule } from '../http/route-module';
 import { isStaff, loadOrderFor } from '../orders/order-access';
 
