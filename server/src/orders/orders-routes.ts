@@ -6,23 +6,15 @@ import {
   staffRoles,
   updateOrderStatusRequestSchema,
 } from '@clearbase/contracts';
-import { AppError } from '../errors/app-error';
-import { enqueueTemplatedMail } from '../mail/outbox-repository';
 import type { RouteModule } from '../http/route-module';
-import { readPriceList } from '../prices/price-list-store';
-import { listRollsOfOrder, toRoll } from '../rolls/roll-repository';
-import { findUserById } from '../users/user-repository';
-import { addRollToOrder } from './add-roll-to-order';
-import { moveOrder } from './move-order';
-import { isStaff, loadOrderFor } from './order-access';
-import { refusalOfStaffMove } from './order-status';
-import { findOrderById, insertOrder, listOrderCustomers, listOrders, toOrder } from './order-repository';
-import { recordOrderAudit } from './record-order-audit';
+import { createOrdersService } from './orders-service';
 
 const everyone = ['customer', ...staffRoles] as const;
 
-/** Orders and the rolls on them: customers see and place only their own, staff see all. */
+/** Orders and the rolls on them (the rules are in orders-service.ts). */
 export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
+  const orders = createOrdersService({ db, clock, config });
+
   api.define(
     {
       method: 'get',
@@ -32,9 +24,7 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       summary: 'List orders, newest first (a customer’s own only)',
     },
     async (_req, res, { query, user }) => {
-      const scoped = isStaff(user!) ? query : { ...query, customerId: user!.id };
-      const { rows, total } = await listOrders(db, scoped);
-      res.json({ orders: rows.map(toOrder), total });
+      res.json(await orders.list(user!, query));
     },
   );
 
@@ -47,51 +37,7 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       summary: 'Place an order with its rolls, all or nothing (staff name the customer)',
     },
     async (_req, res, { body, user }) => {
-      let customerId = user!.id;
-      if (isStaff(user!)) {
-        if (!body.customerId) {
-          throw new AppError('invalid-request', 400, 'Name the customer the order is for.', [
-            { path: 'body.customerId', message: 'Required when staff place an order' },
-          ]);
-        }
-        const customer = await findUserById(db, body.customerId);
-        if (!customer || customer.role !== 'customer') {
-          throw new AppError('customer-not-found', 404, `No customer with id ${body.customerId}.`);
-        }
-        customerId = customer.id;
-      } else if (body.customerId !== undefined && body.customerId !== user!.id) {
-        throw new AppError('forbidden', 403, 'Customers place orders for themselves only.');
-      }
-      const order = await db.transaction().execute(async (trx) => {
-        const at = clock.now();
-        const { rolls, ...asked } = body;
-        const row = await insertOrder(trx, { ...asked, customerId, at, priceList: await readPriceList(trx) });
-        for (const [i, request] of rolls.entries()) {
-          await addRollToOrder(trx, { orderId: row.id, request, actor: user!, at, path: `body.rolls.${i}` });
-        }
-        const order = toOrder((await findOrderById(trx, row.id))!);
-        await recordOrderAudit(trx, {
-          at,
-          actor: user!,
-          action: 'order-created',
-          target: `order:${row.id}`,
-          details: { after: order },
-        });
-        const customer = (await findUserById(trx, customerId))!;
-        await enqueueTemplatedMail(
-          trx,
-          customer.email,
-          'order-received',
-          {
-            name: customer.name,
-            reference: `order ${order.id}`,
-            url: `${config.publicUrl}/orders/${order.id}`,
-          },
-          at,
-        );
-        return order;
-      });
-      res.status(201).json(order);
+      res.status(201).json(await orders.place(user!, body));
     },
   );
 
@@ -104,7 +50,7 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       summary: 'The customers staff may place an order for, by name',
     },
     async (_req, res) => {
-      res.json({ customers: await listOrderCustomers(db) });
+      res.json({ customers: await orders.customers() });
     },
   );
 
@@ -117,9 +63,7 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       summary: 'An order with its rolls',
     },
     async (_req, res, { params, user }) => {
-      const order = await loadOrderFor(db, params.id, user!);
-      const rolls = await listRollsOfOrder(db, order.id);
-      res.json({ order: toOrder(order), rolls: rolls.map(toRoll) });
+      res.json(await orders.detail(user!, params.id));
     },
   );
 
@@ -133,28 +77,7 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       summary: 'Move an order to another status',
     },
     async (_req, res, { params, body, user }) => {
-      const before = await loadOrderFor(db, params.id, user!);
-      const refused = refusalOfStaffMove(before.id, before.status, body.status);
-      if (refused) throw refused;
-      const order = await db.transaction().execute(async (trx) => {
-        const moved = await moveOrder(trx, {
-          orderId: before.id,
-          from: before.status,
-          to: body.status,
-          actor: user!,
-          at: clock.now(),
-        });
-        const now = (await findOrderById(trx, before.id))!;
-        if (!moved && now.status !== body.status) {
-          throw new AppError(
-            'order-moved-meanwhile',
-            409,
-            `Order ${before.id} became ${now.status} meanwhile; reload it and choose again.`,
-          );
-        }
-        return toOrder(now);
-      });
-      res.json(order);
+      res.json(await orders.move(user!, params.id, body.status));
     },
   );
 
@@ -168,24 +91,7 @@ export const ordersRoutes: RouteModule = (api, { db, clock, config }) => {
       summary: 'Add a roll; the stock’s current published profile version is pinned',
     },
     async (_req, res, { params, body, user }) => {
-      const order = await loadOrderFor(db, params.id, user!);
-      if (!isStaff(user!) && order.status !== 'received') {
-        throw new AppError(
-          'order-in-progress',
-          409,
-          `Order ${order.id} is already ${order.status}; ask the lab to add a roll.`,
-        );
-      }
-      const roll = await db.transaction().execute((trx) =>
-        addRollToOrder(trx, {
-          orderId: order.id,
-          request: body,
-          actor: user!,
-          at: clock.now(),
-          path: 'body',
-        }),
-      );
-      res.status(201).json(roll);
+      res.status(201).json(await orders.addRoll(user!, params.id, body));
     },
   );
 };
