@@ -8,6 +8,7 @@ import {
 import { createFileStore } from '../files/file-store';
 import { baseChangeHandler } from '../film-base/base-change-handler';
 import { createFilmBaseService } from '../film-base/film-base-service';
+import { visibleFramesFor } from '../frames/frame-access';
 import { listFramesOfRoll, outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
 import type { RouteModule } from '../http/route-module';
 import { createInversionService } from '../jobs/inversion-service';
@@ -40,7 +41,7 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
     },
     async (_req, res, { params, user }) => {
       const roll = await loadRollFor(db, params.id, user!);
-      const frames = await listFramesOfRoll(db, roll.id);
+      const frames = await visibleFramesFor(db, await listFramesOfRoll(db, roll.id), user!);
       const outputs = await outputFormatsOfFrames(
         db,
         frames.map((f) => f.id),
