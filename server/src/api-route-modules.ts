@@ -18,7 +18,7 @@ import { pricesRoutes } from './prices/prices-routes';
 import { profilesRoutes } from './profiles/profiles-routes';
 import { referenceFrameRoutes } from './profiles/reference-frame-routes';
 import { reviewRoutes } from './review/review-routes';
-import { adjustmentsRoutes } from './rolls/adjustments-routes';
+import { adjustmentsRoutes } from './tuning/adjustments-routes';
 import { rollsRoutes } from './rolls/rolls-routes';
 import { scannersRoutes } from './scanners/scanners-routes';
 import { signupRoutes } from './signup/signup-routes';

@@ -16,7 +16,7 @@ import type { RouteModule } from '../http/route-module';
 import { sendRawPixels } from '../http/send-raw-pixels';
 import { readNegative } from '../imaging/index';
 import { findVersionById } from '../profiles/profile-repository';
-import { createAdjustmentsService } from '../rolls/adjustments-service';
+import { createAdjustmentsService } from '../tuning/adjustments-service';
 import { scannerProfileOf } from '../rolls/roll-access';
 import { findRollById } from '../rolls/roll-repository';
 import { workingNegativeCacheOf } from '../tuning/working-negative-cache';

@@ -11,8 +11,8 @@ import {
   toFrame,
 } from '../frames/frame-repository';
 import { recordOrderAudit } from '../orders/record-order-audit';
-import { loadRollFor } from './roll-access';
-import { findRollById, saveRollAdjustments, toRoll } from './roll-repository';
+import { loadRollFor } from '../rolls/roll-access';
+import { findRollById, saveRollAdjustments, toRoll } from '../rolls/roll-repository';
 
 export type AdjustmentsService = ReturnType<typeof createAdjustmentsService>;
 
