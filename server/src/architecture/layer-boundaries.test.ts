@@ -11,7 +11,8 @@ function sources(dir: string): string[] {
     const path = join(dir, name);
     if (name === 'node_modules' || name.startsWith('.')) continue;
     if (statSync(path).isDirectory()) found.push(...sources(path));
-    else if (/\.ts$/.test(name) && !/\.(test|spec|e2e)\.ts$/.test(name) && !name.endsWith('.d.ts')) found.push(path);
+    else if (/\.ts$/.test(name) && !/\.(test|spec|e2e)\.ts$/.test(name) && !name.endsWith('.d.ts'))
+      found.push(path);
   }
   return found;
 }
@@ -50,7 +51,9 @@ describe('layer boundaries', () => {
     );
     const others = sources(join(root, 'server/src'))
       // the composition: the app and its list of route modules put the routes together
-      .filter((f) => !f.endsWith('-routes.ts') && !f.endsWith('api-route-modules.ts') && !f.endsWith('/app.ts'))
+      .filter(
+        (f) => !f.endsWith('-routes.ts') && !f.endsWith('api-route-modules.ts') && !f.endsWith('/app.ts'),
+      )
       .flatMap((file) =>
         importsOf(readFileSync(file, 'utf8'))
           .filter((spec) => spec.startsWith('.') && spec.endsWith('-routes'))

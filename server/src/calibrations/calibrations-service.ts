@@ -13,7 +13,7 @@ import type { Clock } from '../clock';
 import type { Database, StockRow } from '../db/database';
 import { AppError } from '../errors/app-error';
 import { findFileById, recordFile } from '../files/file-repository';
-import type { FileRow } from '../orders/order-tables';
+import type { FileRow } from '../files/file-tables';
 import type { FileStore } from '../files/file-store';
 import { createProfilesService } from '../profiles/profiles-service';
 import { scannerProfileOf } from '../rolls/roll-access';

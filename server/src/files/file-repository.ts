@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
-import type { FileRow } from '../orders/order-tables';
+import type { FileRow } from './file-tables';
 
 /**
  * Records stored bytes, once per hash: a second record of the same hash returns the first row.

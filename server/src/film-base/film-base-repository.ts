@@ -1,7 +1,8 @@
 import type { MeasuredBase, PixelRegion } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
-import type { FrameRow, RollRow } from '../orders/order-tables';
+import type { FrameRow } from '../frames/frame-tables';
+import type { RollRow } from '../rolls/roll-tables';
 import type { FilmBaseFacts } from './film-base-facts';
 
 const parse = <T>(text: string | null): T | null => (text === null ? null : (JSON.parse(text) as T));

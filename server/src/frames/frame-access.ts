@@ -3,7 +3,7 @@ import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
 import { AppError } from '../errors/app-error';
 import { isStaff, ownerOfRoll } from '../orders/order-access';
-import type { FrameRow } from '../orders/order-tables';
+import type { FrameRow } from './frame-tables';
 import { findReviewOfFrame, reviewsOfFrames } from '../review/review-repository';
 import { findFrameById } from './frame-repository';
 

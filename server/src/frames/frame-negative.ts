@@ -3,7 +3,7 @@ import type { Database } from '../db/database';
 import type { FileStore } from '../files/file-store';
 import { findFileById } from '../files/file-repository';
 import { readNegative, type NegativeImage } from '../imaging/index';
-import type { FrameRow } from '../orders/order-tables';
+import type { FrameRow } from './frame-tables';
 
 /** A frame's negative scan: its SHA-256 and where it is stored. */
 export async function frameSourceFile(

@@ -9,7 +9,7 @@ import type {
 import { outputFormats, readStoredAdjustments } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
-import type { FrameOutputKind, FrameRow } from '../orders/order-tables';
+import type { FrameOutputKind, FrameRow } from './frame-tables';
 
 export function findFrameById(db: Kysely<Database>, id: number): Promise<FrameRow | undefined> {
   return db.selectFrom('frames').selectAll().where('id', '=', id).executeTakeFirst();

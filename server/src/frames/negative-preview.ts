@@ -3,7 +3,7 @@ import sharp from 'sharp';
 import type { Database } from '../db/database';
 import { recordFile } from '../files/file-repository';
 import type { FileStore } from '../files/file-store';
-import type { FrameRow } from '../orders/order-tables';
+import type { FrameRow } from './frame-tables';
 import { frameSourcePath } from './frame-negative';
 import { findFrameOutput, putFrameOutput } from './frame-repository';
 

@@ -1,7 +1,7 @@
 import type { Job, JobKind } from '@clearbase/contracts';
 import { sql, type Kysely } from 'kysely';
 import type { Database } from '../db/database';
-import type { JobRow } from '../orders/order-tables';
+import type { JobRow } from './job-tables';
 
 /** The target text of a roll's inversion job. */
 export const rollTarget = (rollId: number) => `roll:${rollId}`;

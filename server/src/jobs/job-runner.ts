@@ -9,7 +9,7 @@ import type { Database } from '../db/database';
 import { createFilmBaseService } from '../film-base/film-base-service';
 import { createFileStore, type FileStore } from '../files/file-store';
 import { createInversionPool, type InversionPool } from '../inversion-pool/inversion-pool';
-import type { JobRow } from '../orders/order-tables';
+import type { JobRow } from './job-tables';
 import {
   claimNextJob,
   findJobById,

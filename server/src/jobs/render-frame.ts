@@ -11,7 +11,7 @@ import { encodePositive, positivePipeline, readNegative, type PositiveMetadata }
 import type { InversionPool } from '../inversion-pool/inversion-pool';
 import { measureLevels } from '../inversion-pool/invert-negative-file';
 import { measureWhileReading } from '../inversion-pool/measure-while-reading';
-import type { FrameOutputKind } from '../orders/order-tables';
+import type { FrameOutputKind } from '../frames/frame-tables';
 import { frameQcFlags } from './frame-qc-flags';
 
 /** Long edge of the preview JPEG, pixels (the same as the negative preview). */

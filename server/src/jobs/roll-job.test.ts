@@ -5,7 +5,7 @@ import { createFilmBaseService } from '../film-base/film-base-service';
 import { createFileStore } from '../files/file-store';
 import { createInversionPool, type InversionPool } from '../inversion-pool/inversion-pool';
 import { addRollWithScans } from '../orders/order-test-fixtures';
-import type { JobRow } from '../orders/order-tables';
+import type { JobRow } from './job-tables';
 import { findRollById } from '../rolls/roll-repository';
 import { createTestApp, type TestApp } from '../test-support/test-app';
 import { addTestLab, type TestLab } from '../test-support/test-lab';

@@ -2,7 +2,7 @@ import type { TuningFrame } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
 import { outputFormatsOfFrames, toFrame } from '../frames/frame-repository';
-import type { FrameRow } from '../orders/order-tables';
+import type { FrameRow } from '../frames/frame-tables';
 import { reviewsOfFrames } from './review-repository';
 
 /** Frames as the tuning screen sees them: each with its outputs and its latest review (null before any). */

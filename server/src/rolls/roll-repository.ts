@@ -2,7 +2,7 @@ import type { Adjustments, MeasuredBase, PixelRegion, Roll, RollStatus } from '@
 import { readStoredAdjustments } from '@clearbase/contracts';
 import type { Kysely } from 'kysely';
 import type { Database } from '../db/database';
-import type { RollRow } from '../orders/order-tables';
+import type { RollRow } from './roll-tables';
 
 /** A roll row with its stock's name, the pinned version's number and its number of frames. */
 export type RollListRow = RollRow & { stock_name: string; profile_version: number; frame_count: number };
