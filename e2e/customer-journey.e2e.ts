@@ -243,7 +243,9 @@ describe('a customer’s whole journey', () => {
     await browser.screenshot('gallery-held-back');
 
     for (const frame of rendered) {
-      expect((await operator.post(`/api/frames/${frame.id}/qc`, { decision: 'approved' })).status).toBe(200);
+      expect((await operator.post(`/api/frames/${frame.id}/review`, { decision: 'approved' })).status).toBe(
+        200,
+      );
     }
     const ready = await operator.post(`/api/orders/${order.id}/ready`);
     expect(ready.status, await ready.clone().text()).toBe(200);

@@ -20,7 +20,10 @@ import { negativePreviewOf } from './negative-preview';
 
 const everyone = ['customer', ...staffRoles] as const;
 
-// Kept where it was for the routes that still load frames from here; frame-access.ts is its home.
+/** Long edge of gallery thumbnails, pixels: two rows fit a laptop screen at four across (our choice). */
+const thumbnailLongEdge = 360;
+// JPEG quality 80 for a small picture to pick from, not to keep: common practice for web thumbnails, from memory
+const thumbnailQuality = 80;
 
 function sendStored(
   res: Response,
@@ -179,6 +182,30 @@ export const framesRoutes: RouteModule = (api, { db, config, clock }) => {
         format === 'png' ? region.png() : region.withIccProfile('srgb').jpeg({ quality: regionJpegQuality })
       ).toBuffer();
       res.type(format === 'png' ? 'image/png' : 'image/jpeg').send(bytes);
+    },
+  );
+  api.define(
+    {
+      method: 'get',
+      path: '/api/frames/:id/thumbnail',
+      roles: everyone,
+      params: idParamsSchema,
+      summary: 'The positive as a small JPEG for the gallery, long edge 360 (404 until rendered)',
+    },
+    async (_req, res, { params, user }) => {
+      const frame = await loadFrameFor(db, params.id, user!);
+      await assertCustomerMayGet(db, user!, { frameId: frame.id, kind: 'thumbnail' });
+      const preview = await findFrameOutput(db, frame.id, 'preview');
+      if (!preview) {
+        throw new AppError('preview-not-ready', 404, `Frame ${frame.id} has not been inverted yet.`);
+      }
+      const bytes = await sharp(store.pathOf(preview.sha256))
+        .resize(thumbnailLongEdge, thumbnailLongEdge, { fit: 'inside', withoutEnlargement: true })
+        .jpeg({ quality: thumbnailQuality })
+        .toBuffer();
+      res.type('image/jpeg');
+      res.set('Cache-Control', 'private, max-age=3600');
+      res.send(bytes);
     },
   );
 };

@@ -1,26 +1,14 @@
 import { idParamsSchema, staffRoles, type GalleryResponse } from '@clearbase/contracts';
-import sharp from 'sharp';
-import { assertCustomerMayGet } from '../downloads/assert-customer-may-get';
 import { customerFileAccess } from '../downloads/customer-file-access';
 import { finishedFramesOfOrder } from '../downloads/finished-frames';
 import { loadFileRelease } from '../downloads/load-file-release';
-import { AppError } from '../errors/app-error';
-import { createFileStore } from '../files/file-store';
-import { findFrameOutput } from '../frames/frame-repository';
-import { loadFrameFor } from '../frames/frame-access';
 import type { RouteModule } from '../http/route-module';
 import { isStaff, loadOrderFor } from '../orders/order-access';
 
 const everyone = ['customer', ...staffRoles] as const;
-/** Long edge of gallery thumbnails, pixels: two rows fit a laptop screen at four across (our choice). */
-export const thumbnailLongEdge = 360;
-// JPEG quality 80 for a small picture to pick from, not to keep: common practice for web thumbnails, from memory
-const thumbnailQuality = 80;
 
-/** An order's gallery of finished scans, for its owner or staff, and the thumbnails it shows. */
-export const galleryRoutes: RouteModule = (api, { db, config }) => {
-  const store = createFileStore(config.dataDir);
-
+/** An order's gallery of finished scans, for its owner or staff (the thumbnails are served from frames/). */
+export const galleryRoutes: RouteModule = (api, { db }) => {
   api.define(
     {
       method: 'get',
@@ -60,31 +48,6 @@ export const galleryRoutes: RouteModule = (api, { db, config }) => {
         })),
       };
       res.json(body);
-    },
-  );
-
-  api.define(
-    {
-      method: 'get',
-      path: '/api/frames/:id/thumbnail',
-      roles: everyone,
-      params: idParamsSchema,
-      summary: 'The positive as a small JPEG for the gallery, long edge 360 (404 until rendered)',
-    },
-    async (_req, res, { params, user }) => {
-      const frame = await loadFrameFor(db, params.id, user!);
-      await assertCustomerMayGet(db, user!, { frameId: frame.id, kind: 'thumbnail' });
-      const preview = await findFrameOutput(db, frame.id, 'preview');
-      if (!preview) {
-        throw new AppError('preview-not-ready', 404, `Frame ${frame.id} has not been inverted yet.`);
-      }
-      const bytes = await sharp(store.pathOf(preview.sha256))
-        .resize(thumbnailLongEdge, thumbnailLongEdge, { fit: 'inside', withoutEnlargement: true })
-        .jpeg({ quality: thumbnailQuality })
-        .toBuffer();
-      res.type('image/jpeg');
-      res.set('Cache-Control', 'private, max-age=3600');
-      res.send(bytes);
     },
   );
 };

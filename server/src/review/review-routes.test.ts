@@ -35,13 +35,13 @@ afterAll(() => t.close());
 
 describe('frame review', () => {
   it('refuses to approve a frame not rendered yet', async () => {
-    const res = await operator.post(`/api/frames/${frames[0]}/qc`, { decision: 'approved' });
+    const res = await operator.post(`/api/frames/${frames[0]}/review`, { decision: 'approved' });
     expect(res.status).toBe(409);
     expect(res.body.code ?? res.body.type).toBeTruthy();
   });
 
   it('asks for a note with a rejection, naming the field', async () => {
-    const res = await operator.post(`/api/frames/${frames[0]}/qc`, { decision: 'rejected', note: '' });
+    const res = await operator.post(`/api/frames/${frames[0]}/review`, { decision: 'rejected', note: '' });
     expect(res.status).toBe(400);
     expect(res.body.errors).toEqual([
       { path: 'body.note', message: 'Say what is wrong with a rejected frame' },
@@ -51,7 +51,7 @@ describe('frame review', () => {
   it('approves the roll and readies the order when every frame is approved or excluded, and takes it back', async () => {
     await t.db.updateTable('frames').set({ status: 'done' }).where('id', '=', frames[0]!).execute();
     const first = await operator
-      .post(`/api/frames/${frames[0]}/qc`, { decision: 'approved', note: 'fine' })
+      .post(`/api/frames/${frames[0]}/review`, { decision: 'approved', note: 'fine' })
       .expect(200);
     expect(first.body.rollApproved).toBe(false);
     expect(first.body.frame.review).toMatchObject({
@@ -60,7 +60,7 @@ describe('frame review', () => {
       reviewedBy: 'Test operator',
     });
     const second = await operator
-      .post(`/api/frames/${frames[1]}/qc`, { decision: 'excluded', note: 'blank leader' })
+      .post(`/api/frames/${frames[1]}/review`, { decision: 'excluded', note: 'blank leader' })
       .expect(200);
     expect(second.body.rollApproved).toBe(true);
     const sheet = (await operator.get(`/api/rolls/${roll}/tuning`).expect(200)).body as RollTuning;
@@ -68,7 +68,7 @@ describe('frame review', () => {
     expect((await operator.get(`/api/orders/${order}`).expect(200)).body.order.status).toBe('ready');
 
     await operator
-      .post(`/api/frames/${frames[0]}/qc`, { decision: 'rejected', note: 'scratch across the sky' })
+      .post(`/api/frames/${frames[0]}/review`, { decision: 'rejected', note: 'scratch across the sky' })
       .expect(200);
     expect((await operator.get(`/api/orders/${order}`).expect(200)).body.order.status).toBe('tuning');
     const audit = await t.db

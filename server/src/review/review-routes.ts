@@ -9,8 +9,7 @@ export const reviewRoutes: RouteModule = (api, { db, clock }) => {
   api.define(
     {
       method: 'post',
-      // the path keeps its first name; the operator's decision is the frame's review, not its QC flags
-      path: '/api/frames/:id/qc',
+      path: '/api/frames/:id/review',
       roles: staffRoles,
       params: idParamsSchema,
       body: frameReviewRequestSchema,

@@ -13,6 +13,7 @@ import type {
 import type { FrameLevels, Rgb } from '@clearbase/inversion';
 import { map, type Observable } from 'rxjs';
 import type { PreviewNegative } from '../preview/preview-messages';
+import { workingNegativeHeaders } from '@clearbase/contracts/values';
 
 /** A frame's working negative with the base and levels the server renders it with. */
 export interface WorkingNegative extends PreviewNegative {
@@ -22,15 +23,8 @@ export interface WorkingNegative extends PreviewNegative {
   scanHeight: number;
 }
 
-// header names of GET /api/frames/:id/working-negative (workingNegativeHeaders in the contracts; types only here)
-const headers = {
-  width: 'X-Negative-Width',
-  height: 'X-Negative-Height',
-  base: 'X-Film-Base',
-  baseSource: 'X-Film-Base-Source',
-  scanSize: 'X-Scan-Size',
-  levels: 'X-Frame-Levels',
-} as const;
+// header names of GET /api/frames/:id/working-negative
+const headers = workingNegativeHeaders;
 
 /** Calls of the tuning screen. */
 @Injectable({ providedIn: 'root' })
@@ -98,6 +92,6 @@ export class TuningApi {
   }
 
   review(frameId: number, request: FrameReviewRequest): Observable<FrameReviewResult> {
-    return this.http.post<FrameReviewResult>(`/api/frames/${frameId}/qc`, request);
+    return this.http.post<FrameReviewResult>(`/api/frames/${frameId}/review`, request);
   }
 }

@@ -101,7 +101,7 @@ describe('TuningControls', { timeout: 20_000 }, () => {
     note.dispatchEvent(new Event('input'));
     await t.settle();
     await t.click('approve');
-    const req = t.backend.expectOne({ method: 'POST', url: '/api/frames/11/qc' });
+    const req = t.backend.expectOne({ method: 'POST', url: '/api/frames/11/review' });
     expect(req.request.body).toEqual({ decision: 'approved', note: 'greys read neutral' });
     const review = {
       decision: 'approved' as const,

@@ -198,7 +198,7 @@ describe('TuningSession', () => {
     const session = await open(sheet([frame(1)]));
     session.note.set('  grey card reads neutral ');
     session.review('approved');
-    const req = backend.expectOne({ method: 'POST', url: '/api/frames/11/qc' });
+    const req = backend.expectOne({ method: 'POST', url: '/api/frames/11/review' });
     expect(req.request.body).toEqual({ decision: 'approved', note: 'grey card reads neutral' });
     const review = {
       decision: 'approved' as const,
