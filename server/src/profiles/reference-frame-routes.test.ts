@@ -143,17 +143,12 @@ describe('reference negatives for the profile editor', () => {
         });
     const negatives = Promise.all([fetchNegative(), fetchNegative()]);
     await new Promise((r) => setTimeout(r, 100));
-    const waits: number[] = [];
-    for (let i = 0; i < 3; i++) {
-      const start = performance.now();
-      await request(t.app).get('/api/health').expect(200);
-      waits.push(performance.now() - start);
-    }
+    for (let i = 0; i < 3; i++) await request(t.app).get('/api/health').expect(200);
     const answered = Date.now();
     const [a, b] = await negatives;
-    // the health checks were answered while the negative was still being made
+    // the health checks were answered while the negative was still being made: a blocked event loop would have
+    // held them until it was done (no bound in milliseconds, which a busy machine would break)
     expect(finished.every((f) => f > answered)).toBe(true);
-    for (const wait of waits) expect(wait).toBeLessThan(200);
     expect(a.status).toBe(200);
     expect((a.body as Buffer).equals(b.body as Buffer)).toBe(true);
   });
