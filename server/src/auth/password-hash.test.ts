@@ -1,6 +1,5 @@
-import { performance } from 'node:perf_hooks';
 import { describe, expect, it } from 'vitest';
-import { burnPasswordCheck, generateTemporaryPassword, hashPassword, verifyPassword } from './password-hash';
+import { generateTemporaryPassword, hashPassword, verifyPassword } from './password-hash';
 
 describe('password hashing', () => {
   it('verifies the right password and refuses a wrong one', async () => {
@@ -17,21 +16,6 @@ describe('password hashing', () => {
   it('never matches a malformed stored hash', async () => {
     expect(await verifyPassword('x', 'plain-text')).toBe(false);
     expect(await verifyPassword('x', 'scrypt$16384$8$1$c2FsdA$')).toBe(false);
-  });
-
-  it('spends about as long on an unknown e-mail as on a wrong password', async () => {
-    const stored = await hashPassword('real-password');
-    await burnPasswordCheck('warm-up');
-    const time = async (f: () => Promise<unknown>) => {
-      const start = performance.now();
-      for (let i = 0; i < 5; i++) await f();
-      return performance.now() - start;
-    };
-    const wrong = await time(() => verifyPassword('guess', stored));
-    const unknown = await time(() => burnPasswordCheck('guess'));
-    // same scrypt cost on both paths; the bound is loose because test machines are noisy
-    expect(unknown / wrong).toBeGreaterThan(0.5);
-    expect(unknown / wrong).toBeLessThan(2);
   });
 
   it('makes temporary passwords of 20 URL-safe characters that pass the length rule', () => {
