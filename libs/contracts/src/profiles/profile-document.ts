@@ -82,6 +82,8 @@ export type CapturePrimaries = z.infer<typeof capturePrimariesSchema>;
  * Schema version 1 grows only by optional fields; a document without one reads as it always did:
  * - `capturePrimaries` (optional, added later in version 1): absent reads as 'srgb', the recovered exposures are
  *   taken as linear sRGB and rendered exactly as before; 'wide' converts them from BT.2020 to sRGB primaries.
+ * - `exposureMatrix` (optional, added later in version 1): absent renders exactly as before; present, it is the
+ *   change of primaries and takes the place of `capturePrimaries`.
  */
 export const profileDocumentSchema = z.strictObject({
   schemaVersion: z.literal(1),
@@ -102,6 +104,19 @@ export const profileDocumentSchema = z.strictObject({
   saturation: z.number().min(0).max(3),
   /** Primaries of the film's recorded exposures; absent = 'srgb'. */
   capturePrimaries: capturePrimariesSchema.optional(),
+  /**
+   * Row-major exposure-space colour matrix fitted by calibration: the film's recorded exposures (linear, grey = 1) →
+   * linear sRGB. Each row sums to 1 (within 0.001), so a grey stays grey.
+   */
+  exposureMatrix: z
+    .tuple([rgbTuple, rgbTuple, rgbTuple])
+    .superRefine((m, ctx) =>
+      m.forEach((row, r) => {
+        if (!(Math.abs(row[0] + row[1] + row[2] - 1) <= 1e-3))
+          ctx.addIssue({ code: 'custom', path: [r], message: 'each row must sum to 1 so a grey stays grey' });
+      }),
+    )
+    .optional(),
 });
 export type ProfileDocument = z.infer<typeof profileDocumentSchema>;
 
