@@ -3,12 +3,9 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { demoCalibrationFrame, demoCalibrationLayout } from '../server/src/demo/demo-calibration-layout';
-import { openBrowser, type BrowserSession } from './support/browser-session';
-import { startTestServer, type TestServer } from './support/test-server';
-
-const demoPassword = 'clearbase-demo';
+import { useBrowserApp } from './support/browser-app';
 
 // An invented stock whose curves bend inside the bracket, with a tinted base and crosstalk.
 const STOCK: FilmStock = {
@@ -20,8 +17,6 @@ const STOCK: FilmStock = {
   softness: 0.2,
 };
 
-let server: TestServer;
-let browser: BrowserSession;
 let dir: string;
 let roll: ReturnType<typeof calibrationRoll>;
 let greyPaths: string[];
@@ -35,37 +30,35 @@ function writeTiff(path: string, data: Uint16Array, width: number, height: numbe
     .toFile(path);
 }
 
-beforeAll(async () => {
-  dir = await mkdtemp(join(tmpdir(), 'clearbase-calibration-e2e-'));
-  roll = calibrationRoll({
-    stock: STOCK,
-    scanner: LINEAR_SCANNER,
-    stops: Array.from({ length: 15 }, (_, i) => i - 6),
-    greySize: 48,
-    patchSize: 40,
-  });
-  greyPaths = roll.brackets.map((_, i) => join(dir, `grey-${String(i + 1).padStart(2, '0')}.tif`));
-  await Promise.all(
-    roll.brackets.map((b, i) =>
-      writeTiff(greyPaths[i]!, b.negative.data, b.negative.width, b.negative.height),
-    ),
-  );
-  chartPath = join(dir, 'chart.tif');
-  await writeTiff(chartPath, roll.chart.data, roll.chart.width, roll.chart.height);
-  server = await startTestServer();
-  browser = await openBrowser(server.url);
+const app = useBrowserApp({
+  async prepare() {
+    dir = await mkdtemp(join(tmpdir(), 'clearbase-calibration-e2e-'));
+    roll = calibrationRoll({
+      stock: STOCK,
+      scanner: LINEAR_SCANNER,
+      stops: Array.from({ length: 15 }, (_, i) => i - 6),
+      greySize: 48,
+      patchSize: 40,
+    });
+    greyPaths = roll.brackets.map((_, i) => join(dir, `grey-${String(i + 1).padStart(2, '0')}.tif`));
+    await Promise.all(
+      roll.brackets.map((b, i) =>
+        writeTiff(greyPaths[i]!, b.negative.data, b.negative.width, b.negative.height),
+      ),
+    );
+    chartPath = join(dir, 'chart.tif');
+    await writeTiff(chartPath, roll.chart.data, roll.chart.width, roll.chart.height);
+  },
 });
 
 afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
   if (dir) await rm(dir, { recursive: true, force: true });
 });
 
 /** Where a point of the frame (full-size pixels) is on screen inside a marker's SVG, kept half a pixel inside it. */
 async function onScreen(testId: string, [x, y]: readonly number[], frame: { width: number; height: number }) {
-  await browser.page.getByTestId(testId).scrollIntoViewIfNeeded();
-  const box = (await browser.page.getByTestId(testId).boundingBox())!;
+  await app.browser.page.getByTestId(testId).scrollIntoViewIfNeeded();
+  const box = (await app.browser.page.getByTestId(testId).boundingBox())!;
   const fx = Math.min(frame.width - 0.5, Math.max(0.5, x!));
   const fy = Math.min(frame.height - 0.5, Math.max(0.5, y!));
   return { x: box.x + (fx / frame.width) * box.width, y: box.y + (fy / frame.height) * box.height };
@@ -73,18 +66,13 @@ async function onScreen(testId: string, [x, y]: readonly number[], frame: { widt
 
 /** Signs in afresh as a demo account. */
 async function signIn(email: string) {
-  const { page } = browser;
-  await browser.context.clearCookies();
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('home-greeting').waitFor();
+  await app.browser.context.clearCookies();
+  await app.signIn(email);
 }
 
 describe('calibration', () => {
   it('an operator uploads a calibration roll, marks the chart by clicking its corners and sees the report with its draft', async () => {
-    const { page } = browser;
+    const { page } = app.browser;
     await signIn('operator@clearbase.test');
 
     await page.getByTestId('nav-calibration').click();
@@ -161,7 +149,7 @@ describe('calibration', () => {
   });
 
   it('an operator loads the demo lab’s roll on file, keeps the grey rectangle, marks the chart, fits it and edits the draft', async () => {
-    const { page } = browser;
+    const { page } = app.browser;
     await signIn('operator@clearbase.test');
     await page.getByTestId('nav-calibration').click();
     await page.getByTestId('rolls-on-file').getByText('Tealine 200').waitFor();
@@ -194,7 +182,7 @@ describe('calibration', () => {
         position: { x: (fx / chart.width) * size.width, y: (fy / chart.height) * size.height },
       });
     }
-    await browser.screenshot('calibration-demo-roll-marked');
+    await app.browser.screenshot('calibration-demo-roll-marked');
     await expect.poll(() => page.getByTestId('sample-area').count()).toBe(24);
     await page.getByTestId('corner-hint').filter({ hasText: 'All four corners set' }).waitFor();
     await page.getByTestId('calibration-submit').click();
@@ -205,7 +193,7 @@ describe('calibration', () => {
     expect(await page.getByTestId('delta-e-row').count()).toBe(24);
     expect(await page.getByTestId('calibration-warnings').locator('li').count()).toBeGreaterThan(0);
     expect(await page.getByTestId('calibration-warnings').textContent()).toMatch(/speed point/i);
-    await browser.screenshot('calibration-report-demo-roll');
+    await app.browser.screenshot('calibration-report-demo-roll');
 
     const calibrationId = Number(page.url().split('/').pop());
 
@@ -236,7 +224,7 @@ describe('calibration', () => {
       const res = await fetch(`/api/calibrations/${id}`);
       return ((await res.json()) as { stockId: number }).stockId;
     }, calibrationId);
-    await page.goto(`${server.url}/catalogue/stocks/${stockId}`);
+    await page.goto(`${app.url}/catalogue/stocks/${stockId}`);
     expect(await page.getByTestId('calibrate-stock').getAttribute('href')).toBe(
       `/calibration?stock=${stockId}`,
     );

@@ -1,56 +1,26 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openBrowser, type BrowserSession } from './support/browser-session';
-import { startTestServer, type TestServer } from './support/test-server';
+import { describe, expect, it } from 'vitest';
+import { useBrowserApp } from './support/browser-app';
 
-const demoPassword = 'clearbase-demo';
-
-let server: TestServer;
-let browser: BrowserSession;
-
-beforeAll(async () => {
-  server = await startTestServer();
-  browser = await openBrowser(server.url);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-async function signIn(role: string): Promise<void> {
-  const { page } = browser;
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(`${role}@clearbase.test`);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('home-greeting').waitFor();
-}
-
-async function signOut(): Promise<void> {
-  const { page } = browser;
-  await page.getByTestId('user-menu').click();
-  await page.getByTestId('sign-out').click();
-  await page.getByTestId('sign-in-email').waitFor();
-}
+const app = useBrowserApp();
 
 /** The stock names the catalogue table shows, once it shows exactly `count` rows. */
 async function stockNames(count: number): Promise<string[]> {
-  const rows = browser.page.locator('[data-testid^="stock-row-"]');
+  const rows = app.browser.page.locator('[data-testid^="stock-row-"]');
   await expect.poll(() => rows.count(), { timeout: 10_000 }).toBe(count);
-  return browser.page.locator('[data-testid^="stock-link-"]').allInnerTexts();
+  return app.browser.page.locator('[data-testid^="stock-link-"]').allInnerTexts();
 }
 
 describe('the film stock catalogue', () => {
   it('lets a customer filter to unmasked stocks, open one and work out a long exposure', async () => {
-    const { page } = browser;
-    await signIn('customer');
+    const { page } = app.browser;
+    await app.signIn('customer@clearbase.test');
     await page.getByTestId('nav-catalogue').click();
     await page.getByTestId('catalogue-table').waitFor();
     expect((await stockNames(3)).sort()).toEqual(['Glasswing 400', 'Kestrel Colour 160', 'Tealine 200']);
 
     await page.getByTestId('masking-unmasked').click();
     expect(await stockNames(2)).toEqual(['Glasswing 400', 'Tealine 200']);
-    await browser.screenshot('catalogue-unmasked');
+    await app.browser.screenshot('catalogue-unmasked');
 
     await page.locator('[data-testid^="stock-link-"]', { hasText: 'Glasswing 400' }).click();
     await page.getByTestId('stock-sheet').waitFor();
@@ -60,13 +30,13 @@ describe('the film stock catalogue', () => {
     // t_c = t_m^p with p = 1.3: 10 s ⇒ 19.95 s (practical form of Schwarzschild's law, common practice of the trade)
     await expect.poll(() => page.getByTestId('reciprocity-corrected').innerText()).toBe('19.95 s');
     expect(await page.locator('[data-testid^="timeline-"]').count()).toBe(0);
-    await browser.screenshot('stock-sheet-customer');
-    await signOut();
+    await app.browser.screenshot('stock-sheet-customer');
+    await app.signOut();
   });
 
   it('lets an operator make a new draft from a published version, and offers no retiring', async () => {
-    const { page } = browser;
-    await signIn('operator');
+    const { page } = app.browser;
+    await app.signIn('operator@clearbase.test');
     await page.getByTestId('nav-catalogue').click();
     await page.locator('[data-testid^="stock-link-"]', { hasText: 'Tealine 200' }).click();
     const timeline = page.locator('[data-testid^="timeline-"]').first();
@@ -88,11 +58,11 @@ describe('the film stock catalogue', () => {
     expect(await newest.locator('[data-testid^="edit-draft-"]').count()).toBe(1);
 
     expect(await page.locator('[data-testid^="retire-"]').count()).toBe(0);
-    await browser.screenshot('stock-page-operator');
-    await signOut();
+    await app.browser.screenshot('stock-page-operator');
+    await app.signOut();
   });
 
   it('loads nothing from any other origin', () => {
-    expect(browser.foreignRequests).toEqual([]);
+    expect(app.browser.foreignRequests).toEqual([]);
   });
 });

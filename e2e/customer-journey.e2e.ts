@@ -1,95 +1,30 @@
-import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, readdirSync, rmSync } from 'node:fs';
 import { basename, extname, join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { zipEntries } from '../server/src/downloads/zip-entries';
-import { openBrowser, type BrowserSession } from './support/browser-session';
-import { startTestServer, type TestServer } from './support/test-server';
+import { apiAs } from './support/api-as';
+import { useBrowserApp } from './support/browser-app';
+import { caughtMailTo } from './support/caught-mail-to';
+import { demoPassword } from './support/demo-password';
+import { synthNegatives } from './support/synth-negatives';
 
-const demoPassword = 'clearbase-demo';
 const customerEmail = 'ottilie.marsh@example.test';
 const customerPassword = 'reed-beds-at-dusk';
 
-let server: TestServer;
-let browser: BrowserSession;
 let scans: string;
 let negatives: string[];
 
-beforeAll(async () => {
-  // two small 16-bit negatives per roll from the forward model (the command line's synth)
-  scans = mkdtempSync(join(tmpdir(), 'clearbase-journey-'));
-  execFileSync(
-    process.execPath,
-    ['bin/clearbase.mjs', 'synth', '--out', scans, '--frames', '2', '--width', '240', '--height', '160'],
-    { stdio: 'ignore' },
-  );
-  negatives = readdirSync(scans).sort();
-  server = await startTestServer();
-  browser = await openBrowser(server.url);
+const app = useBrowserApp({
+  prepare() {
+    // two small 16-bit negatives per roll from the forward model
+    scans = synthNegatives('clearbase-journey-', { frames: 2, width: 240, height: 160 });
+    negatives = readdirSync(scans).sort();
+  },
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
+afterAll(() => {
   if (scans) rmSync(scans, { recursive: true, force: true });
 });
-
-interface Api {
-  get(path: string): Promise<Response>;
-  post(path: string, body?: object): Promise<Response>;
-  postForm(path: string, form: FormData): Promise<Response>;
-}
-
-/** A signed-in user talking to the API with fetch: cookies and the CSRF header kept by hand. */
-async function apiAs(email: string, password: string): Promise<Api> {
-  const cookies = new Map<string, string>();
-  const keep = (res: Response) => {
-    for (const line of res.headers.getSetCookie()) {
-      const [pair] = line.split(';');
-      const eq = pair!.indexOf('=');
-      cookies.set(pair!.slice(0, eq), pair!.slice(eq + 1));
-    }
-    return res;
-  };
-  const headers = (json: boolean): Record<string, string> => ({
-    ...(json ? { 'content-type': 'application/json' } : {}),
-    cookie: [...cookies].map(([k, v]) => `${k}=${v}`).join('; '),
-    'x-xsrf-token': decodeURIComponent(cookies.get('XSRF-TOKEN') ?? ''),
-  });
-  const api: Api = {
-    get: async (path) => keep(await fetch(`${server.url}${path}`, { headers: headers(false) })),
-    post: async (path, body = {}) =>
-      keep(
-        await fetch(`${server.url}${path}`, {
-          method: 'POST',
-          headers: headers(true),
-          body: JSON.stringify(body),
-        }),
-      ),
-    postForm: async (path, form) =>
-      keep(await fetch(`${server.url}${path}`, { method: 'POST', headers: headers(false), body: form })),
-  };
-  await api.get('/api/health');
-  const login = await api.post('/api/auth/login', { email, password });
-  expect(login.status).toBe(200);
-  return api;
-}
-
-/** Waits for the outbox to hand a message for this address to the local mail catcher. */
-async function caughtMailTo(address: string, subject: RegExp): Promise<{ subject: string; text: string }> {
-  const admin = await apiAs('admin@clearbase.test', demoPassword);
-  const deadline = Date.now() + 30_000;
-  for (;;) {
-    const list = (await (await admin.get('/api/dev/mailbox')).json()) as {
-      messages: { id: string; to: string[]; subject: string }[];
-    };
-    const found = list.messages.find((m) => m.to.includes(address) && subject.test(m.subject));
-    if (found) return (await (await admin.get(`/api/dev/mailbox/${found.id}`)).json()) as never;
-    if (Date.now() > deadline) throw new Error(`no mail to ${address} matching ${subject} within 30 s`);
-    await new Promise((r) => setTimeout(r, 500));
-  }
-}
 
 async function until<T>(what: string, probe: () => Promise<T | undefined>, seconds = 90): Promise<T> {
   const deadline = Date.now() + seconds * 1000;
@@ -103,15 +38,15 @@ async function until<T>(what: string, probe: () => Promise<T | undefined>, secon
 
 describe('a customer’s whole journey', () => {
   it('signs up, orders two rolls, pays, and downloads every finished frame in one zip', async () => {
-    const { page } = browser;
+    const { page } = app.browser;
     // sign up in the browser and confirm the address from the caught mail
-    await page.goto(`${server.url}/sign-up`);
+    await page.goto(`${app.url}/sign-up`);
     await page.getByTestId('sign-up-name').fill('Ottilie Marsh');
     await page.getByTestId('sign-up-email').fill(customerEmail);
     await page.getByTestId('sign-up-password').fill(customerPassword);
     await page.getByTestId('sign-up-submit').click();
     await page.getByTestId('sign-up-sent').waitFor();
-    const verify = await caughtMailTo(customerEmail, /^Confirm your e-mail address/);
+    const verify = await caughtMailTo(app.url, customerEmail, /^Confirm your e-mail address/);
     const link = /http:\/\/127\.0\.0\.1:\d+\/verify-email\?token=[A-Za-z0-9_-]+/.exec(verify.text)?.[0];
     expect(link, verify.text).toBeDefined();
     await page.goto(link!);
@@ -123,7 +58,7 @@ describe('a customer’s whole journey', () => {
     await page.getByTestId('sign-in-password').fill(customerPassword);
     await page.getByTestId('sign-in-submit').click();
     await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
-    const customer = await apiAs(customerEmail, customerPassword);
+    const customer = await apiAs(app.url, customerEmail, customerPassword);
     const { stocks } = (await (await customer.get('/api/stocks')).json()) as {
       stocks: { id: number; name: string; frameFormats: string[]; process: string }[];
     };
@@ -139,7 +74,7 @@ describe('a customer’s whole journey', () => {
       }
     }
     expect(stock).toBeDefined();
-    await page.goto(`${server.url}/orders`);
+    await page.goto(`${app.url}/orders`);
     await page.getByTestId('orders-new').click();
     for (const [i, development] of ['Normal', '+1 stop push'].entries()) {
       if (i > 0) await page.getByTestId('add-roll-line').click();
@@ -180,12 +115,12 @@ describe('a customer’s whole journey', () => {
     );
     // posting the negatives back is a line of the whole order
     expect(await page.getByTestId('quote-line').last().textContent()).toContain('Negatives posted back');
-    await browser.screenshot('new-order-review');
+    await app.browser.screenshot('new-order-review');
 
     // placing it goes straight to the payment fake's page, where the customer pays
     await page.getByTestId('place-order').click();
     await page.getByTestId('fake-approve').click();
-    await page.waitForURL((url) => url.origin === server.url);
+    await page.waitForURL((url) => url.origin === app.url);
     const orderId = Number(/\/orders\/(\d+)/.exec(page.url())?.[1]);
     expect(orderId).toBeGreaterThan(0);
     const order = { id: orderId };
@@ -199,7 +134,7 @@ describe('a customer’s whole journey', () => {
       [400, 1, '135-36'],
     ]);
     const rollIds = detail.rolls.map((r) => r.id);
-    const received = await caughtMailTo(customerEmail, /^We have your order/);
+    const received = await caughtMailTo(app.url, customerEmail, /^We have your order/);
     expect(received.text).toContain(`/orders/${order.id}`);
     await until('the payment', async () => {
       const { payments } = (await (await customer.get(`/api/orders/${order.id}/payments`)).json()) as {
@@ -209,7 +144,7 @@ describe('a customer’s whole journey', () => {
     });
 
     // the lab uploads, inverts and approves both rolls through the API, then marks the order ready
-    const operator = await apiAs('operator@clearbase.test', demoPassword);
+    const operator = await apiAs(app.url, 'operator@clearbase.test', demoPassword);
     for (const rollId of rollIds) {
       const form = new FormData();
       for (const name of negatives) {
@@ -233,14 +168,14 @@ describe('a customer’s whole journey', () => {
     // paid, but still being worked on: nothing to download yet, and the gallery says why
     const early = await customer.post(`/api/orders/${order.id}/download-links`);
     expect(early.status).toBe(409);
-    await page.goto(`${server.url}/orders/${order.id}/gallery`);
+    await page.goto(`${app.url}/orders/${order.id}/gallery`);
     const held = page.getByTestId('gallery-held-back');
     await held.waitFor();
     expect(await held.textContent()).toContain(
       'is tuning; its full-size scans come once the lab marks it ready',
     );
     expect(await page.getByTestId('gallery-download-all').count()).toBe(0);
-    await browser.screenshot('gallery-held-back');
+    await app.browser.screenshot('gallery-held-back');
 
     for (const frame of rendered) {
       expect((await operator.post(`/api/frames/${frame.id}/review`, { decision: 'approved' })).status).toBe(
@@ -251,7 +186,7 @@ describe('a customer’s whole journey', () => {
     expect(ready.status, await ready.clone().text()).toBe(200);
 
     // the customer follows the mailed link, signed in, and finds every frame in the zip
-    const mail = await caughtMailTo(customerEmail, /^Your scans are ready/);
+    const mail = await caughtMailTo(app.url, customerEmail, /^Your scans are ready/);
     const download = /http:\/\/127\.0\.0\.1:\d+(\/api\/downloads\/[A-Za-z0-9_-]+)/.exec(mail.text)?.[1];
     expect(download, mail.text).toBeDefined();
     const zip = await customer.get(download!);

@@ -1,8 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openBrowser, type BrowserSession } from './support/browser-session';
-import { startTestServer, type TestServer } from './support/test-server';
-
-const demoPassword = 'clearbase-demo';
+import { describe, expect, it } from 'vitest';
+import { useBrowserApp } from './support/browser-app';
+import { fetchFromPage } from './support/fetch-from-page';
 
 /** The parts of a version the test reads back. */
 interface SavedVersion {
@@ -11,38 +9,11 @@ interface SavedVersion {
   parameters: { balance: { magentaGreen: number } };
 }
 
-let server: TestServer;
-let browser: BrowserSession;
-
-beforeAll(async () => {
-  server = await startTestServer();
-  browser = await openBrowser(server.url);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
-async function signIn(email: string): Promise<void> {
-  const { page } = browser;
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('home-greeting').waitFor();
-}
-
-async function signOut(): Promise<void> {
-  const { page } = browser;
-  await page.getByTestId('user-menu').click();
-  await page.getByTestId('sign-out').click();
-  await page.getByTestId('sign-in-email').waitFor();
-}
+const app = useBrowserApp();
 
 /** The ids of the demo lab's open drafts, one per stock, read through the API as the signed-in user. */
 async function demoDraftIds(): Promise<number[]> {
-  return browser.page.evaluate(async () => {
+  return app.browser.page.evaluate(async () => {
     const { stocks } = (await (await fetch('/api/stocks')).json()) as { stocks: { id: number }[] };
     const ids: number[] = [];
     for (const stock of stocks) {
@@ -58,7 +29,7 @@ async function demoDraftIds(): Promise<number[]> {
 
 /** A checksum of the edited preview's pixels, read from its canvas in the page. */
 async function afterPixels(): Promise<number> {
-  return browser.page.evaluate(() => {
+  return app.browser.page.evaluate(() => {
     const canvas = document.querySelector<HTMLCanvasElement>('[data-testid="preview-after"]')!;
     const data = canvas.getContext('2d')!.getImageData(0, 0, canvas.width, canvas.height).data;
     let sum = 0;
@@ -69,7 +40,7 @@ async function afterPixels(): Promise<number> {
 
 /** Mean green minus mean red of the edited preview: goes up when the positive turns greener. */
 async function afterGreenness(): Promise<number> {
-  return browser.page.evaluate(() => {
+  return app.browser.page.evaluate(() => {
     const canvas = document.querySelector<HTMLCanvasElement>('[data-testid="preview-after"]')!;
     const data = canvas.getContext('2d')!.getImageData(0, 0, canvas.width, canvas.height).data;
     let g = 0;
@@ -82,13 +53,13 @@ describe('the profile editor', () => {
   let draftIds: number[] = [];
 
   it('lets a manager change a draft’s magenta–green balance, see the preview change, save and publish it', async () => {
-    const { page } = browser;
-    await signIn('manager@clearbase.test');
+    const { page } = app.browser;
+    await app.signIn('manager@clearbase.test');
     draftIds = await demoDraftIds();
     expect(draftIds.length).toBeGreaterThanOrEqual(3);
     const draftId = draftIds[0]!;
 
-    await page.goto(`${server.url}/catalogue/versions/${draftId}`);
+    await page.goto(`${app.url}/catalogue/versions/${draftId}`);
     await page.getByTestId('editor-status').filter({ hasText: 'Draft' }).waitFor();
     await page.getByTestId('preview-time').waitFor({ timeout: 60_000 });
     const firstTime = await page.getByTestId('preview-time').innerText();
@@ -132,7 +103,7 @@ describe('the profile editor', () => {
     console.log(
       `preview render, 1.5 MP: first: ${firstTime}\nafter a balance change: ${editedTime}\n${stepTimes.join('\n')}`,
     );
-    await browser.screenshot('profile-editor-edited');
+    await app.browser.screenshot('profile-editor-edited');
 
     await page.getByTestId('editor-save').click();
     await page.getByTestId('editor-publish').and(page.locator(':enabled')).waitFor();
@@ -160,33 +131,27 @@ describe('the profile editor', () => {
       status: 'published',
       changelog: 'Two points more green after the trial roll',
     });
-    await browser.screenshot('profile-editor-published');
-    await signOut();
+    await app.browser.screenshot('profile-editor-published');
+    await app.signOut();
   });
 
   it('shows an operator no publish button, and the API answers the operator’s publish with 403', async () => {
-    const { page } = browser;
-    await signIn('operator@clearbase.test');
+    const { page } = app.browser;
+    await app.signIn('operator@clearbase.test');
     const draftId = draftIds[1]!;
-    await page.goto(`${server.url}/catalogue/versions/${draftId}`);
+    await page.goto(`${app.url}/catalogue/versions/${draftId}`);
     await page.getByTestId('editor-status').filter({ hasText: 'Draft' }).waitFor();
     await page.getByTestId('editor-save').waitFor();
     expect(await page.getByTestId('editor-publish').count()).toBe(0);
-    const status = await page.evaluate(async (id) => {
-      const token = decodeURIComponent(/(?:^|; )XSRF-TOKEN=([^;]*)/.exec(document.cookie)?.[1] ?? '');
-      const res = await fetch(`/api/profile-versions/${id}/publish`, {
-        method: 'POST',
-        headers: { 'Content-Type': 'application/json', 'X-XSRF-TOKEN': token },
-        body: JSON.stringify({ changelog: 'An operator tries to publish' }),
-      });
-      return { status: res.status, type: res.headers.get('content-type') };
-    }, draftId);
+    const status = await fetchFromPage(page, 'POST', `/api/profile-versions/${draftId}/publish`, {
+      changelog: 'An operator tries to publish',
+    });
     expect(status.status).toBe(403);
     expect(status.type).toMatch(/^application\/problem\+json/);
-    await signOut();
+    await app.signOut();
   });
 
   it('loads nothing from any other origin', () => {
-    expect(browser.foreignRequests).toEqual([]);
+    expect(app.browser.foreignRequests).toEqual([]);
   });
 });

@@ -1,78 +1,46 @@
-import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { rmSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { openBrowser, type BrowserSession } from './support/browser-session';
-import { startTestServer, type TestServer } from './support/test-server';
+import { afterAll, describe, expect, it } from 'vitest';
+import { useBrowserApp } from './support/browser-app';
+import { fetchFromPage } from './support/fetch-from-page';
+import { synthNegatives } from './support/synth-negatives';
 
-const demoPassword = 'clearbase-demo';
-
-let server: TestServer;
-let browser: BrowserSession;
 let scans: string;
 let orderId: number;
 let rollUrl: string;
 let good: string[];
 
-beforeAll(async () => {
-  // two good 16-bit negatives from the forward model (the command line's synth), and a text file that only calls
-  // itself a TIFF
-  scans = mkdtempSync(join(tmpdir(), 'clearbase-scans-'));
-  execFileSync(
-    process.execPath,
-    ['bin/clearbase.mjs', 'synth', '--out', scans, '--frames', '2', '--width', '240', '--height', '160'],
-    { stdio: 'ignore' },
-  );
-  good = readdirSync(scans).sort();
-  writeFileSync(join(scans, 'contact-notes.tif'), 'Frames 1 and 2 from the harbour walk.\n');
-  server = await startTestServer();
-  browser = await openBrowser(server.url);
+const app = useBrowserApp({
+  prepare() {
+    // two good 16-bit negatives from the forward model, and a text file that only calls itself a TIFF
+    scans = synthNegatives('clearbase-scans-', { frames: 2, width: 240, height: 160 });
+    good = readdirSync(scans).sort();
+    writeFileSync(join(scans, 'contact-notes.tif'), 'Frames 1 and 2 from the harbour walk.\n');
+  },
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
+afterAll(() => {
   if (scans) rmSync(scans, { recursive: true, force: true });
 });
 
-async function signIn(role: string): Promise<void> {
-  const { page } = browser;
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(`${role}@clearbase.test`);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('home-greeting').waitFor();
-}
-
-async function signOut(): Promise<void> {
-  const { page } = browser;
-  await page.getByTestId('user-menu').click();
-  await page.getByTestId('sign-out').click();
-  await page.getByTestId('sign-in-email').waitFor();
-}
-
 describe('a roll from order to positives', () => {
   it('lets a customer place an order', async () => {
-    await signIn('customer');
+    await app.signIn('customer@clearbase.test');
     // placed through the API from the signed-in page, with the session's CSRF token
-    const order = await browser.page.evaluate(async () => {
-      const token = decodeURIComponent(/(?:^|; )XSRF-TOKEN=([^;]+)/.exec(document.cookie)?.[1] ?? '');
-      const res = await fetch('/api/orders', {
-        method: 'POST',
-        headers: { 'content-type': 'application/json', 'x-xsrf-token': token },
-        body: JSON.stringify({ notes: 'Harbour walk, one roll.', outputFormats: ['jpeg'] }),
-      });
-      return (await res.json()) as { id: number };
-    });
+    const order = (
+      await fetchFromPage(app.browser.page, 'POST', '/api/orders', {
+        notes: 'Harbour walk, one roll.',
+        outputFormats: ['jpeg'],
+      })
+    ).body as { id: number };
     orderId = order.id;
     expect(orderId).toBeGreaterThan(0);
-    await signOut();
+    await app.signOut();
   });
 
   it('lets an operator add a roll, upload three files, and watch two frames invert live', async () => {
-    const { page } = browser;
-    await signIn('operator');
+    const { page } = app.browser;
+    await app.signIn('operator@clearbase.test');
     await page.getByTestId('nav-orders').click();
     await page.getByTestId(`order-link-${orderId}`).click();
     await page.getByTestId('order-title').waitFor();
@@ -90,7 +58,7 @@ describe('a roll from order to positives', () => {
     await rollLink.waitFor();
     const row = page.locator('[data-testid^="roll-row-"]');
     expect(await row.innerText()).toContain('+1 stop push');
-    await browser.screenshot('order-page-operator');
+    await app.browser.screenshot('order-page-operator');
 
     await rollLink.click();
     await page.getByTestId('roll-title').waitFor();
@@ -115,7 +83,7 @@ describe('a roll from order to positives', () => {
     expect(await line(good[0]!).getByTestId('upload-reason').count()).toBe(0);
     await expect.poll(() => page.getByTestId('upload-batch-counts').innerText()).toBe('2 kept · 1 refused');
     await page.getByTestId('frame-2').waitFor();
-    await browser.screenshot('roll-page-uploaded');
+    await app.browser.screenshot('roll-page-uploaded');
 
     await page.getByTestId('invert-roll').click();
     const status = (index: number) => page.getByTestId(`frame-${index}`).getByTestId('frame-status');
@@ -130,24 +98,24 @@ describe('a roll from order to positives', () => {
     await expect
       .poll(() => thumb.evaluate((img) => (img as HTMLImageElement).naturalWidth), { timeout: 20_000 })
       .toBeGreaterThan(0);
-    await browser.screenshot('roll-page-inverted');
-    await signOut();
+    await app.browser.screenshot('roll-page-inverted');
+    await app.signOut();
   });
 
   it('keeps a customer off the roll page, even of their own order', async () => {
-    const { page } = browser;
-    await signIn('customer');
+    const { page } = app.browser;
+    await app.signIn('customer@clearbase.test');
     await page.goto(rollUrl);
     await page.getByTestId('home-greeting').waitFor();
     expect(new URL(page.url()).pathname).toBe('/');
     expect(await page.getByTestId('roll-title').count()).toBe(0);
     // and the order page shows the roll without a link to it
-    await page.goto(`${server.url}/orders/${orderId}`);
+    await page.goto(`${app.url}/orders/${orderId}`);
     await page.locator('[data-testid^="roll-row-"]').waitFor();
     expect(await page.locator('[data-testid^="roll-link-"]').count()).toBe(0);
   });
 
   it('loads nothing from any other origin', () => {
-    expect(browser.foreignRequests).toEqual([]);
+    expect(app.browser.foreignRequests).toEqual([]);
   });
 });

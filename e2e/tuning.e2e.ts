@@ -1,91 +1,38 @@
-import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readdirSync, readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { converter } from 'culori';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { D65_WHITE, linearSrgbToXyz, srgbDecode, xyzToLab } from '../libs/inversion/src/index';
-import { openBrowser, type BrowserSession } from './support/browser-session';
-import { startTestServer, type TestServer } from './support/test-server';
+import { useBrowserApp } from './support/browser-app';
+import { fetchFromPage } from './support/fetch-from-page';
+import { synthNegatives } from './support/synth-negatives';
 
-const demoPassword = 'clearbase-demo';
 // a roll-wide cast of 8 points towards magenta: plainly visible, common practice of the trade, from memory
 const magentaCast = { cyanRed: 0, magentaGreen: -8, yellowBlue: 0 };
 
-let server: TestServer;
-let browser: BrowserSession;
 let scans: string;
 let rollId: number;
 let frameId: number;
 
-beforeAll(async () => {
-  // one 16-bit negative of grey steps on an 18 % grey surround, from the forward model (the command line's synth)
-  scans = mkdtempSync(join(tmpdir(), 'clearbase-grey-'));
-  execFileSync(
-    process.execPath,
-    [
-      'bin/clearbase.mjs',
-      'synth',
-      '--out',
-      scans,
-      '--frames',
-      '2',
-      '--width',
-      '360',
-      '--height',
-      '240',
-      '--scene',
-      'grey-steps',
-    ],
-    { stdio: 'ignore' },
-  );
-  server = await startTestServer();
-  browser = await openBrowser(server.url);
+const app = useBrowserApp({
+  prepare() {
+    // one 16-bit negative of grey steps on an 18 % grey surround, from the forward model
+    scans = synthNegatives('clearbase-grey-', { frames: 2, width: 360, height: 240, scene: 'grey-steps' });
+  },
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
+afterAll(() => {
   if (scans) rmSync(scans, { recursive: true, force: true });
 });
 
-async function signIn(role: string): Promise<void> {
-  const { page } = browser;
-  await page.goto(`${server.url}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(`${role}@clearbase.test`);
-  await page.getByTestId('sign-in-password').fill(demoPassword);
-  await page.getByTestId('sign-in-submit').click();
-  await page.getByTestId('home-greeting').waitFor();
-}
-
-async function signOut(): Promise<void> {
-  await browser.page.getByTestId('user-menu').click();
-  await browser.page.getByTestId('sign-out').click();
-  await browser.page.getByTestId('sign-in-email').waitFor();
-}
-
 /** A JSON call from the signed-in page, with its CSRF token; answers status and body. */
-// eslint-disable-next-line @typescript-eslint/no-explicit-any -- the answers of several routes, read field by field
-async function api(method: string, path: string, body?: unknown): Promise<{ status: number; body: any }> {
-  return browser.page.evaluate(
-    async ({ method, path, body }) => {
-      const token = decodeURIComponent(/(?:^|; )XSRF-TOKEN=([^;]+)/.exec(document.cookie)?.[1] ?? '');
-      const res = await fetch(path, {
-        method,
-        headers: { 'content-type': 'application/json', 'x-xsrf-token': token },
-        ...(body === undefined ? {} : { body: JSON.stringify(body) }),
-      });
-      const text = await res.text();
-      return { status: res.status, body: text ? JSON.parse(text) : null };
-    },
-    { method, path, body },
-  );
-}
+const api = (method: string, path: string, body?: unknown) =>
+  fetchFromPage(app.browser.page, method, path, body);
 
 /** The frame's finished JPEG, fetched by the signed-in page. */
 async function outputJpeg(id: number): Promise<Buffer> {
-  const bytes = await browser.page.evaluate(async (id) => {
+  const bytes = await app.browser.page.evaluate(async (id) => {
     // the output keeps its address when rendered again; skip the browser's cache
     const res = await fetch(`/api/frames/${id}/output?format=jpeg`, { cache: 'no-store' });
     return Array.from(new Uint8Array(await res.arrayBuffer()));
@@ -148,12 +95,12 @@ const patch = { x0: 0.47, y0: 0.4, x1: 0.53, y1: 0.6 };
 
 describe('tuning a roll', () => {
   it('sets up a roll whose grey renders magenta', async () => {
-    await signIn('customer');
+    await app.signIn('customer@clearbase.test');
     const order = await api('POST', '/api/orders', { notes: 'Grey card test.', outputFormats: ['jpeg'] });
     expect(order.status).toBe(201);
-    await signOut();
+    await app.signOut();
 
-    await signIn('operator');
+    await app.signIn('operator@clearbase.test');
     const { stocks } = (await api('GET', '/api/stocks')).body as { stocks: { id: number }[] };
     for (const stock of stocks) {
       const made = await api('POST', `/api/orders/${order.body.id}/rolls`, {
@@ -169,7 +116,7 @@ describe('tuning a roll', () => {
     expect(rollId).toBeGreaterThan(0);
     const file = readdirSync(scans).sort()[0]!;
     const bytes = Array.from(readFileSync(join(scans, file)));
-    const uploaded = await browser.page.evaluate(
+    const uploaded = await app.browser.page.evaluate(
       async ({ rollId, bytes, file }) => {
         const token = decodeURIComponent(/(?:^|; )XSRF-TOKEN=([^;]+)/.exec(document.cookie)?.[1] ?? '');
         const form = new FormData();
@@ -193,8 +140,8 @@ describe('tuning a roll', () => {
   });
 
   it('lets an operator take the cast out with the neutral picker, save, and get a neutral grey', async () => {
-    const { page } = browser;
-    await page.goto(`${server.url}/rolls/${rollId}/tune`);
+    const { page } = app.browser;
+    await page.goto(`${app.url}/rolls/${rollId}/tune`);
     const canvas = page.getByTestId('after-canvas');
     await expect
       .poll(() => canvas.evaluate((c) => (c as HTMLCanvasElement).width), { timeout: 30_000 })
@@ -202,7 +149,7 @@ describe('tuning a roll', () => {
     // the canvas has a size before the first rendering: the picker needs the negative and its preview in
     await page.getByTestId('preview-ms').waitFor({ timeout: 30_000 });
     await page.getByText('Toggle', { exact: true }).click();
-    await browser.screenshot('tuning-before-pick');
+    await app.browser.screenshot('tuning-before-pick');
 
     await page.getByTestId('neutral-picker').click();
     const box = (await canvas.boundingBox())!;
@@ -219,7 +166,7 @@ describe('tuning a roll', () => {
     const mg = Number(await page.getByTestId('value-magentaGreen').innerText());
     const cr = Number(await page.getByTestId('value-cyanRed').innerText());
     expect(Math.abs(mg - cr - 8)).toBeLessThanOrEqual(1);
-    await browser.screenshot('tuning-picked');
+    await app.browser.screenshot('tuning-picked');
 
     const since = (await api('GET', `/api/rolls/${rollId}/tuning`)).body.frames[0].renderedAt as string;
     await page.getByTestId('save').click();
@@ -231,7 +178,7 @@ describe('tuning a roll', () => {
   });
 
   it('undoes and redoes a reset, and shows the keys on ?', async () => {
-    const { page } = browser;
+    const { page } = app.browser;
     const value = async () => Number(await page.getByTestId('value-magentaGreen').innerText());
     const picked = await value();
     expect(picked).not.toBe(0);
@@ -250,14 +197,14 @@ describe('tuning a roll', () => {
   });
 
   it('approves the only frame, which approves the roll', async () => {
-    const { page } = browser;
+    const { page } = app.browser;
     await page.getByTestId('approve').click();
     await page.getByTestId('roll-approved').waitFor();
     expect(await page.getByTestId('review').innerText()).toContain('approved');
   });
 
   it('copies a frame’s tuning to a selected frame in one step, and undoes the copy', async () => {
-    const { page } = browser;
+    const { page } = app.browser;
     // the synth's second negative: a second frame of the roll
     const bytes = Array.from(readFileSync(join(scans, readdirSync(scans).sort()[1]!)));
     await page.evaluate(
@@ -288,7 +235,7 @@ describe('tuning a roll', () => {
   });
 
   it('lets an operator take the cast out with the magenta–green control, point by point, and get a neutral grey', async () => {
-    const { page } = browser;
+    const { page } = app.browser;
     // the frame starts over with no tuning of its own: its output carries the roll's magenta cast again
     expect((await api('PUT', `/api/frames/${frameId}/adjustments`, {})).status).toBe(200);
     let since = (await api('GET', `/api/rolls/${rollId}/tuning`)).body.frames[0].renderedAt as string;
@@ -301,7 +248,7 @@ describe('tuning a roll', () => {
     const cast = meanLab65(castOutput.data, castOutput.info, patch);
     expect(cast.a).toBeGreaterThan(4);
 
-    await page.goto(`${server.url}/rolls/${rollId}/tune`);
+    await page.goto(`${app.url}/rolls/${rollId}/tune`);
     const canvas = page.getByTestId('after-canvas');
     await expect
       .poll(() => canvas.evaluate((c) => (c as HTMLCanvasElement).width), { timeout: 30_000 })
@@ -359,7 +306,7 @@ describe('tuning a roll', () => {
     }
     // the roll's cast was 8 points of magenta: the control takes out the same 8 points
     expect(Math.abs((await points()) - 8)).toBeLessThanOrEqual(1);
-    await browser.screenshot('tuning-stepped');
+    await app.browser.screenshot('tuning-stepped');
 
     since = (await api('GET', `/api/rolls/${rollId}/tuning`)).body.frames[0].renderedAt as string;
     await page.getByTestId('save').click();
@@ -380,7 +327,7 @@ describe('tuning a roll', () => {
   });
 
   it('shows the saved full-size render at 1:1 under the pointer, and goes back to fit on Escape', async () => {
-    const { page } = browser;
+    const { page } = app.browser;
     // the page reads the sheet again while the frames render; 1:1 waits for the frame to be done
     const box = (await page.getByTestId('after-canvas').boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.5);
@@ -394,12 +341,12 @@ describe('tuning a roll', () => {
     // one image pixel per screen pixel
     expect(shown.width * ratio).toBeCloseTo(360, 0);
     expect(await page.getByTestId('actual-pixels-caption').innerText()).toContain('360×240');
-    await browser.screenshot('tuning-actual-pixels');
+    await app.browser.screenshot('tuning-actual-pixels');
     await page.keyboard.press('Escape');
     await expect.poll(() => page.getByTestId('actual-pixels-view').count()).toBe(0);
   });
 
   it('loads nothing from any other origin', () => {
-    expect(browser.foreignRequests).toEqual([]);
+    expect(app.browser.foreignRequests).toEqual([]);
   });
 });
