@@ -1,3 +1,4 @@
+import { validateProfileDocument } from '@clearbase/contracts';
 import { describe, expect, it } from 'vitest';
 import {
   applyInversion,
@@ -66,5 +67,20 @@ describe('the exposure-space colour matrix of a profile', () => {
     applyInversion(compileInversion(after), input, b, 0, input.length / 3);
     expect(Buffer.from(b).equals(Buffer.from(a))).toBe(true);
     expect(compileInversion(before).primaries).toBeNull();
+  });
+
+  it('is accepted in a profile document with rows summing to 1, refused at its row otherwise; older documents still pass', () => {
+    expect(doc).not.toHaveProperty('exposureMatrix');
+    expect(validateProfileDocument(doc).ok).toBe(true);
+    expect(validateProfileDocument({ ...doc, exposureMatrix: FITTED }).ok).toBe(true);
+    const bad = validateProfileDocument({
+      ...doc,
+      exposureMatrix: [FITTED[0], [1.2, 0, 0], FITTED[2]],
+    });
+    expect(bad.ok).toBe(false);
+    if (!bad.ok)
+      expect(bad.errors).toEqual([
+        { path: 'exposureMatrix[1]', message: 'each row must sum to 1 so a grey stays grey' },
+      ]);
   });
 });

@@ -14,17 +14,14 @@ export const RELATIVE_LOG_EXPOSURE_RANGE: readonly [number, number] = [-6, 3];
 /** Weights for the neutral axis in saturation: Rec. 709 / sRGB luminance (IEC 61966-2-1 matrix, row Y). */
 export const LUMINANCE_WEIGHTS: Rgb = [0.2126, 0.7152, 0.0722];
 
-/** The parts of a stock profile the inversion uses. */
+/**
+ * The parts of a stock profile the inversion uses. `exposureMatrix`, when present, is the change of primaries and
+ * `capturePrimaries` is not used; absent, everything renders as before.
+ */
 export type InversionProfile = Pick<
   ProfileDocument,
-  'curves' | 'crosstalk' | 'balance' | 'tone' | 'saturation' | 'capturePrimaries'
-> & {
-  /**
-   * Exposure-space colour matrix, the film's recorded exposures (linear) → linear sRGB, fitted by calibration; when
-   * present it is the change of primaries and `capturePrimaries` is not used. Absent: as before.
-   */
-  exposureMatrix?: Matrix3 | undefined;
-};
+  'curves' | 'crosstalk' | 'balance' | 'tone' | 'saturation' | 'capturePrimaries' | 'exposureMatrix'
+>;
 
 /**
  * Everything that determines how one frame inverts.

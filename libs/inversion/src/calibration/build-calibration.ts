@@ -322,6 +322,7 @@ export function fitCalibration(input: CalibrationMeasurements): CalibrationResul
       blue: { points: absolute(curves.blue) },
     },
     crosstalk: m.map((row) => row.map((v) => round(v, 6))) as Matrix3,
+    exposureMatrix: p.map((row) => row.map((v) => round(v, 6))) as Matrix3,
     balance: { ...ZERO_BALANCE },
     tone: { ...DEFAULT_TONE },
     saturation: 1,

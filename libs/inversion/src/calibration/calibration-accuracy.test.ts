@@ -89,7 +89,7 @@ const CASES: Case[] = [
 function renderedChartErrors(r: CalibrationResult, roll: CalibrationRoll, stops: number): number[] {
   const neg = roll.chart;
   const params = {
-    profile: { ...r.profileDocument, exposureMatrix: r.exposureMatrix },
+    profile: r.profileDocument,
     scanner: LINEAR_SCANNER,
     base: baseFromRegion(neg, LINEAR_SCANNER, roll.baseRegion).rgb,
     midLogExposure: meteredMidLogExposure(r.profileDocument, { stops }),
