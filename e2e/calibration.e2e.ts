@@ -76,6 +76,10 @@ describe('calibration', () => {
     await signIn('operator@clearbase.test');
 
     await page.getByTestId('nav-calibration').click();
+    // the stocks arrive after the page: open the list once it has them
+    await expect
+      .poll(async () => Number(await page.getByTestId('calibration-stock').getAttribute('data-options')))
+      .toBeGreaterThan(0);
     // the field's floating label lies over the empty select: the click reaches the field, which opens it
     await page.getByTestId('calibration-stock').click({ force: true });
     await page.getByRole('option').first().click();
