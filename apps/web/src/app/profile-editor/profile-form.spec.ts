@@ -88,6 +88,18 @@ describe('the profile form', () => {
     expect(readProfileForm(form.getRawValue(), wide).capturePrimaries).toBe('wide');
   });
 
+  it('keeps a calibrated profile’s exposure matrix through an edit', () => {
+    const exposureMatrix: ProfileDocument['exposureMatrix'] = [
+      [1.2, -0.15, -0.05],
+      [-0.1, 1.15, -0.05],
+      [0.02, -0.12, 1.1],
+    ];
+    const calibrated: ProfileDocument = { ...document, exposureMatrix };
+    const form = createProfileForm(calibrated);
+    form.controls.balance.controls.magentaGreen.setValue(4);
+    expect(readProfileForm(form.getRawValue(), calibrated).exposureMatrix).toEqual(exposureMatrix);
+  });
+
   it('carries an edit into the document and keeps the labels it does not edit', () => {
     const form = createProfileForm(document);
     form.controls.balance.controls.magentaGreen.setValue(4);

@@ -83,8 +83,9 @@ export function createProfileForm(document: ProfileDocument): ProfileForm {
 const num = (v: number | null | undefined): number => (typeof v === 'number' ? v : Number.NaN);
 
 /**
- * The profile document a form's value describes: the form's parameters over `base`'s labels (schema version, id,
- * version, stock and capture primaries, which the editor does not change). Blank cells become NaN, which the schema refuses.
+ * The profile document a form's value describes: the form's parameters over `base`, whose other fields (schema
+ * version, id, version, stock, capture primaries, exposure matrix) the editor does not change. Blank cells become
+ * NaN, which the schema refuses.
  * @example readProfileForm(form.getRawValue(), version.parameters).balance.magentaGreen
  */
 export function readProfileForm(
@@ -95,10 +96,9 @@ export function readProfileForm(
     value.curves[c].points.map((p) => ({ logExposure: num(p.logExposure), density: num(p.density) }));
   const row = (r: (number | null)[]) => [num(r[0]), num(r[1]), num(r[2])] as [number, number, number];
   return {
-    schemaVersion: base.schemaVersion,
-    id: base.id,
-    version: base.version,
-    stock: base.stock,
+    // everything the editor does not change (labels, capture primaries, a calibration's exposure matrix, and any
+    // field a later schema adds) is kept as it was
+    ...base,
     curves: {
       red: { points: points('red') },
       green: { points: points('green') },
@@ -116,8 +116,6 @@ export function readProfileForm(
       whitePoint: num(value.tone.whitePoint),
     },
     saturation: num(value.saturation),
-    // the film's capture primaries are the stock's, not something the editor changes
-    ...(base.capturePrimaries ? { capturePrimaries: base.capturePrimaries } : {}),
   };
 }
 

@@ -98,6 +98,20 @@ describe('the tuning preview', () => {
     rendersAsServer(roll, frame, { ...profile, capturePrimaries: 'wide' });
   });
 
+  it('renders a calibrated profile, with its exposure matrix, as the server does', () => {
+    // rows sum to 1, as the schema asks, so a grey stays grey
+    const calibrated = {
+      ...profile,
+      exposureMatrix: [
+        [1.2, -0.15, -0.05],
+        [-0.1, 1.15, -0.05],
+        [0.02, -0.12, 1.1],
+      ] as [[number, number, number], [number, number, number], [number, number, number]],
+    };
+    rendersAsServer(roll, frame, calibrated);
+    expect(previewProfile(calibrated, levels, roll, frame).exposureMatrix).toEqual(calibrated.exposureMatrix);
+  });
+
   it('renders moved black and white points as the server does, and moves them', () => {
     const deeper: Adjustments = { ...roll, blackPointStops: 1 / 2, whitePointStops: -1 / 3 };
     const dimmer: Adjustments = { ...frame, blackPointStops: 1 / 6, whitePointStops: 1 };

@@ -42,6 +42,8 @@ export function previewProfile(
     balance: addBalances(sum.balance, neutralBalance(levels), exposure),
     tone: summedTone(levels, sum),
     ...(profile.capturePrimaries ? { capturePrimaries: profile.capturePrimaries } : {}),
+    // a calibrated profile's change of primaries, which the server's render applies too
+    ...(profile.exposureMatrix ? { exposureMatrix: profile.exposureMatrix } : {}),
   };
 }
 
