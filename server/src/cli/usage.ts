@@ -22,10 +22,12 @@ export const USAGE = `Usage:
   clearbase calibrate --bracket FILE:STOPS[:x,y,w,h] ... --chart FILE --chart-region x,y,w,h | --chart-corners x1,y1,...,x4,y4
                       --out PROFILE.json [options]
       Builds a stock profile from a calibration roll: grey card frames bracketed over known stops and
-      one frame of the 24-patch chart. Prints γ, speed point and EI, crosstalk, chart ΔE00 and warnings.
+      one frame of the 24-patch chart. Prints γ, speed point and EI, crosstalk and the exposure matrix,
+      chart ΔE00 fitted and cross-validated (each patch left out of the fit in turn), and warnings.
       --bracket FILE:STOPS[:x,y,w,h]  a grey frame, its exposure in stops from the metered one (+1, -2/3)
                                  and, if the card moved, its own grey rectangle; repeat
       --chart FILE               the chart frame, normally exposed
+      --more-chart FILE[:STOPS]  another frame of the same chart, STOPS from the metered one (+2, -1); repeat
       --chart-region x,y,w,h     the chart, square in the frame, patch 1 at the top left
       --chart-corners x1,y1,...  its four corners: by patch 1, patch 6, patch 24, patch 19
       --grey-region x,y,w,h      grey rectangle on every grey frame without its own (default: the central half)
