@@ -1,10 +1,8 @@
 import type { OrderStatus, ReviewDecision } from '@clearbase/contracts';
-import sharp from 'sharp';
 import type { Response } from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { recordFile } from '../files/file-repository';
-import { createFileStore } from '../files/file-store';
 import { addTestCatalogue } from '../orders/order-test-fixtures';
+import { addRenderedFrame } from '../test-support/rendered-frame';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 import { zipEntries } from './zip-entries';
 
@@ -38,53 +36,14 @@ const binary = (res: Response, done: (err: Error | null, body: Buffer) => void) 
 
 /** A rendered frame with a preview and a JPEG output, and the operator's decision on it. */
 async function addFrame(rollId: number, index: number, decision: ReviewDecision | null): Promise<number> {
-  const store = createFileStore(t.config.dataDir);
-  const stored = await store.putBytes(
-    await sharp({ create: { width: 30, height: 20, channels: 3, background: '#6080a0' } })
-      .jpeg()
-      .toBuffer(),
-  );
-  const iso = t.clock.now().toISOString();
-  const file = await recordFile(t.db, {
-    sha256: stored.sha256,
-    size: stored.size,
-    mediaType: 'image/jpeg',
-    at: t.clock.now(),
+  return addRenderedFrame(t, {
+    rollId,
+    index,
+    size: { width: 30, height: 20 },
+    colour: '#6080a0',
+    decision,
+    reviewerId: operatorId,
   });
-  const frame = await t.db
-    .insertInto('frames')
-    .values({
-      roll_id: rollId,
-      frame_index: index,
-      source_file_id: file.id,
-      file_name: `scan-${index}.tif`,
-      width: 30,
-      height: 20,
-      bit_depth: 16,
-      base_region: null,
-      base_source: null,
-      base_measured: null,
-      adjustments: '{}',
-      status: 'done',
-      error: null,
-      rendered_at: iso,
-      created_at: iso,
-    })
-    .returning('id')
-    .executeTakeFirstOrThrow();
-  for (const kind of ['preview', 'jpeg'] as const) {
-    await t.db
-      .insertInto('frame_outputs')
-      .values({ frame_id: frame.id, kind, file_id: file.id, created_at: iso })
-      .execute();
-  }
-  if (decision) {
-    await t.db
-      .insertInto('frame_reviews')
-      .values({ frame_id: frame.id, decision, note: '', reviewed_by: operatorId, reviewed_at: iso })
-      .execute();
-  }
-  return frame.id;
 }
 
 /** An order of one roll with an approved, an excluded, a rejected and an unreviewed frame, in the given status. */

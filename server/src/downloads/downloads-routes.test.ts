@@ -1,9 +1,8 @@
 import request, { type Response } from 'supertest';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { recordFile } from '../files/file-repository';
-import { createFileStore } from '../files/file-store';
 import { addTestCatalogue } from '../orders/order-test-fixtures';
+import { addRenderedFrame } from '../test-support/rendered-frame';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 import { zipEntries } from './zip-entries';
 
@@ -39,60 +38,16 @@ async function addFinishedFrame(
   index: number,
   decision: 'approved' | 'excluded' | null = 'approved',
 ): Promise<number> {
-  const store = createFileStore(t.config.dataDir);
-  const jpeg = await sharp({
-    create: { width: 24, height: 16, channels: 3, background: { r: 40 * index, g: 120, b: 200 } },
-  })
-    .jpeg()
-    .toBuffer();
-  const stored = await store.putBytes(jpeg);
-  const at = t.clock.now();
-  const file = await recordFile(t.db, {
-    sha256: stored.sha256,
-    size: stored.size,
-    mediaType: 'image/jpeg',
-    at,
+  return addRenderedFrame(t, {
+    rollId,
+    index,
+    fileName: `scan-${String(index).padStart(2, '0')}.tif`,
+    size: { width: 24, height: 16 },
+    colour: { r: 40 * index, g: 120, b: 200 },
+    outputs: ['jpeg', 'preview'],
+    decision,
+    reviewerId: operatorId,
   });
-  const frame = await t.db
-    .insertInto('frames')
-    .values({
-      roll_id: rollId,
-      frame_index: index,
-      source_file_id: file.id,
-      file_name: `scan-${String(index).padStart(2, '0')}.tif`,
-      width: 24,
-      height: 16,
-      bit_depth: 16,
-      base_region: null,
-      base_source: null,
-      base_measured: null,
-      adjustments: '{}',
-      status: 'done',
-      error: null,
-      rendered_at: at.toISOString(),
-      created_at: at.toISOString(),
-    })
-    .returning('id')
-    .executeTakeFirstOrThrow();
-  for (const kind of ['jpeg', 'preview'] as const) {
-    await t.db
-      .insertInto('frame_outputs')
-      .values({ frame_id: frame.id, kind, file_id: file.id, created_at: at.toISOString() })
-      .execute();
-  }
-  if (decision) {
-    await t.db
-      .insertInto('frame_reviews')
-      .values({
-        frame_id: frame.id,
-        decision,
-        note: '',
-        reviewed_by: operatorId,
-        reviewed_at: at.toISOString(),
-      })
-      .execute();
-  }
-  return frame.id;
 }
 
 async function placeOrder(who: Client, rolls: number): Promise<{ orderId: number; rollIds: number[] }> {

@@ -2,15 +2,13 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pino } from 'pino';
-import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { listCaughtMail, readCaughtMail } from '../dev-mailbox/caught-mail-store';
 import { startMailCatcher, type MailCatcher } from '../dev-mailbox/mail-catcher';
-import { recordFile } from '../files/file-repository';
-import { createFileStore } from '../files/file-store';
 import { smtpTransport } from '../mail/mail-transport';
 import { createOutboxSender, type OutboxSender } from '../mail/outbox-sender';
 import { addTestCatalogue } from '../orders/order-test-fixtures';
+import { addRenderedFrame } from '../test-support/rendered-frame';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 
 const logger = pino({ level: 'silent' });
@@ -96,57 +94,15 @@ async function addFrame(
   index: number,
   decision: 'approved' | 'rejected' | null,
 ): Promise<number> {
-  const store = createFileStore(t.config.dataDir);
-  const stored = await store.putBytes(
-    await sharp({ create: { width: 8, height: 8, channels: 3, background: '#808080' } })
-      .jpeg()
-      .toBuffer(),
-  );
-  const at = t.clock.now().toISOString();
-  const file = await recordFile(t.db, {
-    sha256: stored.sha256,
-    size: stored.size,
-    mediaType: 'image/jpeg',
-    at: t.clock.now(),
+  return addRenderedFrame(t, {
+    rollId,
+    index,
+    fileName: `neg-${index}.tif`,
+    outputs: ['jpeg'],
+    decision,
+    note: decision === 'rejected' ? 'soft' : '',
+    reviewerId: operatorId,
   });
-  const frame = await t.db
-    .insertInto('frames')
-    .values({
-      roll_id: rollId,
-      frame_index: index,
-      source_file_id: file.id,
-      file_name: `neg-${index}.tif`,
-      width: 8,
-      height: 8,
-      bit_depth: 16,
-      base_region: null,
-      base_source: null,
-      base_measured: null,
-      adjustments: '{}',
-      status: 'done',
-      error: null,
-      rendered_at: at,
-      created_at: at,
-    })
-    .returning('id')
-    .executeTakeFirstOrThrow();
-  await t.db
-    .insertInto('frame_outputs')
-    .values({ frame_id: frame.id, kind: 'jpeg', file_id: file.id, created_at: at })
-    .execute();
-  if (decision) {
-    await t.db
-      .insertInto('frame_reviews')
-      .values({
-        frame_id: frame.id,
-        decision,
-        note: decision === 'rejected' ? 'soft' : '',
-        reviewed_by: operatorId,
-        reviewed_at: at,
-      })
-      .execute();
-  }
-  return frame.id;
 }
 
 describe('a placed order', () => {

@@ -1,9 +1,8 @@
 import type { ReviewDecision, User } from '@clearbase/contracts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { recordFile } from '../files/file-repository';
-import { createFileStore } from '../files/file-store';
 import { addTestCatalogue } from '../orders/order-test-fixtures';
 import { createOrdersService } from '../orders/orders-service';
+import { addRenderedFrame } from '../test-support/rendered-frame';
 import { addUser, createTestApp, type TestApp } from '../test-support/test-app';
 import { createMarkReadyService } from './mark-ready-service';
 
@@ -11,7 +10,6 @@ let t: TestApp;
 let customer: User;
 let operator: User;
 let stockId: number;
-let fileId: number;
 const ready = () => createMarkReadyService({ db: t.db, clock: t.clock, config: t.config });
 const orders = () => createOrdersService({ db: t.db, clock: t.clock, config: t.config });
 
@@ -30,15 +28,6 @@ beforeAll(async () => {
     role: 'operator',
   };
   ({ stockId } = await addTestCatalogue(t.db));
-  const stored = await createFileStore(t.config.dataDir).putBytes(Buffer.from('a rendered frame'));
-  fileId = (
-    await recordFile(t.db, {
-      sha256: stored.sha256,
-      size: stored.size,
-      mediaType: 'image/jpeg',
-      at: t.clock.now(),
-    })
-  ).id;
 });
 afterAll(() => t.close());
 
@@ -67,34 +56,14 @@ async function orderOfRolls(rolls: number): Promise<{ orderId: number; rollIds: 
 
 /** A rendered frame on the roll with the operator's decision, or none yet. */
 async function addFrame(rollId: number, index: number, decision: ReviewDecision | null): Promise<void> {
-  const at = t.clock.now().toISOString();
-  const frame = await t.db
-    .insertInto('frames')
-    .values({
-      roll_id: rollId,
-      frame_index: index,
-      source_file_id: fileId,
-      file_name: `neg-${index}.tif`,
-      width: 8,
-      height: 8,
-      bit_depth: 16,
-      base_region: null,
-      base_source: null,
-      base_measured: null,
-      adjustments: '{}',
-      status: 'done',
-      error: null,
-      rendered_at: at,
-      created_at: at,
-    })
-    .returning('id')
-    .executeTakeFirstOrThrow();
-  if (decision) {
-    await t.db
-      .insertInto('frame_reviews')
-      .values({ frame_id: frame.id, decision, note: '', reviewed_by: operator.id, reviewed_at: at })
-      .execute();
-  }
+  await addRenderedFrame(t, {
+    rollId,
+    index,
+    fileName: `neg-${index}.tif`,
+    outputs: [],
+    decision,
+    reviewerId: operator.id,
+  });
 }
 
 /** A payment of `amountMinor` the provider confirmed (starter price list: 20.00 a 135-36 C-41 roll). */

@@ -1,8 +1,7 @@
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { recordFile } from '../files/file-repository';
-import { createFileStore } from '../files/file-store';
 import { addTestCatalogue } from '../orders/order-test-fixtures';
+import { addRenderedFrame } from '../test-support/rendered-frame';
 import { addUser, createTestApp, signedIn, type Client, type TestApp } from '../test-support/test-app';
 
 let t: TestApp;
@@ -13,58 +12,16 @@ let orderId: number;
 const frameIds: number[] = [];
 
 /** A rendered frame with a 1200×800 preview and a JPEG output, written straight to the tables. */
-async function addRenderedFrame(
-  rollId: number,
-  index: number,
-  decision: 'approved' | 'excluded',
-  by: number,
-) {
-  const store = createFileStore(t.config.dataDir);
-  const stored = await store.putBytes(
-    await sharp({ create: { width: 1200, height: 800, channels: 3, background: '#5a7fa0' } })
-      .jpeg()
-      .toBuffer(),
-  );
-  const at = t.clock.now();
-  const file = await recordFile(t.db, {
-    sha256: stored.sha256,
-    size: stored.size,
-    mediaType: 'image/jpeg',
-    at,
+async function addFrameTo(rollId: number, index: number, decision: 'approved' | 'excluded', by: number) {
+  return addRenderedFrame(t, {
+    rollId,
+    index,
+    fileName: `f${index}.tif`,
+    size: { width: 1200, height: 800 },
+    colour: '#5a7fa0',
+    decision,
+    reviewerId: by,
   });
-  const iso = at.toISOString();
-  const frame = await t.db
-    .insertInto('frames')
-    .values({
-      roll_id: rollId,
-      frame_index: index,
-      source_file_id: file.id,
-      file_name: `f${index}.tif`,
-      width: 1200,
-      height: 800,
-      bit_depth: 16,
-      base_region: null,
-      base_source: null,
-      base_measured: null,
-      adjustments: '{}',
-      status: 'done',
-      error: null,
-      rendered_at: iso,
-      created_at: iso,
-    })
-    .returning('id')
-    .executeTakeFirstOrThrow();
-  for (const kind of ['preview', 'jpeg'] as const) {
-    await t.db
-      .insertInto('frame_outputs')
-      .values({ frame_id: frame.id, kind, file_id: file.id, created_at: iso })
-      .execute();
-  }
-  await t.db
-    .insertInto('frame_reviews')
-    .values({ frame_id: frame.id, decision, note: '', reviewed_by: by, reviewed_at: iso })
-    .execute();
-  return frame.id;
 }
 
 beforeAll(async () => {
@@ -81,8 +38,8 @@ beforeAll(async () => {
   const roll = await owner
     .post(`/api/orders/${orderId}/rolls`, { stockId, ei: 200, format: '135-36' })
     .expect(201);
-  frameIds.push(await addRenderedFrame(roll.body.id as number, 1, 'approved', operatorId));
-  frameIds.push(await addRenderedFrame(roll.body.id as number, 2, 'excluded', operatorId));
+  frameIds.push(await addFrameTo(roll.body.id as number, 1, 'approved', operatorId));
+  frameIds.push(await addFrameTo(roll.body.id as number, 2, 'excluded', operatorId));
   // ready and paid in full (starter price list: 20.00 a 135-36 C-41 roll), so its files are released
   const iso = t.clock.now().toISOString();
   await t.db.updateTable('orders').set({ status: 'ready' }).where('id', '=', orderId).execute();
