@@ -105,8 +105,33 @@ export function listCalibrations(
   return q.orderBy('calibrations.id', 'desc').execute();
 }
 
+/**
+ * A stored fit, with the figures older calibrations did not keep filled in as absent (null, empty, false), so every
+ * record answers the same shape.
+ */
+export function readStoredFit(json: string): CalibrationFit {
+  const stored = JSON.parse(json) as CalibrationFit;
+  const d = stored.deltaE;
+  return {
+    ...stored,
+    exposureMatrix: stored.exposureMatrix ?? null,
+    deltaE: {
+      ...d,
+      patches: d.patches.map((p) => ({
+        ...p,
+        crossValidated: p.crossValidated ?? null,
+        deltaECrossValidated: p.deltaECrossValidated ?? null,
+      })),
+      crossValidated: d.crossValidated ?? null,
+      neutral: d.neutral ?? null,
+      frames: d.frames ?? [],
+      memorisedChart: d.memorisedChart ?? false,
+    },
+  };
+}
+
 export function toCalibrationSummary(row: CalibrationListRow): CalibrationSummary {
-  const fit = JSON.parse(row.fitted) as CalibrationFit;
+  const fit = readStoredFit(row.fitted);
   const warnings = JSON.parse(row.warnings) as CalibrationWarning[];
   return {
     id: row.id,
@@ -129,7 +154,7 @@ export function toCalibration(row: CalibrationListRow): Calibration {
   return {
     ...toCalibrationSummary(row),
     inputs: JSON.parse(row.inputs) as CalibrationInputs,
-    fit: JSON.parse(row.fitted) as CalibrationFit,
+    fit: readStoredFit(row.fitted),
     residuals: JSON.parse(row.residuals) as CalibrationResiduals,
     warnings: JSON.parse(row.warnings) as CalibrationWarning[],
   };

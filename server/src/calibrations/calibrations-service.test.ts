@@ -240,6 +240,61 @@ describe('creating a calibration', () => {
     expect(await calibrations().load(made.id)).toEqual(made);
   });
 
+  it('answers the cross-validated ΔE00, the neutral row, the chart frame and the exposure matrix', async () => {
+    const e = made.fit.deltaE;
+    expect(e.crossValidated!.mean).toBeGreaterThan(0);
+    // a patch predicted by a fit that never saw it is no closer than the patches the fit saw
+    expect(e.crossValidated!.mean!).toBeGreaterThanOrEqual(e.after.mean! - 1e-9);
+    expect(e.crossValidated!.max!).toBeGreaterThanOrEqual(e.crossValidated!.mean!);
+    const counted = e.patches.filter((p) => p.inGamut && p.measured && p.deltaECrossValidated !== null);
+    expect(counted.length).toBeGreaterThan(12);
+    const mean = counted.reduce((sum, p) => sum + p.deltaECrossValidated!, 0) / counted.length;
+    expect(mean).toBeCloseTo(e.crossValidated!.mean!, 5);
+    counted.forEach((p) => expect(p.crossValidated).toHaveLength(3));
+    expect(e.neutral!.a).toBeGreaterThanOrEqual(0);
+    expect(e.neutral!.b).toBeGreaterThanOrEqual(0);
+    expect(e.frames).toHaveLength(1);
+    expect(e.frames[0]!.patchesUsed).toBeGreaterThan(12);
+    expect(e.frames[0]!.after.mean).toBeCloseTo(e.after.mean!, 5);
+    made.fit.exposureMatrix!.forEach((row) => expect(row[0] + row[1] + row[2]).toBeCloseTo(1, 5));
+    expect(e.memorisedChart).toBe(made.warnings.some((w) => w.code === 'memorised-chart'));
+  });
+
+  it('still reads a calibration stored before the cross-validated figures were kept', async () => {
+    const row = await t.db
+      .selectFrom('calibrations')
+      .select('fitted')
+      .where('id', '=', made.id)
+      .executeTakeFirstOrThrow();
+    const older = JSON.parse(row.fitted) as Record<string, unknown> & { deltaE: Record<string, unknown> };
+    delete older['exposureMatrix'];
+    for (const key of ['crossValidated', 'neutral', 'frames', 'memorisedChart']) delete older.deltaE[key];
+    older.deltaE['patches'] = (older.deltaE['patches'] as Record<string, unknown>[]).map(
+      ({ crossValidated: _c, deltaECrossValidated: _d, ...p }) => p,
+    );
+    await t.db
+      .updateTable('calibrations')
+      .set({ fitted: JSON.stringify(older) })
+      .where('id', '=', made.id)
+      .execute();
+    try {
+      const loaded = await calibrations().load(made.id);
+      expect(loaded.fit.exposureMatrix).toBeNull();
+      expect(loaded.fit.deltaE).toMatchObject({
+        crossValidated: null,
+        neutral: null,
+        frames: [],
+        memorisedChart: false,
+      });
+      expect(
+        loaded.fit.deltaE.patches.every((p) => p.crossValidated === null && p.deltaECrossValidated === null),
+      ).toBe(true);
+      expect(loaded.fit.deltaE.after).toEqual(made.fit.deltaE.after);
+    } finally {
+      await t.db.updateTable('calibrations').set({ fitted: row.fitted }).where('id', '=', made.id).execute();
+    }
+  });
+
   it('keeps each frame in the store, found by its number, and names the frames it has for any other', async () => {
     const chart = received.uploads.at(-1)!;
     const file = await calibrations().frameFile(made.id, 16);

@@ -1,5 +1,6 @@
 import type { CalibrationFit, CalibrationResiduals, FittedCurve } from '@clearbase/contracts';
 import {
+  CROSS_VALIDATION_GAP_LIMIT,
   LOG_EXPOSURE_PER_STOP,
   multiply3,
   type CalibrationResult,
@@ -11,6 +12,11 @@ import { clampRgb, formatHex } from 'culori';
 
 const round = (v: number, digits = 6) => Math.round(v * 10 ** digits) / 10 ** digits;
 const finiteOrNull = (v: number) => (Number.isFinite(v) ? round(v) : null);
+const summaryOf = (s: { mean: number; max: number }) => ({
+  mean: finiteOrNull(s.mean),
+  max: finiteOrNull(s.max),
+});
+const roundRgb = (v: Rgb) => v.map((x) => round(x)) as Rgb;
 
 function curveOf(f: CharacteristicCurveFit): FittedCurve {
   const { curve: _curve, ...rest } = f;
@@ -51,6 +57,7 @@ export function describeFit(
     balance: { frames: r.balance.frames, mean: r.balance.mean },
     spread: r.spread,
     crosstalk: m,
+    exposureMatrix: r.exposureMatrix.map((row) => roundRgb(row)) as CalibrationFit['crosstalk'],
     chartExposureStops: r.chartExposureStops,
     deltaE: {
       patches: r.deltaE.patches.map((p) => ({
@@ -60,13 +67,24 @@ export function describeFit(
         after: p.measured ? p.after : null,
         deltaEBefore: finiteOrNull(p.deltaEBefore),
         deltaEAfter: finiteOrNull(p.deltaEAfter),
+        crossValidated: Number.isFinite(p.deltaECrossValidated) ? roundRgb(p.crossValidated) : null,
+        deltaECrossValidated: finiteOrNull(p.deltaECrossValidated),
         inGamut: p.inGamut,
         measured: p.measured,
         referenceHex: labHex(p.reference),
         afterHex: p.measured ? labHex(p.after) : null,
       })),
-      before: { mean: finiteOrNull(r.deltaE.before.mean), max: finiteOrNull(r.deltaE.before.max) },
-      after: { mean: finiteOrNull(r.deltaE.after.mean), max: finiteOrNull(r.deltaE.after.max) },
+      before: summaryOf(r.deltaE.before),
+      after: summaryOf(r.deltaE.after),
+      crossValidated: summaryOf(r.deltaE.crossValidated),
+      neutral: { a: round(r.deltaE.neutral.a), b: round(r.deltaE.neutral.b) },
+      frames: r.deltaE.frames.map((f) => ({
+        exposureStops: round(f.exposureStops),
+        labelledStops: f.labelledStops ?? null,
+        patchesUsed: f.patchesUsed,
+        after: summaryOf(f.after),
+      })),
+      memorisedChart: r.deltaE.crossValidated.mean - r.deltaE.after.mean > CROSS_VALIDATION_GAP_LIMIT,
     },
     base: { rgb: base, source: baseSource },
     usedFrames: r.usedFrames,

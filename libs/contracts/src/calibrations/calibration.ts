@@ -105,6 +105,18 @@ export const fittedCurveSchema = z.object({
 });
 export type FittedCurve = z.infer<typeof fittedCurveSchema>;
 
+const summarySchema = z.object({ mean: z.number().nullable(), max: z.number().nullable() });
+const matrixSchema = z.tuple([rgb, rgb, rgb]);
+
+/** One chart frame's figures: its exposure found from its neutral row, the patches used and ΔE00 with the profile. */
+export const chartFrameDeltaESchema = z.object({
+  exposureStops: z.number(),
+  labelledStops: z.number().nullable(),
+  patchesUsed: z.number().int().min(0),
+  after: summarySchema,
+});
+export type ChartFrameDeltaE = z.infer<typeof chartFrameDeltaESchema>;
+
 const channelsOf = <T extends z.ZodType>(s: T) => z.object({ red: s, green: s, blue: s });
 
 /** One chart patch's colour accuracy in reference rendering, with sRGB swatches of reference and result. */
@@ -116,6 +128,9 @@ export const patchDeltaESchema = z.object({
   after: rgb.nullable(),
   deltaEBefore: z.number().nullable(),
   deltaEAfter: z.number().nullable(),
+  /** L*a*b* (D65) reproduced by matrices fitted without this patch (leave-one-patch-out); null when not usable or in older calibrations. */
+  crossValidated: rgb.nullable(),
+  deltaECrossValidated: z.number().nullable(),
   inGamut: z.boolean(),
   measured: z.boolean(),
   /** #rrggbb of the reference and of the result (clipped to sRGB). */
@@ -147,12 +162,23 @@ export const calibrationFitSchema = z.object({
     mean: balanceSchema,
   }),
   spread: z.object({ range: balanceSchema, standardDeviation: balanceSchema, largestRange: z.number() }),
-  crosstalk: z.tuple([rgb, rgb, rgb]),
+  crosstalk: matrixSchema,
+  /** Film exposures to linear sRGB, rows summing to 1; null in calibrations made before it was fitted. */
+  exposureMatrix: matrixSchema.nullable(),
   chartExposureStops: z.number(),
   deltaE: z.object({
     patches: z.array(patchDeltaESchema),
-    before: z.object({ mean: z.number().nullable(), max: z.number().nullable() }),
-    after: z.object({ mean: z.number().nullable(), max: z.number().nullable() }),
+    before: summarySchema,
+    /** Training figures: the profile against the patches it was fitted to. */
+    after: summarySchema,
+    /** Each patch predicted by a fit without it; null in older calibrations. */
+    crossValidated: summarySchema.nullable(),
+    /** Largest |Δa*| and |Δb*| over the neutral row with the profile; null in older calibrations. */
+    neutral: z.object({ a: z.number(), b: z.number() }).nullable(),
+    /** Every chart frame, the metered one first; empty in older calibrations. */
+    frames: z.array(chartFrameDeltaESchema),
+    /** The cross-validated mean lies more than the limit above the training mean: the matrices memorise the chart. */
+    memorisedChart: z.boolean(),
   }),
   base: z.object({ rgb, source: z.enum(['leader', 'frames']) }),
   usedFrames: z.array(z.number().int()),

@@ -12,6 +12,8 @@ const deltaE: CalibrationFit['deltaE'] = {
       after: [37.5, 13.9, 14.5],
       deltaEBefore: 2.412,
       deltaEAfter: 0.356,
+      crossValidated: [37.2, 14.4, 15.0],
+      deltaECrossValidated: 0.912,
       inGamut: true,
       measured: true,
       referenceHex: '#735244',
@@ -24,6 +26,8 @@ const deltaE: CalibrationFit['deltaE'] = {
       after: [52.0, -22.1, -25.2],
       deltaEBefore: 5.74,
       deltaEAfter: 4.0,
+      crossValidated: [52.4, -20.9, -24.6],
+      deltaECrossValidated: 4.6,
       inGamut: false,
       measured: true,
       referenceHex: '#008ca8',
@@ -36,6 +40,8 @@ const deltaE: CalibrationFit['deltaE'] = {
       after: null,
       deltaEBefore: null,
       deltaEAfter: null,
+      crossValidated: null,
+      deltaECrossValidated: null,
       inGamut: true,
       measured: false,
       referenceHex: '#343434',
@@ -44,6 +50,10 @@ const deltaE: CalibrationFit['deltaE'] = {
   ],
   before: { mean: 2.412, max: 2.412 },
   after: { mean: 0.356, max: 0.356 },
+  crossValidated: { mean: 0.912, max: 0.912 },
+  neutral: { a: 0.3, b: 0.4 },
+  frames: [{ exposureStops: 0.02, labelledStops: null, patchesUsed: 2, after: { mean: 0.356, max: 0.356 } }],
+  memorisedChart: false,
 };
 
 function render() {
