@@ -5,8 +5,17 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { profileForStock, TINTLINE_400 } from '@clearbase/inversion';
+import {
+  exposeNegative,
+  LINEAR_SCANNER,
+  MID_GREY,
+  POLYCLEAR_200,
+  profileForStock,
+  srgbDecode,
+  TINTLINE_400,
+} from '@clearbase/inversion';
 import { readPositiveMetadata } from '../imaging/index';
+import { writeNegativeTiff } from './synth-command';
 
 const BIN = fileURLToPath(new URL('../../../bin/clearbase.mjs', import.meta.url));
 
@@ -229,5 +238,122 @@ describe('clearbase synth, invert and profile validate', () => {
     expect(bad.stderr).toMatch(/^bad\.json: stock\.name: /m);
     expect(bad.stderr).toMatch(/^bad\.json: curves\.red\.points\[2\]\.density: /m);
     expect(bad.stderr).toMatch(/^bad\.json: crosstalk: /m);
+  });
+});
+
+describe('clearbase invert --exposure', () => {
+  let dir: string;
+  beforeAll(async () => {
+    dir = await mkdtemp(join(tmpdir(), 'clearbase-exposure-'));
+    await writeFile(join(dir, 'stock.json'), JSON.stringify(profileForStock(POLYCLEAR_200)));
+    // Grey cards filling the frame between unexposed rebate strips: 18 % and one stop darker (9 %).
+    for (const [name, reflectance] of [
+      ['grey', MID_GREY],
+      ['dark', MID_GREY / 2],
+    ] as const) {
+      const scene = { width: 64, height: 48, rgb: new Float32Array(64 * 48 * 3).fill(reflectance) };
+      const negative = exposeNegative(scene, { stock: POLYCLEAR_200, scanner: LINEAR_SCANNER, rebate: 8 });
+      await writeNegativeTiff(join(dir, `${name}.tif`), negative.data, negative.width, negative.height);
+    }
+  }, 60_000);
+  afterAll(async () => {
+    await rm(dir, { recursive: true, force: true });
+  });
+
+  /** Inverts with the reference rendering into 16-bit PNG; answers each frame's JSON line and its centre's linear grey. */
+  async function invert(files: string[], out: string, ...options: string[]) {
+    const run = await runCli(
+      [
+        'invert',
+        ...files,
+        '--out',
+        out,
+        '--profile',
+        'stock.json',
+        '--render',
+        'reference',
+        '--format',
+        'png16',
+        '--json',
+        ...options,
+      ],
+      dir,
+    );
+    expect(run.stderr).toBe('');
+    expect(run.code).toBe(0);
+    const lines = run.stdout
+      .trim()
+      .split('\n')
+      .map(
+        (l) =>
+          JSON.parse(l) as {
+            file: string;
+            output: string;
+            exposure: { midLogExposure: number; source: string; stops: number };
+          },
+      );
+    lines.sort((a, b) => files.indexOf(a.file) - files.indexOf(b.file));
+    const greys = await Promise.all(
+      lines.map(async (line) => {
+        const { data } = await sharp(join(dir, line.output))
+          .extract({ left: 24, top: 24, width: 16, height: 16 })
+          .raw()
+          .toBuffer({ resolveWithObject: true });
+        const pixels = new Uint16Array(data.buffer, data.byteOffset, data.byteLength / 2);
+        let sum = 0;
+        for (let i = 1; i < pixels.length; i += 3) sum += srgbDecode(pixels[i]! / 65535);
+        return sum / (pixels.length / 3);
+      }),
+    );
+    return { lines, greys };
+  }
+
+  it('prints a grey card shot at the meter’s reading as 18 % grey at the metered exposure', async () => {
+    const { lines, greys } = await invert(['grey.tif'], 'metered', '--exposure', 'metered');
+    expect(greys[0]).toBeCloseTo(MID_GREY, 2);
+    expect(lines[0]!.exposure).toEqual({
+      midLogExposure: Number(Math.log10(MID_GREY).toFixed(6)),
+      source: 'metered',
+      stops: 0,
+    });
+  });
+
+  it('prints one stop lighter with --exposure-stops 1', async () => {
+    const { lines, greys } = await invert(
+      ['grey.tif'],
+      'lighter',
+      '--exposure',
+      'metered',
+      '--exposure-stops',
+      '1',
+    );
+    expect(greys[0]! / MID_GREY).toBeCloseTo(2, 1);
+    expect(lines[0]!.exposure.stops).toBe(1);
+    expect(lines[0]!.exposure.midLogExposure).toBeCloseTo(Math.log10(MID_GREY) - Math.log10(2), 5);
+  });
+
+  it('keeps a darker card a stop darker at the metered exposure, where each frame’s levels lift it towards mid grey', async () => {
+    const metered = await invert(['grey.tif', 'dark.tif'], 'fixed', '--exposure', 'metered', '--roll');
+    expect(metered.greys[1]! / metered.greys[0]!).toBeCloseTo(0.5, 1);
+    expect(metered.lines.map((l) => l.exposure.source)).toEqual(['metered', 'metered']);
+    const auto = await invert(['grey.tif', 'dark.tif'], 'auto');
+    // Each frame's levels (measured with the rebate in view) lift the dark card most of the way to mid grey.
+    expect(auto.greys[1]! / auto.greys[0]!).toBeGreaterThan(0.75);
+    expect(auto.lines.map((l) => l.exposure.source)).toEqual(['frame-levels', 'frame-levels']);
+    const roll = await invert(['grey.tif', 'dark.tif'], 'roll', '--roll');
+    expect(roll.lines.map((l) => l.exposure.source)).toEqual(['roll-levels', 'roll-levels']);
+  });
+
+  it('refuses stops off the 1/6-stop steps or beyond 6 stops, and an unknown exposure, with exit 2', async () => {
+    for (const stops of ['0.1', '7', 'one']) {
+      const run = await runCli(['invert', 'grey.tif', '--out', 'x', '--exposure-stops', stops], dir);
+      expect(run.code).toBe(2);
+      expect(run.stderr).toContain(
+        `Expected a multiple of 1/6 stop between -6 and 6 for --exposure-stops but received ${stops}.`,
+      );
+    }
+    const run = await runCli(['invert', 'grey.tif', '--out', 'x', '--exposure', 'bright'], dir);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toContain('Expected auto or metered for --exposure but received bright.');
   });
 });

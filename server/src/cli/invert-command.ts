@@ -56,6 +56,8 @@ export async function invertCommand(args: string[]): Promise<number> {
     scanner: { type: 'string' },
     base: { type: 'string', default: 'auto' },
     roll: { type: 'boolean', default: false },
+    exposure: { type: 'string', default: 'auto' },
+    'exposure-stops': { type: 'string', default: '0' },
     format: { type: 'string', default: 'jpeg' },
     render: { type: 'string', default: 'print' },
     quality: { type: 'string' },
@@ -71,6 +73,10 @@ export async function invertCommand(args: string[]): Promise<number> {
     throw new UsageError(`Expected print or reference for --render but received ${values.render}.`);
   }
   const base = parseBase(values.base);
+  if (values.exposure !== 'auto' && values.exposure !== 'metered') {
+    throw new UsageError(`Expected auto or metered for --exposure but received ${values.exposure}.`);
+  }
+  const exposure = { mode: values.exposure, stops: parseStops(values['exposure-stops']) } as const;
   const threads = values.threads === undefined ? undefined : integerOption('threads', values.threads, 1, 256);
   const quality = values.quality === undefined ? undefined : integerOption('quality', values.quality, 1, 100);
   const profile: ProfileDocument = values.profile
@@ -88,6 +94,7 @@ export async function invertCommand(args: string[]): Promise<number> {
     scanner,
     base,
     render: values.render,
+    exposure,
     format,
     ...(quality ? { quality } : {}),
   };
@@ -171,11 +178,35 @@ async function measureRoll(
   if (todo.length) {
     const roll = rollBase(todo.map((index) => bases[index]!));
     settings.base = roll;
-    settings.levels = rollLevels(
-      todo.map((index) => measureLevels(samples[index]!, settings, roll, { step: 1 })),
-    ).roll;
+    if (settings.exposure?.mode !== 'metered')
+      settings.levels = rollLevels(
+        todo.map((index) => measureLevels(samples[index]!, settings, roll, { step: 1 })),
+      ).roll;
   }
   return kept;
+}
+
+// Exposure steps of the command line: as the roll and frame controls (1/6 stop, up to 6 stops either way).
+const STOPS_PER_STEP = 6,
+  MAX_EXPOSURE_STOPS = 6;
+
+/** `--exposure-stops N`: a multiple of 1/6 stop within ±6, written as a decimal (0.5) or a fraction (-2/3). */
+function parseStops(raw: string): number {
+  const match = /^([+-]?)(\d+(?:\.\d+)?)(?:\/(\d+))?$/.exec(raw.trim());
+  const value = match
+    ? (match[1] === '-' ? -1 : 1) * (Number(match[2]) / (match[3] ? Number(match[3]) : 1))
+    : Number.NaN;
+  const steps = value * STOPS_PER_STEP;
+  if (
+    !Number.isFinite(value) ||
+    Math.abs(steps - Math.round(steps)) > 1e-6 ||
+    Math.abs(value) > MAX_EXPOSURE_STOPS
+  ) {
+    throw new UsageError(
+      `Expected a multiple of 1/6 stop between -${MAX_EXPOSURE_STOPS} and ${MAX_EXPOSURE_STOPS} for --exposure-stops but received ${raw}.`,
+    );
+  }
+  return Math.round(steps) / STOPS_PER_STEP;
 }
 
 function parseBase(raw: string): 'auto' | Region {
@@ -227,6 +258,11 @@ function reporter(total: number, json: boolean) {
           confidence: r.base.confidence,
         },
         warnings: r.warnings,
+        exposure: {
+          midLogExposure: Number(r.exposure.midLogExposure.toFixed(6)),
+          source: r.exposure.source,
+          stops: Number(r.exposure.stops.toFixed(6)),
+        },
         ms: r.ms,
       };
       if (json) process.stdout.write(`${JSON.stringify(line)}\n`);

@@ -6,10 +6,14 @@ export const USAGE = `Usage:
       --scanner S.json           scanner profile document (default: linear counts, no black level)
       --base auto|x,y,w,h        film base: detect it, or sample this rectangle in pixels (default auto)
       --roll                     treat the files as one roll: shared roll base and roll-wide levels
+      --exposure auto|metered    mid grey from the levels (each frame's, or the roll's with --roll), or fixed at
+                                 the profile's metered 18 % grey, with no automatic levels (default auto)
+      --exposure-stops N         more exposure printed, in steps of 1/6 stop within ±6 (+1, -2/3, 0.5; + lighter)
       --format jpeg|tiff16|png16 output format (default jpeg)
       --render print|reference   print-like tone curve, or plain reference rendering (default print)
       --threads N                worker threads (default: all cores)
-      --json                     print one JSON line per frame on stdout
+      --json                     print one JSON line per frame on stdout, with the exposure used: the log
+                                 exposure printed as mid grey (stops included), its source and the stops
 
   clearbase synth --out DIR [--frames N] [--stock NAME] [--scene SCENE] [--width W] [--height H]
       Writes demo negatives (16-bit TIFF) made with the forward film model. Stocks:

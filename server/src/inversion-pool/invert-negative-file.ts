@@ -4,7 +4,9 @@ import {
   compileInversion,
   levelsToTone,
   measureFrameLevels,
+  meteredMidLogExposure,
   neutralBalance,
+  stopsToLogExposure,
   type FilmBase,
   type FrameLevels,
   type InversionParams,
@@ -55,6 +57,11 @@ export interface FrameSettings {
   base: 'auto' | Region | FilmBase;
   /** Roll-wide levels measured against `base`; per frame when absent. */
   levels?: FrameLevels;
+  /**
+   * Where E_mid comes from: the levels (`auto`, the default) or the profile's metered grey (`metered`, no levels);
+   * `stops` more exposure printed either way (+ lighter, default 0).
+   */
+  exposure?: { mode: 'auto' | 'metered'; stops: number };
   render: 'print' | 'reference';
   format: PositiveFormat;
   quality?: number;
@@ -66,7 +73,15 @@ export interface FrameResult {
   output: string;
   base: FilmBase;
   warnings: string[];
+  exposure: ExposureUsed;
   ms: number;
+}
+
+/** The exposure a frame was printed at: the log exposure printed as mid grey (stops included) and its source. */
+export interface ExposureUsed {
+  midLogExposure: number;
+  source: 'frame-levels' | 'roll-levels' | 'metered';
+  stops: number;
 }
 
 /** The frame's own levels (E_mid, channel means, black and white points) against `base`. */
@@ -111,6 +126,25 @@ export function inversionParams(
   };
 }
 
+/**
+ * Inversion parameters at the profile's metered exposure (`meteredMidLogExposure`): no levels, so the profile's own
+ * tone and balance, no grey-world balance.
+ */
+export function meteredInversionParams(
+  settings: Pick<FrameSettings, 'profile' | 'scanner' | 'render'>,
+  base: FilmBase,
+  outputBits: 8 | 16,
+): InversionParams {
+  return {
+    profile: settings.profile,
+    scanner: settings.scanner,
+    base: base.rgb,
+    midLogExposure: meteredMidLogExposure(settings.profile),
+    render: settings.render,
+    outputBits,
+  };
+}
+
 /** Decodes a negative straight into one of the pool's shared buffers (give it back with `pool.buffers.release`). */
 export function readPooledNegative(
   pool: InversionPool,
@@ -145,22 +179,37 @@ export async function invertNegativeFile(
     ? null
     : measureWhileReading(settings.scanner, {
         detectBase: settings.base === 'auto',
-        sampleLevels: !settings.levels,
+        sampleLevels: !settings.levels && settings.exposure?.mode !== 'metered',
       });
   const negative = decoded ?? (await readPooledNegative(pool, file, settings, reading?.onRows));
   const outKind = settings.format === 'jpeg' ? Uint8Array : Uint16Array;
   const pixels = pool.buffers.acquire(outKind, negative.data.length);
   let measured: ReturnType<typeof measureFilmBase>;
+  let exposure: ExposureUsed;
   try {
     measured = measureFilmBase(negative, settings, reading ?? undefined);
-    const levels =
-      settings.levels ??
-      (reading
-        ? measureLevels(reading.levelSample(), settings, measured.base, { step: 1 })
-        : measureLevels(negative, settings, measured.base));
-    const plan = compileInversion(
-      inversionParams(settings, measured.base, levels, outKind === Uint8Array ? 8 : 16),
-    );
+    const outputBits = outKind === Uint8Array ? 8 : 16;
+    const stops = settings.exposure?.stops ?? 0;
+    let params: InversionParams;
+    if (settings.exposure?.mode === 'metered') {
+      params = meteredInversionParams(settings, measured.base, outputBits);
+      exposure = { midLogExposure: params.midLogExposure, source: 'metered', stops };
+    } else {
+      const levels =
+        settings.levels ??
+        (reading
+          ? measureLevels(reading.levelSample(), settings, measured.base, { step: 1 })
+          : measureLevels(negative, settings, measured.base));
+      params = inversionParams(settings, measured.base, levels, outputBits);
+      exposure = {
+        midLogExposure: levels.midLogExposure,
+        source: settings.levels ? 'roll-levels' : 'frame-levels',
+        stops,
+      };
+    }
+    // Positive stops print more exposure: the log exposure printed as mid grey moves down by them.
+    exposure.midLogExposure -= stopsToLogExposure(stops);
+    const plan = compileInversion({ ...params, exposureStops: stops });
     const metadata: PositiveMetadata = {
       stock: settings.profile.stock.name,
       profileVersion: `${settings.profile.id}@${settings.profile.version}`,
@@ -178,6 +227,7 @@ export async function invertNegativeFile(
     output,
     base: measured.base,
     warnings: [...negative.warnings, ...measured.warnings],
+    exposure,
     ms: Math.round(performance.now() - start),
   };
 }
