@@ -95,9 +95,9 @@ beforeAll(() => {
 });
 
 describe('calibration report PDF', () => {
-  it('is three pages when the warnings fit on the first', async () => {
+  it('is four pages when the warnings fit on the first', async () => {
     const pdf = await reportOf(calibration);
-    expect(pageCount(pdf)).toBe(3);
+    expect(pageCount(pdf)).toBe(4);
     expect(textOf(pdf)).toContain('None.');
   });
 
@@ -109,7 +109,7 @@ describe('calibration report PDF', () => {
       frame: i,
     }));
     const pdf = await reportOf({ ...calibration, warnings, warningCount: 20 });
-    expect(pageCount(pdf)).toBeGreaterThan(3);
+    expect(pageCount(pdf)).toBeGreaterThan(4);
     const text = textOf(pdf);
     for (let i = 1; i <= 60; i++) expect(text).toContain(`(number ${i}).`);
     expect(text).toContain('Warnings (60), continued');
@@ -127,5 +127,74 @@ describe('calibration report PDF', () => {
     const pdf = await reportOf(calibration);
     expect(Math.min(...textBaselines(pdf))).toBeGreaterThanOrEqual(margin);
     expect(Math.max(...rectangleBottoms(pdf))).toBeLessThanOrEqual(pageHeight - margin);
+  });
+
+  it('gives the training and cross-validated ΔE00, the neutral row, the chart frame and both matrices', async () => {
+    const text = textOf(await reportOf(calibration));
+    const e = calibration.fit.deltaE;
+    expect(text).toContain(
+      `Training (the patches the fit saw): mean ${e.after.mean!.toFixed(2)}, max ${e.after.max!.toFixed(2)}`,
+    );
+    expect(text).toContain(
+      `Cross-validated (each patch by a fit without it): mean ${e.crossValidated!.mean!.toFixed(2)}, max ${e.crossValidated!.max!.toFixed(2)}`,
+    );
+    expect(text).toContain(`Density only, no colour matrix: mean ${e.before.mean!.toFixed(2)}`);
+    expect(text).toContain(`a*| ${e.neutral!.a.toFixed(2)}`);
+    expect(text).toContain(`Chart frame 1: exposure`);
+    const rowOf = (row: readonly number[]) => row.map((v) => v.toFixed(4).padStart(8)).join('   ');
+    for (const row of calibration.fit.crosstalk) expect(text).toContain(rowOf(row));
+    for (const row of calibration.fit.exposureMatrix!) expect(text).toContain(rowOf(row));
+    expect(text).toContain('E00 cross-val.');
+    for (const p of e.patches.filter((q) => q.deltaECrossValidated !== null))
+      expect(text).toContain(p.deltaECrossValidated!.toFixed(2));
+  });
+
+  it('says when the colour fit memorises the chart', async () => {
+    const memorised = {
+      ...calibration,
+      fit: { ...calibration.fit, deltaE: { ...calibration.fit.deltaE, memorisedChart: true } },
+    };
+    expect(textOf(await reportOf(memorised))).toContain('the colour fit memorises the chart');
+    expect(textOf(await reportOf(calibration))).not.toContain('the colour fit memorises the chart');
+  });
+
+  it('joins every measured patch to its result in the a*b* plane, on a last page of its own', async () => {
+    const pdf = await reportOf(calibration);
+    const text = textOf(pdf);
+    expect(text).toContain('Chart patches in the a*b* plane: published colour against the result');
+    expect(text.lastIndexOf('a* (green')).toBeGreaterThan(text.indexOf('Mean over in-gamut patches'));
+    // the joining lines are the report's only strokes in mid grey (#555555)
+    const joins = pdf.match(/0\.3333333333333333 0\.3333333333333333 0\.3333333333333333 SCN/g)?.length ?? 0;
+    expect(joins).toBe(calibration.fit.deltaE.patches.filter((p) => p.after).length);
+    expect(Math.max(...rectangleBottoms(pdf))).toBeLessThanOrEqual(pageHeight - margin);
+  });
+
+  it('writes a calibration kept before the cross-validated figures, marking them absent', async () => {
+    const older: Calibration = {
+      ...calibration,
+      fit: {
+        ...calibration.fit,
+        exposureMatrix: null,
+        deltaE: {
+          ...calibration.fit.deltaE,
+          patches: calibration.fit.deltaE.patches.map((p) => ({
+            ...p,
+            crossValidated: null,
+            deltaECrossValidated: null,
+          })),
+          crossValidated: null,
+          neutral: null,
+          frames: [],
+          memorisedChart: false,
+        },
+      },
+    };
+    const pdf = await reportOf(older);
+    expect(pageCount(pdf)).toBe(4);
+    const text = textOf(pdf);
+    expect(text).toContain('Not kept in this calibration.');
+    // absent figures are written as a dash, never as a number
+    expect(text).toMatch(/Cross-validated \(each patch by a fit without it\): mean \D*, max \D*Neutral row/);
+    expect(text).not.toContain('Chart frame 1');
   });
 });

@@ -1,6 +1,7 @@
-import type { Calibration, FittedCurve } from '@clearbase/contracts';
+import type { Calibration, CalibrationFit, FittedCurve } from '@clearbase/contracts';
 import type { Writable } from 'node:stream';
 import PDFDocument from 'pdfkit';
+import { abPlanePlot } from './ab-plane-plot';
 
 /** Options of the report. */
 export interface CalibrationReportOptions {
@@ -146,13 +147,36 @@ function summaryPage(doc: Doc, c: Calibration): void {
     );
   flow.line(`Largest spread: ${f(fit.spread.largestRange, 1)} printer points`, 9, true, 24);
 
-  flow.heading('Crosstalk matrix and chart', 13 * 3);
-  for (const row of fit.crosstalk)
-    flow.line(row.map((v) => v.toFixed(4).padStart(8)).join('   '), 9, false, 13);
-  flow.y += 6;
+  const e = fit.deltaE;
+  const matrices: [string, CalibrationFit['crosstalk'] | null][] = [
+    ['Density crosstalk (D\' = M·D)', fit.crosstalk],
+    ['Exposure matrix (film exposures to linear sRGB)', fit.exposureMatrix],
+  ];
+  for (const [title, m] of matrices) {
+    flow.heading(title, 13 * 3);
+    if (!m) flow.line('Not kept in this calibration.', 9, false, 13);
+    else for (const row of m) flow.line(row.map((v) => v.toFixed(4).padStart(8)).join('   '), 9, false, 13);
+    flow.y += 6;
+  }
+  flow.heading('Chart ΔE00 (in-gamut patches)', 14 * 3);
+  flow.line(`Density only, no colour matrix: mean ${f(e.before.mean)}, max ${f(e.before.max)}`);
+  flow.line(`Training (the patches the fit saw): mean ${f(e.after.mean)}, max ${f(e.after.max)}`);
   flow.line(
-    `Chart ΔE00 (in gamut): before the matrix mean ${f(fit.deltaE.before.mean)} max ${f(fit.deltaE.before.max)}; after mean ${f(fit.deltaE.after.mean)} max ${f(fit.deltaE.after.max)}`,
+    `Cross-validated (each patch by a fit without it): mean ${f(e.crossValidated?.mean)}, max ${f(e.crossValidated?.max)}`,
+    9,
+    true,
   );
+  if (e.memorisedChart)
+    flow.line(
+      'The cross-validated mean lies well above the training one: the colour fit memorises the chart.',
+      9,
+      true,
+    );
+  flow.line(`Neutral row with the profile: largest |Δa*| ${f(e.neutral?.a)}, |Δb*| ${f(e.neutral?.b)}`);
+  for (const [k, fr] of e.frames.entries())
+    flow.line(
+      `Chart frame ${k + 1}: exposure ${signed(fr.exposureStops, 2)} stops${fr.labelledStops === null ? '' : ` (shot at ${signed(fr.labelledStops, 2)})`}, ${fr.patchesUsed} patches used, ΔE00 mean ${f(fr.after.mean)} max ${f(fr.after.max)}`,
+    );
   flow.line(`Chart exposure from its neutral row: ${signed(fit.chartExposureStops, 2)} stops`, 9, false, 24);
 
   const width = PAGE.width - 2 * MARGIN;
@@ -259,11 +283,12 @@ function deltaEPage(doc: Doc, c: Calibration): void {
   const cols = {
     n: MARGIN,
     name: MARGIN + 24,
-    ref: MARGIN + 150,
-    res: MARGIN + 200,
-    before: MARGIN + 270,
-    after: MARGIN + 350,
-    note: MARGIN + 420,
+    ref: MARGIN + 130,
+    res: MARGIN + 180,
+    before: MARGIN + 230,
+    after: MARGIN + 290,
+    cv: MARGIN + 345,
+    note: MARGIN + 410,
   };
   const flow = new Flow(doc);
   const head = (title: string) => {
@@ -275,6 +300,7 @@ function deltaEPage(doc: Doc, c: Calibration): void {
     line(doc, 'result', cols.res + 4, flow.y, 8, true);
     line(doc, 'ΔE00 before', cols.before, flow.y, 8, true);
     line(doc, 'ΔE00 after', cols.after, flow.y, 8, true);
+    line(doc, 'ΔE00 cross-val.', cols.cv, flow.y, 8, true);
     flow.y += 14;
   };
   head('Chart patches: ΔE00 in reference rendering');
@@ -297,6 +323,7 @@ function deltaEPage(doc: Doc, c: Calibration): void {
     doc.fillColor('#000000');
     line(doc, f(p.deltaEBefore), cols.before + 10, y + 7, 9);
     line(doc, f(p.deltaEAfter), cols.after + 10, y + 7, 9);
+    line(doc, f(p.deltaECrossValidated), cols.cv + 10, y + 7, 9);
     line(
       doc,
       !p.measured ? 'not measured' : p.inGamut ? '' : 'outside sRGB, not in means',
@@ -308,17 +335,39 @@ function deltaEPage(doc: Doc, c: Calibration): void {
   }
   flow.y += 8;
   flow.line(
-    `Mean over in-gamut patches: before ${f(c.fit.deltaE.before.mean)}, after ${f(c.fit.deltaE.after.mean)}; max after ${f(c.fit.deltaE.after.max)}`,
+    `Mean over in-gamut patches: before ${f(c.fit.deltaE.before.mean)}, after ${f(c.fit.deltaE.after.mean)}, cross-validated ${f(c.fit.deltaE.crossValidated?.mean)}; max after ${f(c.fit.deltaE.after.max)}`,
     9,
     true,
+  );
+  flow.line(
+    'Before: the measured curves alone, no colour matrix. After: the profile (training).',
+    8,
+    false,
+    12,
+  );
+}
+
+function abPlanePage(doc: Doc, c: Calibration): void {
+  line(doc, 'Chart patches in the a*b* plane: published colour against the result', MARGIN, MARGIN, 14, true);
+  const size = PAGE.width - 2 * MARGIN - 40;
+  abPlanePlot(doc, c.fit.deltaE.patches, { x: MARGIN + 30, y: MARGIN + 50, size });
+  const y = MARGIN + 50 + size + 36;
+  paragraph(
+    doc,
+    'Filled dot: the published colour of the patch (its number beside it); ring: the profile’s result; the line joins them, so a long line is a colour that is off and its direction the cast. A cross: the patch as predicted by a fit that never saw it (cross-validated). Lightness is left out: see the table for the whole ΔE00.',
+    MARGIN,
+    y,
+    PAGE.width - 2 * MARGIN,
+    8,
   );
 }
 
 /**
  * Writes a calibration's report as an A4 PDF to `out` (an HTTP response or a file stream): first the fitted values
- * (γ, speed point and EI, neutral spread, crosstalk, warnings), then a page of the three characteristic curves with
- * their fitted lines as vector plots, then the per-patch ΔE00 table with reference and result swatches side by
- * side: three pages, more when a long list of warnings or the table runs on (each continued page says so). Nothing
+ * (γ, speed point and EI, neutral spread, the crosstalk and exposure matrices, training and cross-validated ΔE00,
+ * warnings), then a page of the three characteristic curves with their fitted lines as vector plots, then the
+ * per-patch ΔE00 table (before, after, cross-validated) with reference and result swatches side by side, then the
+ * patches in the a*b* plane, reference joined to result: four pages, more when a long list of warnings or the table runs on (each continued page says so). Nothing
  * is drawn below the bottom margin. Resolves when the document has been written out.
  *
  * @example
@@ -348,6 +397,8 @@ export function writeCalibrationReport(
   curvesPage(doc, calibration);
   doc.addPage();
   deltaEPage(doc, calibration);
+  doc.addPage();
+  abPlanePage(doc, calibration);
   doc.end();
   return done;
 }
