@@ -39,7 +39,7 @@ export function createInversionService({ db, clock }: { db: Kysely<Database>; cl
 
     /**
      * Queues the roll's inversion for `actor`: the frames not done yet, or all of them again, with each frame's own
-     * levels or the whole roll's. A roll already queued or inverting answers its job instead of a second one. Throws
+     * levels, the whole roll's, or none at the metered exposure for the roll's EI (recorded on the job). A roll already queued or inverting answers its job instead of a second one. Throws
      * 404 for a roll not theirs to see, 409 for a roll with no scans.
      */
     async start(actor: User, rollId: number, request: InvertRollRequest): Promise<Job> {
@@ -65,7 +65,12 @@ export function createInversionService({ db, clock }: { db: Kysely<Database>; cl
         const job = await insertJob(trx, {
           kind: 'invert-roll',
           target,
-          payload: { rollId: roll.id, frames: request.frames, levels: request.levels },
+          payload: {
+            rollId: roll.id,
+            frames: request.frames,
+            levels: request.levels,
+            ...(request.levels === 'metered' ? { exposureIndex: roll.ei } : {}),
+          },
           total: again.length,
           by: actor.id,
           at,

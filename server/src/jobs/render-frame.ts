@@ -37,8 +37,10 @@ export interface FrameRenderRequest {
   /** Long edge of the full-size outputs; null keeps the scan's size. */
   longEdge: number | null;
   maxPixels: number;
-  /** Roll-wide levels to render with; the frame's own when absent. */
+  /** Levels to render with: the roll's, or fixed at the metered exposure (`levelsSource`); the frame's own when absent. */
   levels?: FrameLevels;
+  /** Where `levels` came from; 'roll' when they are given without it. */
+  levelsSource?: 'roll' | 'metered';
 }
 
 export interface StoredRender {
@@ -102,7 +104,7 @@ export async function renderFrame(
         roll: request.roll,
         frame: request.frame,
         base: request.base.rgb.map((v) => Number(v.toFixed(6))),
-        levels: request.levels ? 'roll' : 'frame',
+        levels: request.levels ? (request.levelsSource ?? 'roll') : 'frame',
       },
       sourceFile: request.fileName,
     };

@@ -37,6 +37,7 @@ import { findVersionById } from '../profiles/profile-repository';
 import { scannerProfileOf } from '../rolls/roll-access';
 import { findRollById, setRollStatus, type RollListRow } from '../rolls/roll-repository';
 import { countFrameOfJob, findJobById, rollIdOfTarget } from './job-repository';
+import { meteredLevels } from './metered-levels';
 import { renderFrame } from './render-frame';
 import { publishRollEvent } from './roll-events';
 
@@ -68,8 +69,9 @@ interface RollContext {
   rollBase: MeasuredBase | null;
   formats: OutputFormat[];
   longEdge: number | null;
-  /** Roll-wide levels, when the job asked for them. */
+  /** Roll-wide levels, or the metered exposure's, when the job asked for them. */
   levels?: FrameLevels;
+  levelsSource?: 'roll' | 'metered';
 }
 
 /** A frame that has no base to render with: it fails at once, flagged `no-base`, without more tries. */
@@ -125,6 +127,7 @@ export function createRollJob(deps: RollJobDeps) {
           longEdge: context.longEdge,
           maxPixels: config.uploads.maxPixels,
           ...(context.levels ? { levels: context.levels } : {}),
+          ...(context.levelsSource ? { levelsSource: context.levelsSource } : {}),
         });
         const done = await db.transaction().execute(async (trx) => {
           const now = clock.now();
@@ -228,10 +231,17 @@ export function createRollJob(deps: RollJobDeps) {
       if (!roll) throw new Error(`Job ${job.id} targets ${job.target}, which does not exist.`);
       const all = await listFramesOfRoll(db, roll.id);
       const context = await rollContext(roll, all);
-      const payload = JSON.parse(job.payload) as { levels?: 'frame' | 'roll' };
+      const payload = JSON.parse(job.payload) as {
+        levels?: 'frame' | 'roll' | 'metered';
+        exposureIndex?: number;
+      };
       if (payload.levels === 'roll') {
         const levels = await rollWideLevels(all, context);
-        if (levels) context.levels = levels;
+        if (levels) Object.assign(context, { levels, levelsSource: 'roll' });
+      } else if (payload.levels === 'metered') {
+        // The EI recorded when the job was queued, so a resumed job renders as it began.
+        context.levels = meteredLevels(context.profile, payload.exposureIndex ?? roll.ei);
+        context.levelsSource = 'metered';
       }
       const todo = all.filter((f) => f.status === 'queued' || f.status === 'inverting');
       await Promise.all(todo.map((frame) => frames.add(() => renderOne(job, frame, context))));

@@ -63,3 +63,35 @@ describe('levels of a whole roll', () => {
     expect(rollDifference).toBeGreaterThan(15);
   });
 });
+
+describe('a roll at the metered exposure', () => {
+  it('prints a frame shot a stop over and taken back a stop by its own exposure as the same grey as its neighbour, where each frame’s levels would not', async () => {
+    await operator.send('put', `/api/frames/${frames[1]}/adjustments`, { exposureStops: -1 }).expect(200);
+
+    const own = await operator
+      .post(`/api/rolls/${roll}/invert`, { frames: 'all', levels: 'frame' })
+      .expect(202);
+    await settled(own.body.id as number);
+    const ownDifference = (await previewMean(frames[1]!)) - (await previewMean(frames[0]!));
+
+    const metered = await operator
+      .post(`/api/rolls/${roll}/invert`, { frames: 'all', levels: 'metered' })
+      .expect(202);
+    await settled(metered.body.id as number);
+    const meteredDifference = (await previewMean(frames[1]!)) - (await previewMean(frames[0]!));
+
+    // each frame's levels even the exposures out, so the frame's −1 stop prints it a stop darker
+    expect(ownDifference).toBeLessThan(-15);
+    expect(Math.abs(meteredDifference)).toBeLessThan(8);
+    // and the normal frame prints near mid grey on the preview's 0..255 scale, neither blocked up nor washed out
+    const normal = await previewMean(frames[0]!);
+    expect(normal).toBeGreaterThan(60);
+    expect(normal).toBeLessThan(190);
+  });
+
+  it('refuses a levels choice it does not know, naming the field', async () => {
+    const res = await operator.send('post', `/api/rolls/${roll}/invert`, { levels: 'fixed' });
+    expect(res.status).toBe(400);
+    expect(JSON.stringify(res.body)).toContain('levels');
+  });
+});

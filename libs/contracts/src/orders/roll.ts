@@ -147,10 +147,12 @@ export type RollBaseRequest = z.infer<typeof rollBaseRequestSchema>;
 
 /**
  * Which frames an inversion job renders (those not done yet, or every frame again), and whose levels set exposure,
- * neutral balance and black and white points: each frame's own, or the whole roll's together for consistency.
+ * neutral balance and black and white points: each frame's own, the whole roll's together for consistency, or none
+ * (`metered`: fixed at the profile's metered exposure for the roll's EI, with the profile's own balance and points).
+ * The roll's and the frames' exposure stops apply in every case.
  */
 export const invertRollRequestSchema = z.strictObject({
   frames: z.enum(['pending', 'all']).default('pending'),
-  levels: z.enum(['frame', 'roll']).default('frame'),
+  levels: z.enum(['frame', 'roll', 'metered']).default('frame'),
 });
 export type InvertRollRequest = z.infer<typeof invertRollRequestSchema>;
