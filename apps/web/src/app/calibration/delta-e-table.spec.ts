@@ -56,10 +56,10 @@ const deltaE: CalibrationFit['deltaE'] = {
   memorisedChart: false,
 };
 
-function render() {
+function render(value: CalibrationFit['deltaE'] = deltaE) {
   TestBed.configureTestingModule({ imports: [DeltaETable], providers: [provideZonelessChangeDetection()] });
   const fixture = TestBed.createComponent(DeltaETable);
-  fixture.componentRef.setInput('deltaE', deltaE);
+  fixture.componentRef.setInput('deltaE', value);
   fixture.detectChanges();
   return fixture.nativeElement as HTMLElement;
 }
@@ -70,7 +70,7 @@ describe('DeltaETable', () => {
     const rows = [...el.querySelectorAll('[data-testid="delta-e-row"]')];
     expect(rows).toHaveLength(3);
     const cells = [...rows[0]!.querySelectorAll('td')].map((td) => td.textContent?.trim());
-    expect(cells).toEqual(['1', 'dark skin', '', '2.41', '0.36', '']);
+    expect(cells).toEqual(['1', 'dark skin', '', '2.41', '0.36', '0.91', '']);
     const ref = rows[0]!.querySelector<HTMLElement>('[data-testid="swatch-reference"]')!;
     const res = rows[0]!.querySelector<HTMLElement>('[data-testid="swatch-result"]')!;
     expect(ref.style.background).toContain('rgb(115, 82, 68)');
@@ -90,6 +90,32 @@ describe('DeltaETable', () => {
     const el = render();
     expect(el.querySelector('[data-testid="mean-before"]')!.textContent?.trim()).toBe('2.41 (2.41)');
     expect(el.querySelector('[data-testid="mean-after"]')!.textContent?.trim()).toBe('0.36 (0.36)');
+    expect(el.querySelector('[data-testid="mean-cross-validated"]')!.textContent?.trim()).toBe('0.91 (0.91)');
+    expect(el.querySelector('[data-testid="neutral-row"]')!.textContent).toContain('|Δa*| 0.30, |Δb*| 0.40');
     expect(formatDeltaE(Number.NaN)).toBe('–');
+  });
+
+  it('warns beside the figures when the colour fit memorises the chart, and only then', () => {
+    expect(render().querySelector('[data-testid="memorised-chart"]')).toBeNull();
+    TestBed.resetTestingModule();
+    const el = render({ ...deltaE, memorisedChart: true });
+    expect(el.querySelector('[data-testid="memorised-chart"]')!.textContent).toContain(
+      'the colour fit follows this chart more than the film',
+    );
+  });
+
+  it('prints dashes for a calibration kept before the cross-validated figures', () => {
+    const el = render({
+      ...deltaE,
+      patches: deltaE.patches.map((p) => ({ ...p, crossValidated: null, deltaECrossValidated: null })),
+      crossValidated: null,
+      neutral: null,
+      frames: [],
+    });
+    expect(el.querySelector('[data-testid="mean-cross-validated"]')!.textContent?.trim()).toBe('– (–)');
+    expect(
+      el.querySelectorAll('[data-testid="delta-e-row"]')[0]!.querySelectorAll('td')[5]!.textContent?.trim(),
+    ).toBe('–');
+    expect(el.querySelector('[data-testid="neutral-row"]')).toBeNull();
   });
 });

@@ -6,7 +6,11 @@ export function formatDeltaE(v: number | null): string {
   return v === null || !Number.isFinite(v) ? '–' : v.toFixed(2);
 }
 
-/** The chart's patches: reference and result swatches side by side, ΔE00 before and after the crosstalk matrix. */
+/**
+ * The chart's patches: reference and result swatches side by side, ΔE00 before the colour matrices, after them
+ * (training: the fit saw the patch) and cross-validated (the patch predicted by a fit without it), with the means,
+ * the neutral row and a warning when the cross-validated figures show the fit memorising the chart.
+ */
 @Component({
   selector: 'cb-delta-e-table',
   template: `
@@ -17,7 +21,8 @@ export function formatDeltaE(v: number | null): string {
           <th>Patch</th>
           <th>Reference · result</th>
           <th>ΔE00 before</th>
-          <th>ΔE00 after</th>
+          <th>ΔE00 after (training)</th>
+          <th>ΔE00 cross-validated</th>
           <th></th>
         </tr>
       </thead>
@@ -42,6 +47,9 @@ export function formatDeltaE(v: number | null): string {
             </td>
             <td class="num">{{ formatDeltaE(p.deltaEBefore) }}</td>
             <td class="num" [class.large]="(p.deltaEAfter ?? 0) > 3">{{ formatDeltaE(p.deltaEAfter) }}</td>
+            <td class="num" [class.large]="(p.deltaECrossValidated ?? 0) > 3">
+              {{ formatDeltaE(p.deltaECrossValidated) }}
+            </td>
             <td class="note">
               {{ !p.measured ? 'not measured' : p.inGamut ? '' : 'outside sRGB: not in the means' }}
             </td>
@@ -57,10 +65,25 @@ export function formatDeltaE(v: number | null): string {
           <td class="num" data-testid="mean-after">
             {{ formatDeltaE(deltaE().after.mean) }} ({{ formatDeltaE(deltaE().after.max) }})
           </td>
+          <td class="num" data-testid="mean-cross-validated">
+            {{ formatDeltaE(deltaE().crossValidated?.mean ?? null) }}
+            ({{ formatDeltaE(deltaE().crossValidated?.max ?? null) }})
+          </td>
           <td></td>
         </tr>
       </tfoot>
     </table>
+    @if (deltaE().neutral; as n) {
+      <p data-testid="neutral-row">
+        Neutral row with the profile: largest |Δa*| {{ formatDeltaE(n.a) }}, |Δb*| {{ formatDeltaE(n.b) }}
+      </p>
+    }
+    @if (deltaE().memorisedChart) {
+      <p class="large" data-testid="memorised-chart">
+        The cross-validated ΔE00 lies well above the training figure: the colour fit follows this chart more
+        than the film. Add chart frames at other exposures or check the chart for glare and dust.
+      </p>
+    }
   `,
   styles: `
     table {
