@@ -48,6 +48,19 @@ describe('JobView', () => {
     backend.verify();
   });
 
+  it('starts the inversion fixed at the metered exposure when that is chosen, in words that say so', async () => {
+    const { fixture, backend, q } = await render(null);
+    const metered = q('levels-metered')!;
+    expect(metered.textContent!.trim()).toBe('Fixed at the metered exposure');
+    (metered.querySelector('button') as HTMLButtonElement).click();
+    await fixture.whenStable();
+    q('invert-roll')!.click();
+    const req = backend.expectOne('/api/rolls/7/invert');
+    expect(req.request.body).toEqual({ frames: 'pending', levels: 'metered' });
+    req.flush(testJob(5, 'queued'), { status: 202, statusText: 'Accepted' });
+    backend.verify();
+  });
+
   it('shows a running job’s progress, offers to cancel it, and tells the job as it is after', async () => {
     const running = { ...testJob(4, 'running'), progress: { done: 1, failed: 1, total: 4 } };
     const { fixture, backend, q, cancelled } = await render(running, 4, 1);

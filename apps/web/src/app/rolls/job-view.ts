@@ -13,7 +13,8 @@ import { statusTone } from './status-tone';
 
 /**
  * A roll's inversion: the job's state and progress while it runs, with a way to cancel it; otherwise whose levels
- * the next inversion takes and the buttons that start it, for the frames still to do or for every frame again.
+ * the next inversion takes (or none, fixed at the metered exposure) and the buttons that start it, for the frames
+ * still to do or for every frame again.
  */
 @Component({
   selector: 'cb-job-view',
@@ -42,7 +43,7 @@ export class JobView {
   protected readonly jobPercent = jobPercent;
   protected readonly statusTone = statusTone;
   protected readonly acting = signal(false);
-  /** Whose levels the next inversion uses: each frame's own, or the roll's together. */
+  /** Whose levels the next inversion uses: each frame's own, the roll's together, or none (the metered exposure). */
   protected readonly levels = signal<InvertRollRequest['levels']>('frame');
   protected readonly active = computed(() => {
     const job = this.job();

@@ -60,7 +60,8 @@ export class RollsApi {
 
   /**
    * Starts (or joins) the roll's batch inversion; the server answers 202 with the job. `levels` says whose levels set
-   * exposure, neutral balance and black and white points: each frame's own, or the whole roll's together.
+   * exposure, neutral balance and black and white points: each frame's own, the whole roll's together, or none
+   * (`metered`: fixed at the profile's metered exposure for the roll's EI).
    */
   invert(rollId: number, request: InvertRollRequest): Observable<Job> {
     return this.http.post<Job>(`/api/rolls/${rollId}/invert`, request);
