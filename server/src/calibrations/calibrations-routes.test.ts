@@ -170,7 +170,7 @@ describe('calibrations API', () => {
     await operator.get('/api/calibrations/9999').expect(404);
   });
 
-  it('streams the report as a three-page PDF', async () => {
+  it('streams the report as a four-page PDF', async () => {
     const res = await operator
       .get(`/api/calibrations/${created.id}/report.pdf`)
       .buffer(true)
@@ -183,7 +183,7 @@ describe('calibrations API', () => {
     expect(res.headers['content-type']).toBe('application/pdf');
     const pdf = res.body as Buffer;
     expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
-    expect(pdf.toString('latin1').match(/\/Type \/Page\b/g)).toHaveLength(3);
+    expect(pdf.toString('latin1').match(/\/Type \/Page\b/g)).toHaveLength(4);
   });
 
   it('writes the fitted values, the patch table and the warnings into the report', async () => {
@@ -210,6 +210,10 @@ describe('calibrations API', () => {
     expect(text).toContain('dark skin');
     expect(text).toContain(one.warnings.length ? one.warnings[0].message.slice(0, 20) : 'None.');
     expect(text).toContain(one.fit.curves.green.gamma.toFixed(3));
+    expect(text).toContain(
+      `Cross-validated (each patch by a fit without it): mean ${one.fit.deltaE.crossValidated.mean.toFixed(2)}`,
+    );
+    expect(text).toContain('Chart patches in the a*b* plane');
   });
 
   it('previews an uploaded frame as a JPEG with the frame’s full size in headers', async () => {
