@@ -82,6 +82,15 @@ describe('inversion service', () => {
     expect((await listFramesOfRoll(t.db, roll)).every((f) => f.status === 'queued')).toBe(true);
   });
 
+  it('records the roll’s EI on a job at the metered exposure, so a resumed job renders at the EI it began with', async () => {
+    const { roll } = await rollOf(1);
+    const job = await inversion.start(operator, roll, { frames: 'pending', levels: 'metered' });
+    expect(JSON.parse((await findJobById(t.db, job.id))!.payload)).toMatchObject({
+      levels: 'metered',
+      exposureIndex: 200,
+    });
+  });
+
   it('refuses a roll with no scans, and another customer’s roll as if it did not exist', async () => {
     const { roll } = await lab.newRoll();
     await expect(
