@@ -149,7 +149,7 @@ function summaryPage(doc: Doc, c: Calibration): void {
 
   const e = fit.deltaE;
   const matrices: [string, CalibrationFit['crosstalk'] | null][] = [
-    ['Density crosstalk (D\' = M·D)', fit.crosstalk],
+    ["Density crosstalk (D' = M·D)", fit.crosstalk],
     ['Exposure matrix (film exposures to linear sRGB)', fit.exposureMatrix],
   ];
   for (const [title, m] of matrices) {
