@@ -93,17 +93,19 @@ afterAll(async () => {
 
 describe('a roll’s live events', () => {
   it('streams job progress and each frame’s status over Server-Sent Events until the job is done, and lets go of the roll when the client disconnects', async () => {
+    const operatorCookie = await cookieFor('oskar@lab.test');
     const customerCookie = await cookieFor('cass@lab.test');
     const abort = new AbortController();
-    const res = await fetch(`${base}/api/rolls/${roll}/events`, {
-      headers: { cookie: customerCookie },
-      signal: abort.signal,
-    });
+    const open = (cookie: string) =>
+      fetch(`${base}/api/rolls/${roll}/events`, { headers: { cookie }, signal: abort.signal });
+    const res = await open(operatorCookie);
+    // the customer follows the same job, without the frames the lab has not approved for them
+    const theirs = await open(customerCookie);
     expect(res.status).toBe(200);
+    expect(theirs.status).toBe(200);
     expect(res.headers.get('content-type')).toBe('text/event-stream; charset=utf-8');
-    await until(async () => rollListenerCount(t.db, roll) === 1);
+    await until(async () => rollListenerCount(t.db, roll) === 2);
 
-    const operatorCookie = await cookieFor('oskar@lab.test');
     const headers = { cookie: operatorCookie, 'content-type': 'application/json' };
     const xsrf = /XSRF-TOKEN=([^;]+)/.exec(operatorCookie)![1]!;
     const started = await fetch(`${base}/api/rolls/${roll}/invert`, {
@@ -113,9 +115,13 @@ describe('a roll’s live events', () => {
     });
     expect(started.status).toBe(202);
 
-    const events = await readEvents(res.body!, (seen) =>
-      seen.some((e) => e.event === 'job' && (e.data as { job: { state: string } }).job.state === 'done'),
-    );
+    const done = (seen: { event: string; data: unknown }[]) =>
+      seen.some((e) => e.event === 'job' && (e.data as { job: { state: string } }).job.state === 'done');
+    const [events, customerEvents] = await Promise.all([
+      readEvents(res.body!, done),
+      readEvents(theirs.body!, done),
+    ]);
+    expect(customerEvents.filter((e) => e.event === 'frame')).toEqual([]);
     const jobStates = events
       .filter((e) => e.event === 'job')
       .map((e) => (e.data as { job: { state: string; progress: { done: number } } }).job);

@@ -14,6 +14,7 @@ import type { RouteModule } from '../http/route-module';
 import { createInversionService } from '../jobs/inversion-service';
 import { latestJobOf, rollTarget, toJob } from '../jobs/job-repository';
 import { onCloseRollStreams, subscribeRollEvents } from '../jobs/roll-events';
+import { isStaff } from '../orders/order-access';
 import { loadRollFor } from './roll-access';
 import { toRoll } from './roll-repository';
 
@@ -87,7 +88,7 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
       path: '/api/rolls/:id/events',
       roles: everyone,
       params: idParamsSchema,
-      summary: 'Live job progress and frame status of a roll (Server-Sent Events)',
+      summary: 'Live job progress of a roll and, for staff, each frame’s status (Server-Sent Events)',
     },
     async (req, res, { params, user }) => {
       const roll = await loadRollFor(db, params.id, user!);
@@ -98,15 +99,19 @@ export const rollsRoutes: RouteModule = (api, { db, config, clock }) => {
         // nginx and similar proxies buffer responses unless told not to
         'X-Accel-Buffering': 'no',
       });
-      const send = (event: RollEvent) =>
+      // a customer follows the job's progress; frames are theirs to see only once the lab approves them
+      const customer = !isStaff(user!);
+      const send = (event: RollEvent) => {
+        if (customer && event.type === 'frame') return;
         res.write(`event: ${event.type}\ndata: ${JSON.stringify(event)}\n\n`);
+      };
       // reconnecting clients wait 3 s (the EventSource default is about that; we say it outright)
       res.write('retry: 3000\n\n');
       // listen first, then send where things stand, so a client (re)connecting misses nothing in between
       const unsubscribe = subscribeRollEvents(db, roll.id, send);
       const job = await latestJobOf(db, rollTarget(roll.id));
       if (job) send({ type: 'job', job: toJob(job) });
-      for (const frame of (await listFramesOfRoll(db, roll.id)).map((f) => toFrame(f))) {
+      for (const frame of customer ? [] : (await listFramesOfRoll(db, roll.id)).map((f) => toFrame(f))) {
         send({
           type: 'frame',
           frameId: frame.id,
