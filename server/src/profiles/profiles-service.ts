@@ -297,13 +297,14 @@ export function createProfilesService({ db, clock }: ProfilesDeps) {
           at,
         },
         'profile-created',
+        // recorded in the audit line as it is answered, with the calibration that made it
         (started) => ({
           profileId: started.profile.id,
           versionId: started.version.id,
           created: 'profile' as const,
           calibrationId,
         }),
-      ).then(({ profileId, versionId, created }) => ({ profileId, versionId, created }));
+      );
     },
 
     /** Makes a new draft from any version of the same profile. Throws AppError 404 for an unknown profile or version. */
